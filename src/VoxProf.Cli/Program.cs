@@ -1,0 +1,3 @@
+using VoxProf.Cli;
+
+return Cli.Run(args, Console.Out, Console.Error);

@@ -1,0 +1,30 @@
+namespace VoxProf.Core;
+
+/// <summary>
+/// Bad input from the user (a scene, a report, an option value). The command line catches it once and prints
+/// <see cref="Exception.Message"/> as one line with exit code 2, so the message must name the file and the place in it.
+/// </summary>
+public class InputException : Exception
+{
+    public InputException(string message) : base(message) { }
+    public InputException(string message, Exception inner) : base(message, inner) { }
+}
+
+/// <summary>A scene file problem: names the file, the JSON path (or line and column) and what was expected.</summary>
+public sealed class SceneFormatException : InputException
+{
+    public SceneFormatException(string file, string where, string problem)
+        : base($"{file}: {where}: {problem}")
+    {
+        File = file;
+        Where = where;
+        Problem = problem;
+    }
+
+    public string File { get; }
+
+    /// <summary>The JSON path (e.g. <c>$.layers[2].radius</c>) or "line L, column C".</summary>
+    public string Where { get; }
+
+    public string Problem { get; }
+}

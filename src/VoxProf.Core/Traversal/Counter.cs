@@ -1,0 +1,72 @@
+namespace VoxProf.Core.Traversal;
+
+/// <summary>Per-pixel work counters. Exact definitions: docs/counters.md.</summary>
+public enum Counter
+{
+    Iterations,
+    CellSteps,
+    SlabTests,
+    Descents,
+    Ascents,
+    NodeFetches,
+    MaskCulledCells,
+    MaskSkippedNodes,
+    PrepassIterations,
+    PrepassSkip,
+}
+
+public static class CounterNames
+{
+    public const int Count = 10;
+
+    public static readonly IReadOnlyList<Counter> All = Enum.GetValues<Counter>();
+
+    public static string Name(this Counter c) => c switch
+    {
+        Counter.Iterations => "iterations",
+        Counter.CellSteps => "cell-steps",
+        Counter.SlabTests => "slab-tests",
+        Counter.Descents => "descents",
+        Counter.Ascents => "ascents",
+        Counter.NodeFetches => "node-fetches",
+        Counter.MaskCulledCells => "mask-culled-cells",
+        Counter.MaskSkippedNodes => "mask-skipped-nodes",
+        Counter.PrepassIterations => "prepass-iterations",
+        Counter.PrepassSkip => "prepass-skip",
+        _ => throw new ArgumentOutOfRangeException(nameof(c)),
+    };
+
+    /// <summary>Unit shown in reports.</summary>
+    public static string Unit(this Counter c) => c == Counter.PrepassSkip ? "voxels" : "count";
+
+    public static string Description(this Counter c) => c switch
+    {
+        Counter.Iterations => "main-loop iterations of the pixel's ray",
+        Counter.CellSteps => "advances from one cell to the next (DDA or slab)",
+        Counter.SlabTests => "ray/box slab tests",
+        Counter.Descents => "moves from a node into one of its child nodes",
+        Counter.Ascents => "moves from a node back to its parent",
+        Counter.NodeFetches => "node records read from the tree",
+        Counter.MaskCulledCells => "occupied cells proven unreachable by the directional mask",
+        Counter.MaskSkippedNodes => "nodes left whole because the directional mask left nothing reachable",
+        Counter.PrepassIterations => "the coarse prepass ray's iterations, shared among the pixels it serves",
+        Counter.PrepassSkip => "whole voxels of distance the prepass let the ray skip",
+        _ => throw new ArgumentOutOfRangeException(nameof(c)),
+    };
+
+    public static bool TryParse(string text, out Counter counter)
+    {
+        foreach (var c in All)
+        {
+            if (string.Equals(c.Name(), text, StringComparison.OrdinalIgnoreCase))
+            {
+                counter = c;
+                return true;
+            }
+        }
+        counter = default;
+        return false;
+    }
+
+    public static string ValidList => string.Join(", ", All.Select(c => c.Name()));
+}

@@ -1,0 +1,41 @@
+namespace VoxProf.Core.Traversal;
+
+/// <summary>The face of the hit voxel through which the ray entered it.</summary>
+public enum HitFace : byte
+{
+    /// <summary>No face: a miss, or the ray started inside the hit voxel (t = 0).</summary>
+    None = 0,
+    NegX = 1,
+    PosX = 2,
+    NegY = 3,
+    PosY = 4,
+    NegZ = 5,
+    PosZ = 6,
+}
+
+/// <summary>What one pixel's ray hit. <see cref="Hit"/> false means a miss and the other fields are zero.</summary>
+public struct PixelHit
+{
+    public int X;
+    public int Y;
+    public int Z;
+    /// <summary>Distance along the unit-length ray to the entry into the hit voxel, in voxels.</summary>
+    public float T;
+    public byte Material;
+    public HitFace Face;
+    public bool Hit;
+
+    public readonly bool SameVoxel(in PixelHit other) =>
+        Hit == other.Hit && (!Hit || (X == other.X && Y == other.Y && Z == other.Z));
+
+    public static string FaceName(HitFace f) => f switch
+    {
+        HitFace.NegX => "-x",
+        HitFace.PosX => "+x",
+        HitFace.NegY => "-y",
+        HitFace.PosY => "+y",
+        HitFace.NegZ => "-z",
+        HitFace.PosZ => "+z",
+        _ => "inside",
+    };
+}
