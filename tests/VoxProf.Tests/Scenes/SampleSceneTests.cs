@@ -49,6 +49,7 @@ public class SampleSceneTests
         {
             (scene.ExtentX, scene.ExtentY, scene.ExtentZ).Should().Be((2048, 512, 2048));
             scene.Cameras[0].Name.Should().Be("main-street");
+            scene.Description.Should().StartWith("Stonebrook");
             scene.Layers.Select(l => l.Kind).Should().Contain(["terrain", "caves", "scatter", "box", "cylinder", "sphere"]);
         }
         else

@@ -32,6 +32,8 @@ public class SceneLoaderTests
         ((CylinderLayer)scene.Layers[3]).Axis.Should().Be(Axis.Z);
         ((CavesLayer)scene.Layers[4]).Settings.Shape.Should().Be(CaveShape.Chambers);
         ((ScatterLayer)scene.Layers[5]).Clumps.Should().HaveCount(25);
+        scene.Layers[5].Label.Should().Be("grit");
+        scene.Layers[0].Label.Should().BeNull();
         scene.Cameras.Should().ContainSingle().Which.Should().Be(
             new CameraSpec("cam", new Vector3(1, 2, 3), new Vector3(10, 2, 10), Vector3.UnitY, 60));
     }
