@@ -31,8 +31,7 @@ public static class SceneLoader
         var root = new JsonValue(doc.RootElement, "$", path).AsObject("an object holding a scene");
         root.AllowOnly("in a scene", "version", "description", "extent", "layers", "cameras");
 
-        if (root.Optional("version") is { } version && version.Int($"{FormatVersion}", FormatVersion, FormatVersion) != FormatVersion)
-            throw version.Error("unsupported version");
+        root.Optional("version")?.Int(FormatVersion.ToString(CultureInfo.InvariantCulture), FormatVersion, FormatVersion);
         string? description = root.Optional("description")?.String();
 
         int[] e = root.Required("extent", "[x, y, z] voxel counts").Ints("[x, y, z] voxel counts", 3, 1,

@@ -185,6 +185,15 @@ public class SceneLoaderErrorTests
     }
 
     [Fact]
+    public void Unsupported_version_and_a_non_object_root_are_rejected()
+    {
+        var ex = Reject(new TempScene("{'version': 2, 'extent': [4, 4, 4], 'layers': [], 'cameras': [" + TempScene.Camera + "]}"));
+        ex.Where.Should().Be("$.version");
+        ex.Problem.Should().Be("expected 1, found 2");
+        Reject(new TempScene("[1, 2]")).Problem.Should().Be("expected an object holding a scene, found an array of 2");
+    }
+
+    [Fact]
     public void Every_failure_is_an_input_exception_for_the_command_line_guard()
     {
         var ex = Reject(TempScene.With("{'kind': 'cone'}"));

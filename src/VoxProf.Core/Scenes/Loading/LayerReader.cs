@@ -163,12 +163,16 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
             : [0, 0, 0];
 
         string full = Path.GetFullPath(Path.Combine(sceneDirectory, file));
-        byte[] data = SceneLoader.ReadFile(sceneFile, full, fileValue.Path, "raw volume file");
-        if (data.LongLength != voxels)
+        // Check the length before reading, so a wrong multi-gigabyte file is refused without loading it.
+        long length = File.Exists(full) ? new FileInfo(full).Length : -1;
+        if (length >= 0 && length != voxels)
         {
             throw fileValue.Error(string.Create(CultureInfo.InvariantCulture,
-                $"raw volume file {file} holds {data.LongLength} bytes; expected {voxels} ({size[0]} × {size[1]} × {size[2]} from {sizeValue.Path})"));
+                $"raw volume file {file} holds {length} bytes; expected {voxels} ({size[0]} × {size[1]} × {size[2]} from {sizeValue.Path})"));
         }
+        byte[] data = SceneLoader.ReadFile(sceneFile, full, fileValue.Path, "raw volume file");
+        if (data.LongLength != voxels)
+            throw fileValue.Error("raw volume file changed while it was being read");
         hash.AppendData(data);
         return new RawLayer(op, material, data, size[0], size[1], size[2], origin[0], origin[1], origin[2], extent);
     }
