@@ -193,6 +193,32 @@ public class SceneLoaderErrorTests
         Reject(new TempScene("[1, 2]")).Problem.Should().Be("expected an object holding a scene, found an array of 2");
     }
 
+    [Theory]
+    [InlineData("{'kind': 'box', 'material': 1, 'min': [0, 5, 0], 'max': [1, 1, 1]}",
+        "$.layers[0].max", "max[1] is below min[1]; expected max ≥ min on every axis")]
+    [InlineData("{'kind': 'scatter', 'material': 1, 'seed': 1, 'count': 3, 'region': {'min': [4, 0, 0], 'max': [4, 8, 8]}}",
+        "$.layers[0].region.max", "max[0] is not above min[0]; expected a non-empty region (max > min)")]
+    [InlineData("{'kind': 'scatter', 'material': 1, 'seed': 1, 'count': 3, 'size': [3, 2]}",
+        "$.layers[0].size", "largest clump side is below the smallest; expected [smallest, largest]")]
+    [InlineData("{'kind': 'scatter', 'material': 1, 'seed': 1, 'count': 3, 'size': [1, 65]}",
+        "$.layers[0].size[1]", "expected an integer from 1 to 64, found 65")]
+    [InlineData("{'kind': 'terrain', 'material': 1, 'seed': 1, 'frequency': 0.01, 'amplitude': 5, 'baseHeight': 3, 'footprint': {'min': [0, 0], 'max': [65536, 65536]}}",
+        "$.layers[0].footprint", "footprint too large; expected at most 1073741824 columns")]
+    [InlineData("{'kind': 'raw', 'material': 1, 'file': 'x.raw', 'size': [2048, 2048, 2048]}",
+        "$.layers[0].size", "volume too large; expected at most 1073741824 voxels")]
+    [InlineData("{'kind': 'cylinder', 'material': 1, 'axis': 'w', 'base': [0, 0, 0], 'radius': 1, 'length': 1}",
+        "$.layers[0].axis", "expected one of: \"x\", \"y\", \"z\", found \"w\"")]
+    [InlineData("{'kind': 'caves', 'op': 'carve', 'seed': 1, 'threshold': 0.1, 'frequency': 0}",
+        "$.layers[0].frequency", "expected a number > 0 and at most 1, found 0")]
+    [InlineData("{'kind': 'terrain', 'material': 1, 'seed': -3, 'frequency': 0.01, 'amplitude': 5, 'baseHeight': 3}",
+        "$.layers[0].seed", "expected an integer seed from 0 to 18446744073709551615, found -3")]
+    public void Layer_parameters_out_of_range_are_rejected_with_the_documented_message(string layer, string where, string problem)
+    {
+        var ex = Reject(TempScene.With(layer, extent: "[65536, 64, 65536]"));
+        ex.Where.Should().Be(where);
+        ex.Problem.Should().Be(problem);
+    }
+
     [Fact]
     public void Every_failure_is_an_input_exception_for_the_command_line_guard()
     {
