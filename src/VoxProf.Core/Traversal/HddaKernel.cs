@@ -1,10 +1,11 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Core.Traversal;
 
 /// <summary>
-/// Hierarchical DDA after Museth (2013), "Hierarchical digital differential analyzer for efficient ray-marching in
+/// Hierarchical DDA after Museth (2014), "Hierarchical digital differential analyzer for efficient ray-marching in
 /// OpenVDB": one DDA state (cell coordinates at the current level, next-plane times) that changes level in place.
 /// Descending refines the cell from the current point; ascending coarsens the coordinates by a shift, which already
 /// names the neighbouring coarse cell. No slab test after the volume clip, and no DDA state is saved per level: only
@@ -123,6 +124,7 @@ public static class HddaKernel
         }
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static void PlaneTimes(in RaySetup ray, int gx, int gy, int gz, int shift, int sx, int sy, int sz,
         out double tMaxX, out double tMaxY, out double tMaxZ)
     {

@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
@@ -159,6 +160,7 @@ public static class StackWalkKernel
         }
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static void SetUpDda(in RaySetup ray, int ox, int oy, int oz, int cx, int cy, int cz, int shift,
         int sx, int sy, int sz, out double tMaxX, out double tMaxY, out double tMaxZ)
     {
@@ -168,6 +170,7 @@ public static class StackWalkKernel
     }
 
     /// <summary>One DDA step: picks the axis of the nearest plane (lowest axis on ties); false past <paramref name="tExit"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static bool StepDda(ref double tMaxX, ref double tMaxY, ref double tMaxZ, double dX, double dY, double dZ,
         double tExit, out int axis, out double t)
     {
@@ -181,6 +184,7 @@ public static class StackWalkKernel
     /// Directional culling: false when no occupied cell of the node is reachable from cell (cx, cy, cz) in the ray's
     /// octant, so the caller leaves the node at once.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static bool MaskAdmits<TCounters>(in TreeView view, ulong occupancy, int maskBase, int cx, int cy, int cz,
         ref TCounters counters, bool countCulled) where TCounters : struct, ICostCounters
     {
