@@ -34,6 +34,15 @@ public sealed class GradientNoise
             _perm[i] = p[i & 255];
     }
 
+    /// <summary>Uses a given permutation of 0..255 (for checks against published reference values).</summary>
+    internal GradientNoise(ReadOnlySpan<byte> permutation)
+    {
+        if (permutation.Length != 256)
+            throw new ArgumentException("expected 256 entries", nameof(permutation));
+        for (int i = 0; i < 512; i++)
+            _perm[i] = permutation[i & 255];
+    }
+
     /// <summary>Gradient noise at a point; zero at every integer lattice point.</summary>
     public double Noise3(double x, double y, double z)
     {

@@ -5,15 +5,15 @@ namespace VoxProf.Core.Scenes.Layers;
 
 /// <summary>
 /// Seeded clumps (cubes of 1..<see cref="MaxClumpSize"/> voxels a side) placed uniformly in a region: tiny, far-apart
-/// geometry. Clumps are bucketed in a uniform grid with a 3D prefix sum of bucket counts, so any region is
-/// classified in constant time and small regions are checked clump by clump.
+/// geometry. Clumps are bucketed in a uniform grid with a 3D prefix sum of bucket counts, so a region touching no
+/// bucket with clumps is None after eight look-ups, and otherwise only the non-empty buckets are checked.
 /// </summary>
 public sealed class ScatterLayer : Layer
 {
     public const int MaxClumpSize = 64;
     public const int MaxCount = 1_000_000;
 
-    // A region touching at most this many buckets is tested clump by clump for an exact None or Full.
+    // Classify inspects at most this many non-empty buckets before settling for Partial.
     private const int ExactBucketLimit = 64;
     private const int MaxBuckets = 1 << 21;
 
@@ -60,11 +60,54 @@ public sealed class ScatterLayer : Layer
         if (r.IsEmpty)
             return Coverage.None;
         var (x0, y0, z0, x1, y1, z1) = BucketRange(r);
+        // A region no larger than a bucket may sit inside one clump: look at its (at most eight) buckets.
+        if (r == region && x1 - x0 <= 2 && y1 - y0 <= 2 && z1 - z0 <= 2 && InsideOneClump(region, x0, y0, z0, x1, y1, z1))
+            return Coverage.Full;
+        int budget = ExactBucketLimit;
+        return Probe(r, x0, y0, z0, x1, y1, z1, ref budget) == 0 ? Coverage.None : Coverage.Partial;
+    }
+
+    /// <summary>
+    /// 0 if no clump touches <paramref name="r"/>, 1 if one does, -1 if the search gave up. Halves the bucket
+    /// range and skips empty halves with the prefix sums, so only buckets holding clumps are visited.
+    /// </summary>
+    private int Probe(in Box3i r, int x0, int y0, int z0, int x1, int y1, int z1, ref int budget)
+    {
         if (CountIn(x0, y0, z0, x1, y1, z1) == 0)
-            return Coverage.None;
-        if ((long)(x1 - x0) * (y1 - y0) * (z1 - z0) > ExactBucketLimit)
-            return Coverage.Partial;
-        bool touched = false;
+            return 0;
+        int sx = x1 - x0, sy = y1 - y0, sz = z1 - z0;
+        if (sx == 1 && sy == 1 && sz == 1)
+        {
+            if (--budget < 0)
+                return -1;
+            int b = (z0 * _ny + y0) * _nx + x0;
+            for (int k = _bucketStart[b]; k < _bucketStart[b + 1]; k++)
+            {
+                if (_clumps[_bucketItems[k]].Intersects(r))
+                    return 1;
+            }
+            return 0;
+        }
+        int first;
+        if (sx >= sy && sx >= sz)
+        {
+            int m = x0 + sx / 2;
+            first = Probe(r, x0, y0, z0, m, y1, z1, ref budget);
+            return first != 0 ? first : Probe(r, m, y0, z0, x1, y1, z1, ref budget);
+        }
+        if (sy >= sz)
+        {
+            int m = y0 + sy / 2;
+            first = Probe(r, x0, y0, z0, x1, m, z1, ref budget);
+            return first != 0 ? first : Probe(r, x0, m, z0, x1, y1, z1, ref budget);
+        }
+        int mz = z0 + sz / 2;
+        first = Probe(r, x0, y0, z0, x1, y1, mz, ref budget);
+        return first != 0 ? first : Probe(r, x0, y0, mz, x1, y1, z1, ref budget);
+    }
+
+    private bool InsideOneClump(in Box3i region, int x0, int y0, int z0, int x1, int y1, int z1)
+    {
         for (int bz = z0; bz < z1; bz++)
         {
             for (int by = y0; by < y1; by++)
@@ -74,15 +117,13 @@ public sealed class ScatterLayer : Layer
                     int b = (bz * _ny + by) * _nx + bx;
                     for (int k = _bucketStart[b]; k < _bucketStart[b + 1]; k++)
                     {
-                        ref readonly Box3i c = ref _clumps[_bucketItems[k]];
-                        if (c.ContainsBox(region))
-                            return Coverage.Full;
-                        touched |= c.Intersects(r);
+                        if (_clumps[_bucketItems[k]].ContainsBox(region))
+                            return true;
                     }
                 }
             }
         }
-        return touched ? Coverage.Partial : Coverage.None;
+        return false;
     }
 
     public override bool Contains(int x, int y, int z)
