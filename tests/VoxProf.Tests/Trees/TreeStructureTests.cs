@@ -21,7 +21,7 @@ public class TreeStructureTests
     }
 
     /// <summary>
-    /// Walks the tree from the root and checks the layout contract: masks disjoint and within N³ bits; children
+    /// Walks the tree from the root and checks the layout contract: masks disjoint and within N³ bits; solid cells inside the extent; children
     /// contiguous, one per child bit, each record owned by exactly one parent; no empty node below the root; no node
     /// that should have collapsed into a solid cell; leaves without children; every material nonzero and owned once.
     /// </summary>
@@ -41,12 +41,14 @@ public class TreeStructureTests
         var nodeOwned = new bool[nodes.Length];
         var materialOwned = new bool[materials.Length];
         nodeOwned[0] = true;
-        var pending = new Stack<(int Index, int Level)>();
-        pending.Push((0, 0));
+        int n = tree.Branching;
+        var pending = new Stack<(int Index, int Level, int X, int Y, int Z)>();
+        pending.Push((0, 0, 0, 0, 0));
         while (pending.Count > 0 && problems.Count < 10)
         {
-            (int index, int level) = pending.Pop();
+            (int index, int level, int x, int y, int z) = pending.Pop();
             Node node = nodes[index];
+            int cellSide = 1 << tree.CellShift(level);
             if ((node.ChildMask & node.SolidMask) != 0)
                 problems.Add($"node {index}: a cell is both a child and solid");
             if ((node.Occupancy & ~full) != 0)
@@ -56,10 +58,14 @@ public class TreeStructureTests
             if (level == tree.Depth - 1 && node.ChildMask != 0)
                 problems.Add($"node {index}: a leaf has children");
 
-            int children = BitOperations.PopCount(node.ChildMask);
-            for (int c = 0; c < children; c++)
+            for (int bit = 0; bit < cells; bit++)
             {
-                int child = node.FirstChild + c;
+                var cell = Box3i.Cube(x + bit % n * cellSide, y + bit / n % n * cellSide, z + bit / (n * n) * cellSide, cellSide);
+                if ((node.SolidMask >> bit & 1) != 0 && !tree.Bounds.ContainsBox(cell))
+                    problems.Add($"node {index}: solid cell {bit} reaches outside the extent");
+                if ((node.ChildMask >> bit & 1) == 0)
+                    continue;
+                int child = node.FirstChild + BrickTree.Rank(node.ChildMask, bit);
                 if (child < 1 || child >= nodes.Length)
                     problems.Add($"node {index}: child {child} out of range");
                 else if (nodeOwned[child])
@@ -67,7 +73,7 @@ public class TreeStructureTests
                 else
                 {
                     nodeOwned[child] = true;
-                    pending.Push((child, level + 1));
+                    pending.Push((child, level + 1, cell.MinX, cell.MinY, cell.MinZ));
                 }
             }
 

@@ -1,3 +1,4 @@
+using System.Runtime.InteropServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
 
@@ -55,6 +56,8 @@ internal sealed partial class BuildWorker
             // Leaf: its cells are voxels.
             ReadOnlySpan<byte> voxels = _voxels;
             int side = _side;
+            if (n == 4 && UniformBrick(voxels, (lz * side + ly) * side + lx, side) is int uniform and >= 0)
+                return CellResult.Uniform((byte)uniform);
             int bit = 0;
             for (int cz = 0; cz < n; cz++)
             {
@@ -84,6 +87,27 @@ internal sealed partial class BuildWorker
             Add(ref acc, bit, r);
         }
         return Finish(ref acc);
+    }
+
+    /// <summary>The material of a 4×4×4 brick that is one material throughout, else -1.</summary>
+    /// <remarks>
+    /// Most bricks of a block that crosses a surface lie wholly above or below it; reading a row of four voxels as
+    /// one 32-bit word settles those with 16 compares instead of 64 byte tests.
+    /// </remarks>
+    private static int UniformBrick(ReadOnlySpan<byte> voxels, int start, int side)
+    {
+        uint first = MemoryMarshal.Read<uint>(voxels[start..]);
+        if (first != (first & 0xFF) * 0x01010101u)
+            return -1;
+        for (int cz = 0; cz < 4; cz++)
+        {
+            for (int cy = 0; cy < 4; cy++)
+            {
+                if (MemoryMarshal.Read<uint>(voxels[(start + (cz * side + cy) * side)..]) != first)
+                    return -1;
+            }
+        }
+        return (int)(first & 0xFF);
     }
 
     private static void FillBox(Span<byte> voxels, int side, in Box3i block, in Box3i box, byte material)
