@@ -33,7 +33,7 @@ public static class SceneLoader
 
         if (root.Optional("version") is { } version && version.Int($"{FormatVersion}", FormatVersion, FormatVersion) != FormatVersion)
             throw version.Error("unsupported version");
-        root.Optional("description")?.String();
+        string? description = root.Optional("description")?.String();
 
         int[] e = root.Required("extent", "[x, y, z] voxel counts").Ints("[x, y, z] voxel counts", 3, 1,
             Scene.MaxExtent, $"an integer from 1 to {Scene.MaxExtent.ToString(CultureInfo.InvariantCulture)}");
@@ -58,7 +58,7 @@ public static class SceneLoader
         }
 
         string contentHash = Convert.ToHexStringLower(hash.GetHashAndReset());
-        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash);
+        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash) { Description = description };
     }
 
     /// <summary>The scene name for a path: the file name without <see cref="Extension"/> (or its last extension).</summary>

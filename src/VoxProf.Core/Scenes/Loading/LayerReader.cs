@@ -20,7 +20,7 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
         JsonObjectReader o = value.AsObject("an object holding a layer");
         string kind = o.Required("kind", "a layer kind: " + string.Join(", ", Kinds)).Choice(Kinds);
         o.AllowOnly($"for a {kind} layer", [.. Common, .. KeysOf(kind)]);
-        o.Optional("label")?.String();
+        string? label = o.Optional("label")?.String();
         var op = (o.Optional("op")?.Choice("add", "carve") ?? "add") == "add" ? LayerOp.Add : LayerOp.Carve;
         byte material = 0;
         if (op == LayerOp.Add)
@@ -28,7 +28,7 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
         else if (o.Optional("material") is { } m)
             throw m.Error("a carve layer takes no material; remove the key or use \"op\": \"add\"");
 
-        return kind switch
+        Layer layer = kind switch
         {
             "box" => ReadBox(o, op, material),
             "sphere" => ReadSphere(o, op, material),
@@ -38,6 +38,8 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
             "scatter" => ReadScatter(o, op, material),
             _ => ReadRaw(o, op, material),
         };
+        layer.Label = label;
+        return layer;
     }
 
     /// <summary>Keys each kind takes besides kind, op, material and label.</summary>
