@@ -122,18 +122,33 @@ public class ImageTests
     }
 
     [Fact]
-    public void Preview_shows_sky_for_misses_and_mismatch_marks_only_differing_pixels()
+    public void Preview_shows_sky_for_misses_and_shades_faces_apart()
     {
-        PixelHit[] reference = [new() { Hit = true, X = 1, Material = 3, Face = HitFace.PosY }, new(), new() { Hit = true, X = 2, Material = 3, Face = HitFace.NegX }];
-        PixelHit[] other = [reference[0], new(), new() { Hit = true, X = 9, Material = 3, Face = HitFace.NegX }];
+        PixelHit[] hits = [new() { Hit = true, X = 1, Material = 3, Face = HitFace.PosY }, new(), new() { Hit = true, X = 2, Material = 3, Face = HitFace.NegX }];
 
-        ImageResult preview = Decode(PreviewImage.Render(reference, 3, 1));
+        ImageResult preview = Decode(PreviewImage.Render(hits, 3, 1));
+
         At(preview, 1, 0).Should().Be(PreviewImage.Sky);
         At(preview, 0, 0).Should().NotBe(At(preview, 2, 0), "faces are shaded differently");
+    }
 
-        ImageResult mismatch = Decode(PreviewImage.RenderMismatch(other, reference, 3, 1));
-        At(mismatch, 2, 0).Should().Be(PreviewImage.Marker);
-        At(mismatch, 0, 0).Should().NotBe(PreviewImage.Marker);
-        Oklab.FromSrgb(At(mismatch, 0, 0)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 0, 0)).L);
+    [Fact]
+    public void Mismatch_image_marks_differing_pixels_rings_them_and_dims_the_rest()
+    {
+        const int w = 12, h = 6;
+        var reference = new PixelHit[w * h];
+        for (int i = 0; i < reference.Length; i++)
+            reference[i] = new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY };
+        var hits = (PixelHit[])reference.Clone();
+        hits[2 * w + 3].X = 999;
+
+        ImageResult mismatch = Decode(PreviewImage.RenderMismatch(hits, reference, w, h));
+        ImageResult preview = Decode(PreviewImage.Render(reference, w, h));
+
+        At(mismatch, 3, 2).Should().Be(PreviewImage.Marker);
+        At(mismatch, 5, 4).Should().Be(PreviewImage.Halo, "two pixels away is inside the ring");
+        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Halo);
+        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Marker);
+        Oklab.FromSrgb(At(mismatch, 10, 5)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 10, 5)).L, "the preview is dimmed");
     }
 }
