@@ -152,3 +152,32 @@ public class ImageTests
         Oklab.FromSrgb(At(mismatch, 10, 5)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 10, 5)).L, "the preview is dimmed");
     }
 }
+
+public class DifferenceImageTests
+{
+    [Fact]
+    public void Difference_image_is_near_white_at_zero_and_takes_the_ramp_ends_at_the_range()
+    {
+        double[] diffs = [0, -10, 10, 25, -5, 5];
+        using var image = DifferenceImage.Render(diffs, 3, 2, maxAbs: 10);
+
+        using var ms = new MemoryStream();
+        Png.Save(image, ms);
+        // StbImageSharp: an independent PNG decoder.
+        var png = ImageResult.FromMemory(ms.ToArray(), ColorComponents.RedGreenBlueAlpha);
+        Rgba32 At(int x, int y)
+        {
+            int i = (y * png.Width + x) * 4;
+            return new Rgba32(png.Data[i], png.Data[i + 1], png.Data[i + 2], png.Data[i + 3]);
+        }
+
+        png.Height.Should().Be(2 + Legend.Height);
+        At(0, 0).Should().Be(DivergingRamp.Map(0));
+        At(1, 0).Should().Be(DivergingRamp.Map(-1));
+        At(2, 0).Should().Be(DivergingRamp.Map(1));
+        At(0, 1).Should().Be(DivergingRamp.Map(1), "beyond the range takes the end colour");
+        Oklab.FromSrgb(At(1, 1)).L.Should().BeApproximately(Oklab.FromSrgb(At(2, 1)).L, 0.006);
+        DifferenceImage.LegendTicks(10, v => TickFormat.Compact(v, signed: true)).Select(t => t.Label)
+            .Should().Equal("-10", "-5", "0", "+5", "+10");
+    }
+}
