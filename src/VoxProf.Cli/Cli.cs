@@ -19,6 +19,8 @@ public static class Cli
     {
         var root = BuildRoot(output, error);
         var parse = root.Parse(args);
-        return parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
+        int code = parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
+        // The library reports its own parse errors with exit code 1, which this tool reserves for broken compare rules.
+        return parse.Errors.Count > 0 && code == 1 ? ExitCodes.BadInput : code;
     }
 }
