@@ -55,8 +55,8 @@ public static class CompareCommand
             CompareConsole.WriteTable(output, comparison);
         }
         CompareConsole.WriteVerdict(output, verdict);
-        if (!quiet && failures.Count < CompareOutputs.All.Count)
-            output.WriteLine($"wrote {Path.Combine(outDir, "compare.md")} and the other compare files");
+        if (!quiet && failures.Count == 0)
+            output.WriteLine($"wrote {string.Join(", ", CompareOutputs.All.Select(e => e.FileName))} to {outDir}");
 
         foreach (var failure in failures)
             error.WriteLine($"voxprof: error: {failure}");

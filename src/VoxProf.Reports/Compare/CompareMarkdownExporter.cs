@@ -16,7 +16,8 @@ public sealed class CompareMarkdownExporter : ICompareExporter
         w.WriteLine();
         if (cmp.SceneChanged)
         {
-            w.WriteLine($"> **Scene content differs** between the runs: {cmp.Notes[0]}.");
+            w.WriteLine($"> **Scene content differs** between the runs (base sha256 `{cmp.Base.Document.Scene.Sha256 ?? "none"}`, " +
+                $"candidate sha256 `{cmp.Candidate.Document.Scene.Sha256 ?? "none"}`): the changes below include the content change.");
             w.WriteLine();
         }
         w.WriteLine($"- Base: `{cmp.Base.File}` (scene {cmp.Base.Document.Scene.Name}, voxprof {cmp.Base.Document.ToolVersion})");

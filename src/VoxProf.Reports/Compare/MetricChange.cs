@@ -25,15 +25,20 @@ public sealed record MetricChange(string Strategy, MetricDescriptor Metric, doub
     public string Name => $"{Strategy} {Metric.Key}";
 }
 
-/// <summary>Largest regressions first: by relative worsening, then absolute, then the report's own order.</summary>
+/// <summary>Largest regressions first: by relative worsening, ties in the reports' own order.</summary>
 public static class RegressionOrder
 {
     public static IReadOnlyList<MetricChange> Sort(IEnumerable<MetricChange> changes) =>
         changes
             .Select((c, i) => (c, i))
-            .OrderByDescending(x => x.c.RelativeWorsening)
-            .ThenByDescending(x => x.c.AbsoluteWorsening)
+            .OrderByDescending(x => SortKey(x.c))
             .ThenBy(x => x.i)
             .Select(x => x.c)
             .ToArray();
+
+    // Rounded so that equal changes computed through different divisions (a 7% rise of 12 and of 40) tie, and
+    // keep the reports' strategy and counter order instead of an order set by the last bits of a division.
+    // Absolute changes are no tie-break: they are in different units.
+    private static double SortKey(MetricChange c) =>
+        double.IsInfinity(c.RelativeWorsening) ? c.RelativeWorsening : Math.Round(c.RelativeWorsening, 9);
 }

@@ -101,8 +101,19 @@ public class ReportComparisonTests
         cmp.Changes.Single(c => c.Metric.Key == "wave32.tile-max").IsRegression.Should().BeFalse();
         cmp.Changes.Single(c => c.Metric.Key == "iterations.mean").IsRegression.Should().BeFalse();
         cmp.Changes.Where(c => c.IsRegression).Should().OnlyContain(c => c.Metric.Group.StartsWith("wave"));
-        // wave64 falls 0.45 -> 0.36: the same 20%, a smaller absolute fall, so wave32 leads.
+        // wave64 falls 0.45 -> 0.36: the same 20%, so the tie keeps the report order and wave32 leads.
         cmp.Changes.Take(2).Select(c => c.Metric.Key).Should().Equal("wave32.efficiency", "wave64.efficiency");
+    }
+
+    [Fact]
+    public void Equal_relative_changes_keep_the_report_order_whatever_the_rounding_of_each_division()
+    {
+        // 7% of 12, 40 and 20 lands a few ulps either side of 0.07 depending on the operands.
+        var cmp = ReportComparison.Create(Loaded(ReportFixtures.Standard()), Loaded(ReportFixtures.Standard(1.07)));
+
+        var regressions = cmp.Changes.Where(c => c.IsRegression).ToArray();
+        regressions.Select(c => c.Strategy).Should().StartWith(Enumerable.Repeat("grid", 12), "grid has 10 counter statistics and 2 tile maxima that rise; its maxima stay at 100");
+        regressions.Take(3).Select(c => c.Metric.Key).Should().Equal("iterations.total", "iterations.mean", "iterations.p50");
     }
 
     [Fact]
