@@ -1,5 +1,7 @@
 using System.CommandLine;
+using VoxProf.Core;
 using VoxProf.Reports.Compare;
+using VoxProf.Reports.Export;
 
 namespace VoxProf.Cli.Commands;
 
@@ -46,17 +48,31 @@ public static class CompareCommand
         var verdict = GateRules.Evaluate(comparison, rules);
         var result = new CompareResult(comparison, verdict);
 
-        CompareOutputs.PrepareDirectory(outDir);
-        var failures = CompareOutputs.WriteAll(outDir, result, CompareOutputs.All);
+        var directory = OutputDirectory.Open(outDir);
+        var failures = new List<string>();
+        try
+        {
+            var images = CompareDiffImages.Write(comparison, directory, ToolInfo.Version);
+            result = result with { DiffImages = images.Written, DiffNotes = images.Notes };
+        }
+        catch (Exception ex) when (ex is InputException or IOException or UnauthorizedAccessException)
+        {
+            // The tables and the verdict do not need the images: write them anyway, then report the failure.
+            failures.Add($"difference heatmaps: {ex.Message}");
+        }
+        failures.AddRange(CompareOutputs.WriteAll(directory, result, CompareOutputs.All));
 
         if (!quiet)
         {
-            CompareConsole.WriteHeader(output, comparison);
+            CompareConsole.WriteHeader(output, result);
             CompareConsole.WriteTable(output, comparison);
         }
         CompareConsole.WriteVerdict(output, verdict);
         if (!quiet && failures.Count == 0)
-            output.WriteLine($"wrote {string.Join(", ", CompareOutputs.All.Select(e => e.FileName))} to {outDir}");
+        {
+            var images = result.DiffImages.Count > 0 ? $" and {result.DiffImages.Count} difference heatmaps" : "";
+            output.WriteLine($"wrote {string.Join(", ", CompareOutputs.All.Select(e => e.FileName))}{images} to {outDir}");
+        }
 
         foreach (var failure in failures)
             error.WriteLine($"voxprof: error: {failure}");

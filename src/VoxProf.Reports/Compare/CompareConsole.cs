@@ -8,11 +8,12 @@ public static class CompareConsole
     /// <summary>Rows shown on the console; compare.md has them all.</summary>
     public const int MaxRows = 20;
 
-    public static void WriteHeader(TextWriter w, ReportComparison cmp)
+    public static void WriteHeader(TextWriter w, CompareResult result)
     {
+        var cmp = result.Comparison;
         w.WriteLine($"base:      {cmp.Base.File}");
         w.WriteLine($"candidate: {cmp.Candidate.File}");
-        foreach (var note in cmp.Notes)
+        foreach (var note in cmp.Notes.Concat(result.DiffNotes))
             w.WriteLine($"note: {note}");
     }
 

@@ -31,7 +31,8 @@ public sealed class CompareJsonExporter : ICompareExporter
             cmp.Changes.Select(c => new CompareChangeJson(
                 c.Strategy, c.Metric.Group, c.Metric.Statistic, c.Metric.Unit, c.Metric.LowerIsBetter,
                 c.Base, c.Candidate, c.Change, c.RelativeChange, c.IsRegression)).ToArray(),
-            result.DiffImages);
+            result.DiffImages,
+            result.DiffNotes);
     }
 }
 
@@ -45,7 +46,8 @@ public sealed record CompareDocument(
     IReadOnlyList<string> Notes,
     IReadOnlyList<CompareRuleJson> Rules,
     IReadOnlyList<CompareChangeJson> Changes,
-    IReadOnlyList<string> DiffImages);
+    IReadOnlyList<string> DiffImages,
+    IReadOnlyList<string> DiffNotes);
 
 public sealed record CompareSide(string Report, string Scene, string? SceneSha256, string ToolVersion);
 

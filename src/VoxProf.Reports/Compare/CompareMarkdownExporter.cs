@@ -63,11 +63,16 @@ public sealed class CompareMarkdownExporter : ICompareExporter
             w.WriteLine($"| {Cell(c.Strategy)} | {Cell(c.Metric.Key)} | {c.Metric.Unit} | {c.Metric.Format(c.Base)} | " +
                 $"{c.Metric.Format(c.Candidate)} | {c.Metric.FormatChange(c.Change)} | {CompareText.Relative(c)}{mark} |");
         }
-        if (result.DiffImages.Count > 0)
+        if (result.DiffImages.Count > 0 || result.DiffNotes.Count > 0)
         {
             w.WriteLine();
             w.WriteLine("## Difference heatmaps (candidate minus base)");
             w.WriteLine();
+            w.WriteLine("Orange: the candidate costs more; blue: less; near-white: no change. All strategies of one counter " +
+                "share one symmetric scale. A black and white checker marks pixels whose hit changed.");
+            w.WriteLine();
+            foreach (var note in result.DiffNotes)
+                w.WriteLine($"- Note: {Cell(note)}");
             foreach (var image in result.DiffImages)
                 w.WriteLine($"- [{image}]({Uri.EscapeDataString(image)})");
         }

@@ -5,8 +5,11 @@ namespace VoxProf.Reports.Compare;
 /// <summary>Everything the compare outputs render: the comparison, the verdict, and the diff images written.</summary>
 public sealed record CompareResult(ReportComparison Comparison, GateVerdict Verdict)
 {
-    /// <summary>Diff heatmap file names (relative to the out directory), filled in once they are written.</summary>
+    /// <summary>Difference heatmap file names (relative to the out directory), filled in once they are written.</summary>
     public IReadOnlyList<string> DiffImages { get; init; } = [];
+
+    /// <summary>What the difference heatmaps left out or found (pixels whose hit changed).</summary>
+    public IReadOnlyList<string> DiffNotes { get; init; } = [];
 }
 
 /// <summary>Number formatting shared by the console, Markdown and CSV renderings (invariant culture throughout).</summary>

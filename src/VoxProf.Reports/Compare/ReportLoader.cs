@@ -15,11 +15,11 @@ public sealed record LoadedReport(string File, ReportDocument Document)
 /// <summary>Reads report.json for <c>compare</c>; every problem becomes one <see cref="InputException"/> line.</summary>
 public static partial class ReportLoader
 {
-    public const string FileName = "report.json";
+    public const string FileName = OutputNames.ReportJson;
 
-    // Case-insensitive camelCase reads both the camelCase and the PascalCase spelling of a field; required
-    // constructor parameters and nullable annotations turn a missing or null field into an error with its path.
-    private static readonly JsonSerializerOptions Options = new(JsonSerializerDefaults.Web)
+    // The writer's options, made strict: a missing constructor field or a null where the model has none becomes
+    // an error with its JSON path instead of a null that fails somewhere in the comparison.
+    private static readonly JsonSerializerOptions Options = new(ReportJson.Options)
     {
         RespectRequiredConstructorParameters = true,
         RespectNullableAnnotations = true,
@@ -72,8 +72,8 @@ public static partial class ReportLoader
                 throw new InputException($"{file}: $.schemaVersion: missing; expected the report schema version ({ReportDocument.CurrentSchema})");
             if (version.ValueKind != JsonValueKind.Number || !version.TryGetInt32(out var v))
                 throw new InputException($"{file}: $.schemaVersion: expected an integer, found {version.GetRawText()}");
-            if (v != ReportDocument.CurrentSchema)
-                throw new InputException($"{file}: $.schemaVersion: report schema {v} is not read by this voxprof (it reads schema {ReportDocument.CurrentSchema}); trace both runs with one voxprof version");
+            if (v < 1 || v > ReportDocument.CurrentSchema)
+                throw new InputException($"{file}: $.schemaVersion: report schema {v} is not read by this voxprof (it reads schema 1..{ReportDocument.CurrentSchema}); trace both runs with one voxprof version");
         }
         catch (JsonException ex)
         {

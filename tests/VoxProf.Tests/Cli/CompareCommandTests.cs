@@ -160,7 +160,7 @@ public class CompareCommandTests : IDisposable
         var code = VoxProf.Cli.Cli.Run(["compare", a, a, "--out", file], _out, _err);
 
         code.Should().Be(ExitCodes.BadInput);
-        ErrorLines.Should().Contain(file).And.Contain("is a file");
+        ErrorLines.Should().NotContain("\n").And.Contain(file).And.Contain("is a file");
         File.ReadAllText(file).Should().Be("keep me");
     }
 

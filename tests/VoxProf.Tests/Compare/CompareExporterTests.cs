@@ -3,6 +3,7 @@ using System.Text;
 using System.Text.Json;
 using CsvHelper;
 using VoxProf.Reports.Compare;
+using VoxProf.Reports.Export;
 
 namespace VoxProf.Tests.Compare;
 
@@ -109,7 +110,7 @@ public class CompareExporterTests
         using var tmp = new TempDir();
         var result = Result(1.0);
 
-        var failures = CompareOutputs.WriteAll(tmp.Path, result, [new ThrowingExporter(), new CompareCsvExporter()]);
+        var failures = CompareOutputs.WriteAll(OutputDirectory.Open(tmp.Path), result, [new ThrowingExporter(), new CompareCsvExporter()]);
 
         failures.Should().ContainSingle().Which.Should().Contain("broken.txt").And.Contain("disk full");
         File.Exists(Path.Combine(tmp.Path, "compare.csv")).Should().BeTrue();

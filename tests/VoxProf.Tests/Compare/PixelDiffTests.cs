@@ -1,4 +1,3 @@
-using SixLabors.ImageSharp.PixelFormats;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Compare;
 
@@ -59,24 +58,6 @@ public class PixelDiffTests
 
         changed.Should().Equal(false, true, true, true, false);
         count.Should().Be(3);
-    }
-
-    [Fact]
-    public void The_heatmap_colours_through_the_given_ramp_and_checkers_changed_hits()
-    {
-        long[] diff = [-4, 0, 4, 2, 0, 0];
-        bool[] changed = [false, false, false, false, true, true];
-        // A stand-in ramp that encodes t in the red channel; the real diverging ramp comes from the report writers.
-        static Rgba32 Ramp(double t) => new((byte)Math.Round((t + 1) * 100), 0, 0, 255);
-
-        using var image = DiffHeatmap.Render(diff, changed, 3, 2, 4, Ramp);
-
-        image[0, 0].R.Should().Be(0);
-        image[1, 0].R.Should().Be(100);
-        image[2, 0].R.Should().Be(200);
-        image[0, 1].R.Should().Be(150);
-        image[1, 1].Should().Be(new Rgba32(0, 0, 0, 255), "x + y even gives the dark square of the checker");
-        image[2, 1].Should().Be(new Rgba32(255, 255, 255, 255));
     }
 
     private static PixelHit Hit(int x, int y, int z) => new() { Hit = true, X = x, Y = y, Z = z, T = 1 };

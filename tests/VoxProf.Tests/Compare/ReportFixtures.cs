@@ -1,4 +1,3 @@
-using System.Text.Json;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Tests.Compare;
@@ -6,8 +5,6 @@ namespace VoxProf.Tests.Compare;
 /// <summary>Hand-made reports: small, with numbers chosen so the expected changes are known by hand.</summary>
 internal static class ReportFixtures
 {
-    public static readonly JsonSerializerOptions Json = new(JsonSerializerDefaults.Web) { WriteIndented = true };
-
     public static CounterStats Counter(string name, double mean, long max = 100) =>
         new(name, Total: (long)(mean * 1000), Mean: mean, P50: mean, P90: mean * 1.5, P99: mean * 2, Max: max);
 
@@ -42,7 +39,7 @@ internal static class ReportFixtures
     {
         var dir = Path.Combine(root.Path, name);
         Directory.CreateDirectory(dir);
-        File.WriteAllText(Path.Combine(dir, "report.json"), JsonSerializer.Serialize(doc, Json));
+        File.WriteAllText(Path.Combine(dir, "report.json"), ReportJson.Serialize(doc));
         return dir;
     }
 }

@@ -1,4 +1,3 @@
-using System.Text.Json;
 using VoxProf.Core;
 using VoxProf.Reports.Compare;
 using VoxProf.Reports.Model;
@@ -68,7 +67,7 @@ public class ReportLoaderTests
 
         var ex = Assert.Throws<InputException>(() => ReportLoader.Load(dir));
 
-        ex.Message.Should().Contain("schema 9").And.Contain($"reads schema {ReportDocument.CurrentSchema}");
+        ex.Message.Should().Contain("schema 9").And.Contain($"reads schema 1..{ReportDocument.CurrentSchema}");
     }
 
     [Fact]
@@ -90,7 +89,7 @@ public class ReportLoaderTests
     {
         using var tmp = new TempDir();
         var file = Path.Combine(tmp.Path, "report.json");
-        var node = System.Text.Json.Nodes.JsonNode.Parse(JsonSerializer.Serialize(ReportFixtures.Standard(), ReportFixtures.Json))!;
+        var node = System.Text.Json.Nodes.JsonNode.Parse(ReportJson.Serialize(ReportFixtures.Standard()))!;
         node["strategies"]![0]!["counters"] = null;
         File.WriteAllText(file, node.ToJsonString());
 
