@@ -37,10 +37,11 @@ public static class CompareDiffImages
         var maps = Maps(cmp);
         var notes = new List<string>();
         var jobs = new List<Job>();
+        (LoadedReport Report, List<string> Strategies)[] missing = [(cmp.Base, []), (cmp.Candidate, [])];
         foreach (var strategy in cmp.Strategies)
         {
-            var basePixels = Load(cmp.Base, strategy, notes);
-            var candidatePixels = Load(cmp.Candidate, strategy, notes);
+            var basePixels = Load(cmp.Base, strategy, missing[0].Strategies);
+            var candidatePixels = Load(cmp.Candidate, strategy, missing[1].Strategies);
             if (basePixels is null || candidatePixels is null)
                 continue;
 
@@ -62,6 +63,12 @@ public static class CompareDiffImages
             }
         }
 
+        foreach (var (report, strategies) in missing.Where(m => m.Strategies.Count > 0))
+        {
+            notes.Insert(0, $"no per-pixel data in {report.Directory} for {string.Join(", ", strategies)} " +
+                $"(files {OutputNames.PixelData("STRATEGY")}): their difference heatmaps are left out");
+        }
+
         var written = new List<string>();
         foreach (var job in jobs)
         {
@@ -81,12 +88,12 @@ public static class CompareDiffImages
 
     private sealed record Job(string Strategy, string Map, long[] Diff, bool[] HitChanged, PixelDiffSummary Summary, int Width, int Height);
 
-    private static PixelData? Load(LoadedReport report, string strategy, List<string> notes)
+    private static PixelData? Load(LoadedReport report, string strategy, List<string> missing)
     {
         var path = Path.Combine(report.Directory, OutputNames.PixelData(strategy));
         if (!File.Exists(path))
         {
-            notes.Add($"{strategy}: no per-pixel data {path}; its difference heatmaps are left out");
+            missing.Add(strategy);
             return null;
         }
         var data = PixelDataFile.Read(path);
