@@ -61,6 +61,7 @@ public sealed class CylinderLayer : Layer
         return t >= _axialMin && t < _axialMax && Radial(a, b);
     }
 
+    // The base class's loop, repeated so the calls to Contains are direct (this class is sealed) and can be inlined.
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         int i = 0;
