@@ -52,6 +52,19 @@ public class TerrainLayerTests
     }
 
     [Fact]
+    public void Contains_gives_the_same_answer_before_and_after_the_heights_are_built()
+    {
+        var layer = new TerrainLayer(LayerOp.Add, 1, Hills, Extent, Extent);
+        var rng = new Random(2);
+        var probes = Enumerable.Range(0, 500).Select(_ => (X: rng.Next(160), Y: rng.Next(96), Z: rng.Next(144))).ToArray();
+        bool[] before = probes.Select(p => layer.Contains(p.X, p.Y, p.Z)).ToArray();
+        layer.Classify(Extent); // builds the heights
+        bool[] after = probes.Select(p => layer.Contains(p.X, p.Y, p.Z)).ToArray();
+        after.Should().Equal(before);
+        before.Should().Contain(true).And.Contain(false);
+    }
+
+    [Fact]
     public void Footprint_limits_the_columns_and_heights_clamp_to_the_extent()
     {
         var tall = new TerrainSettings(3, 3, 0.05, 500, 60);

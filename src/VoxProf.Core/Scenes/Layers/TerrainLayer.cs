@@ -55,8 +55,10 @@ public sealed class TerrainLayer : Layer
         return region.MaxY <= min && Bounds.ContainsBox(region) ? Coverage.Full : Coverage.Partial;
     }
 
+    // Before the heights exist, one column is computed on its own: a few spot checks through
+    // Scene.EvaluateMaterial should not pay for the whole heightfield. The two agree exactly.
     public override bool Contains(int x, int y, int z) =>
-        Bounds.Contains(x, y, z) && y < _pyramid.Value.Height(x, z);
+        Bounds.Contains(x, y, z) && y < (_pyramid.IsValueCreated ? _pyramid.Value.Height(x, z) : ComputeHeight(x, z));
 
     public override void Fill(in Box3i region, Span<bool> inside)
     {
