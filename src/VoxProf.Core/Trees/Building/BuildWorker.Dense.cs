@@ -146,7 +146,7 @@ internal sealed partial class BuildWorker
     }
 
     /// <summary>voxels[i] = flags[i] != 0 ? material : voxels[i], a vector at a time.</summary>
-    /// <remarks>Branch-free: surface rows mix in and out unpredictably (measured with TreeBuildBenchmarks).</remarks>
+    /// <remarks>Branch-free, because rows that cross a surface mix inside and outside voxels unpredictably.</remarks>
     private static void Blend(Span<byte> voxels, ReadOnlySpan<byte> flags, byte material)
     {
         int i = 0;
