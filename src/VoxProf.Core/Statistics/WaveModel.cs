@@ -1,0 +1,104 @@
+using System.Buffers;
+
+namespace VoxProf.Core.Statistics;
+
+/// <summary>A lockstep group of GPU lanes laid over the image as a tile of pixels.</summary>
+public readonly record struct WaveShape(int TileWidth, int TileHeight)
+{
+    /// <summary>32 lanes as 8×4 pixels (NVIDIA warps; AMD RDNA wave32).</summary>
+    public static WaveShape Lanes32 => new(8, 4);
+
+    /// <summary>64 lanes as 8×8 pixels (AMD GCN wave64).</summary>
+    public static WaveShape Lanes64 => new(8, 8);
+
+    public static IReadOnlyList<WaveShape> Standard { get; } = [Lanes32, Lanes64];
+
+    public int Lanes => TileWidth * TileHeight;
+
+    public int TilesX(int width) => (width + TileWidth - 1) / TileWidth;
+
+    public int TilesY(int height) => (height + TileHeight - 1) / TileHeight;
+}
+
+/// <summary>What one group size predicts for one strategy's loop-iteration image.</summary>
+/// <param name="Tiles">Tiles covering the image, partial edge tiles included.</param>
+/// <param name="MeanTileMax">Mean over tiles of the largest lane cost in the tile: a group runs until its slowest lane ends.</param>
+/// <param name="SimdEfficiency">Lane work done over lane slots spent: Σ lane cost / (lanes × Σ tile max), in [0, 1].</param>
+/// <param name="MaxTileMax">The costliest tile.</param>
+public readonly record struct WaveSummary(WaveShape Shape, int Tiles, double MeanTileMax, double SimdEfficiency, uint MaxTileMax);
+
+/// <summary>
+/// Lockstep model of a per-pixel cost image. A partial tile at the right or bottom edge counts as a whole group whose
+/// lanes outside the image are idle (cost 0 but still occupying their slot), as a GPU dispatch rounds up to whole groups.
+/// A tile whose lanes all cost 0 counts in the mean tile max as 0 and adds nothing to either side of the efficiency;
+/// an image with no work at all has efficiency 1 (no slot was wasted).
+/// </summary>
+public static class WaveModel
+{
+    /// <summary>Writes each tile's maximum into <paramref name="tileMax"/> (TilesX × TilesY, row-major).</summary>
+    public static void TileMax(ReadOnlySpan<uint> costs, int width, int height, WaveShape shape, Span<uint> tileMax)
+    {
+        int tilesX = shape.TilesX(width);
+        int tilesY = shape.TilesY(height);
+        if (costs.Length != width * height)
+            throw new ArgumentException("cost image size does not match width × height", nameof(costs));
+        if (tileMax.Length != tilesX * tilesY)
+            throw new ArgumentException("tileMax must hold TilesX × TilesY values", nameof(tileMax));
+        tileMax.Clear();
+        for (int y = 0; y < height; y++)
+        {
+            Span<uint> tileRow = tileMax.Slice(y / shape.TileHeight * tilesX, tilesX);
+            ReadOnlySpan<uint> row = costs.Slice(y * width, width);
+            for (int x = 0; x < width; x++)
+            {
+                ref uint m = ref tileRow[x / shape.TileWidth];
+                if (row[x] > m)
+                    m = row[x];
+            }
+        }
+    }
+
+    /// <summary>Per-pixel image in which every pixel holds its tile's maximum, for a heatmap at image size.</summary>
+    public static void ExpandTiles(ReadOnlySpan<uint> tileMax, int width, int height, WaveShape shape, Span<uint> pixels)
+    {
+        int tilesX = shape.TilesX(width);
+        if (pixels.Length != width * height)
+            throw new ArgumentException("pixel image size does not match width × height", nameof(pixels));
+        for (int y = 0; y < height; y++)
+        {
+            ReadOnlySpan<uint> tileRow = tileMax.Slice(y / shape.TileHeight * tilesX, tilesX);
+            Span<uint> row = pixels.Slice(y * width, width);
+            for (int x = 0; x < width; x++)
+                row[x] = tileRow[x / shape.TileWidth];
+        }
+    }
+
+    public static WaveSummary Summarise(ReadOnlySpan<uint> costs, int width, int height, WaveShape shape)
+    {
+        int tiles = shape.TilesX(width) * shape.TilesY(height);
+        if (tiles == 0)
+            return new WaveSummary(shape, 0, 0, 1, 0);
+        uint[] rented = ArrayPool<uint>.Shared.Rent(tiles);
+        try
+        {
+            Span<uint> tileMax = rented.AsSpan(0, tiles);
+            TileMax(costs, width, height, shape, tileMax);
+            long work = 0;
+            foreach (uint c in costs)
+                work += c;
+            long maxSum = 0;
+            uint maxMax = 0;
+            foreach (uint m in tileMax)
+            {
+                maxSum += m;
+                maxMax = Math.Max(maxMax, m);
+            }
+            double efficiency = maxSum == 0 ? 1.0 : work / ((double)shape.Lanes * maxSum);
+            return new WaveSummary(shape, tiles, (double)maxSum / tiles, efficiency, maxMax);
+        }
+        finally
+        {
+            ArrayPool<uint>.Shared.Return(rented);
+        }
+    }
+}

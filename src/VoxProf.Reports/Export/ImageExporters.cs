@@ -1,0 +1,103 @@
+using SixLabors.ImageSharp;
+using SixLabors.ImageSharp.PixelFormats;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Images;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Reports.Export;
+
+/// <summary>heatmap-STRATEGY-MAP.png: every strategy of one map on one shared scale, so images compare by eye.</summary>
+public sealed class HeatmapExporter : IReportExporter
+{
+    public string Name => "heatmaps";
+
+    public void Export(ReportContext context, OutputDirectory output)
+    {
+        var run = context.Run;
+        var jobs = new List<(StrategyResult Result, string Map, HeatmapScale Scale)>();
+        foreach (string map in context.Options.Heatmaps)
+        {
+            HeatmapScale scale = ScaleFor(map, context);
+            foreach (StrategyResult r in run.Results)
+                jobs.Add((r, map, scale));
+        }
+        Parallel.ForEach(jobs, job =>
+        {
+            using Image<Rgba32> image = HeatmapImage.Render(Values(job.Result, job.Map), job.Result.Width, job.Result.Height, job.Scale);
+            string strategy = job.Result.Strategy.Name();
+            Png.AddText(image, "Strategy", strategy);
+            Png.AddText(image, "Counter", job.Map);
+            Png.AddText(image, "Scale", FormattableString.Invariant($"{(job.Scale.Kind == ScaleKind.Log ? "log" : "linear")} {job.Scale.Min}..{job.Scale.Max}"));
+            Png.AddText(image, "Software", $"VoxProf {context.Options.ToolVersion}");
+            output.Write(OutputNames.Heatmap(strategy, job.Map), s => Png.Save(image, s));
+        });
+    }
+
+    /// <summary>The fixed range if given, else 0..the largest value of the map over all strategies.</summary>
+    public static HeatmapScale ScaleFor(string map, ReportContext context)
+    {
+        var o = context.Options;
+        if (o.RangeMin is { } min && o.RangeMax is { } max)
+            return new HeatmapScale(o.Scale, min, max);
+        // A tile maximum never exceeds the largest pixel, so wave maps share the iterations scale and read against it.
+        Counter counter = HeatmapNames.IsWave(map, out _) ? Counter.Iterations : Parse(map);
+        double top = context.Statistics.Count == 0 ? 1 : context.Statistics.Max(s => (double)s[counter].Max);
+        return HeatmapScale.Auto(o.Scale, top);
+    }
+
+    public static uint[] Values(StrategyResult r, string map)
+    {
+        if (!HeatmapNames.IsWave(map, out WaveShape shape))
+            return r.Counters[(int)Parse(map)];
+        var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
+        WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        var pixels = new uint[r.Width * r.Height];
+        WaveModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
+        return pixels;
+    }
+
+    private static Counter Parse(string map) =>
+        CounterNames.TryParse(map, out Counter c) ? c : throw new ArgumentException($"unknown heatmap {map}", nameof(map));
+}
+
+/// <summary>preview.png from the reference (grid) result, or the first strategy traced.</summary>
+public sealed class PreviewExporter : IReportExporter
+{
+    public string Name => OutputNames.Preview;
+
+    public void Export(ReportContext context, OutputDirectory output)
+    {
+        StrategyResult? source = context.Run.Reference ?? context.Run.Results.FirstOrDefault();
+        if (source is null)
+            return;
+        using Image<Rgba32> image = PreviewImage.Render(source.Hits, source.Width, source.Height);
+        Png.AddText(image, "Strategy", source.Strategy.Name());
+        Png.AddText(image, "Software", $"VoxProf {context.Options.ToolVersion}");
+        output.Write(OutputNames.Preview, s => Png.Save(image, s));
+    }
+}
+
+/// <summary>mismatch-STRATEGY.png, only for a strategy with a pixel whose hit differs from the reference.</summary>
+public sealed class MismatchExporter : IReportExporter
+{
+    public string Name => "mismatch images";
+
+    public void Export(ReportContext context, OutputDirectory output)
+    {
+        StrategyResult? reference = context.Run.Reference;
+        if (reference is null)
+            return;
+        foreach (StrategyStatistics s in context.Statistics)
+        {
+            if (s.MismatchPixels == 0)
+                continue;
+            StrategyResult r = context.Run.Results.First(x => x.Strategy == s.Strategy);
+            using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height);
+            Png.AddText(image, "Strategy", s.Strategy.Name());
+            Png.AddText(image, "Reference", reference.Strategy.Name());
+            Png.AddText(image, "Mismatched pixels", s.MismatchPixels.ToString(System.Globalization.CultureInfo.InvariantCulture));
+            output.Write(OutputNames.Mismatch(s.Strategy.Name()), st => Png.Save(image, st));
+        }
+    }
+}

@@ -1,0 +1,83 @@
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Images;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Reports.Export;
+
+/// <summary>Turns a trace and its statistics into the report document every exporter reads.</summary>
+public static class ReportBuilder
+{
+    public static ReportDocument Build(TraceRun run, IReadOnlyList<StrategyStatistics> stats, ReportOptions options)
+    {
+        var scene = run.Scene;
+        var tree = run.Tree;
+        var cam = run.Camera;
+        var settings = run.Settings;
+        string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
+
+        var strategies = new List<StrategyReport>();
+        foreach (StrategyStatistics s in stats)
+        {
+            var counterStats = CounterNames.All.Select(c =>
+            {
+                CounterSummary cs = s[c];
+                return new CounterStats(c.Name(), cs.Total, cs.Mean, cs.P50, cs.P90, cs.P99, cs.Max) { Unit = c.Unit() };
+            }).ToList();
+            var waves = s.Waves.Select(w => new WaveStats(
+                w.Shape.Lanes, w.Shape.TileWidth, w.Shape.TileHeight, w.Tiles, w.MeanTileMax, w.SimdEfficiency) { MaxTileMax = w.MaxTileMax }).ToList();
+            strategies.Add(new StrategyReport(s.Strategy.Name(), s.HitRate, s.MismatchPixels, counterStats, waves, FilesOf(s, options)));
+        }
+
+        var document = new ReportDocument(
+            ReportDocument.CurrentSchema,
+            options.ToolVersion,
+            new SceneInfo(scene.Name, scene.SourcePath is null ? null : Path.GetFileName(scene.SourcePath), scene.ContentHash,
+                [scene.ExtentX, scene.ExtentY, scene.ExtentZ]),
+            new TreeInfo(tree.Branching, tree.Depth, tree.NodeCount, tree.SolidVoxels, tree.TotalBytes, tree.NodesPerLevel) { RootSize = tree.RootSize },
+            new CameraInfo(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z],
+                [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees),
+            new RunInfo(settings.Width, settings.Height, settings.PrepassBlock, stats.Select(s => s.Strategy.Name()).ToArray(), counters)
+            {
+                Branching = settings.Branching,
+                Heatmaps = options.Heatmaps.ToArray(),
+                Scale = options.Scale == ScaleKind.Log ? "log" : "linear",
+                RangeMin = options.RangeMin,
+                RangeMax = options.RangeMax,
+                Baseline = Baseline(stats, options.Baseline)?.Name(),
+            },
+            strategies,
+            options.Environment,
+            new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name(), r => r.Elapsed.TotalSeconds))
+            {
+                Threads = options.Threads != 0 ? options.Threads : settings.Threads,
+            });
+        return ToolInfo.IsDebug(options.Environment) ? document with { Warnings = [ToolInfo.DebugWarning] } : document;
+    }
+
+    /// <summary>The requested baseline if it was traced, otherwise the strategy with the largest wave32 mean tile max.</summary>
+    public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
+    {
+        if (requested is { } r && stats.Any(s => s.Strategy == r))
+            return r;
+        StrategyStatistics? slowest = null;
+        foreach (StrategyStatistics s in stats)
+        {
+            if (slowest is null || s.Waves[0].MeanTileMax > slowest.Waves[0].MeanTileMax)
+                slowest = s;
+        }
+        return slowest?.Strategy;
+    }
+
+    private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
+    {
+        string name = s.Strategy.Name();
+        var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
+        if (s.MismatchPixels > 0)
+            files.Add(OutputNames.Mismatch(name));
+        files.Add(OutputNames.PixelData(name));
+        if (options.PerPixel)
+            files.Add(OutputNames.PixelCsv(name));
+        return files;
+    }
+}

@@ -1,0 +1,84 @@
+using System.Reflection;
+using System.Runtime.InteropServices;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Images;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Reports.Export;
+
+/// <summary>How a trace is written out. The defaults are the trace command's.</summary>
+public sealed record ReportOptions
+{
+    public ScaleKind Scale { get; init; } = ScaleKind.Linear;
+
+    /// <summary>Fixed heatmap range; null for each counter's own 0..max over all strategies.</summary>
+    public double? RangeMin { get; init; }
+
+    public double? RangeMax { get; init; }
+
+    /// <summary>Heatmaps per strategy: counter names and/or "wave32", "wave64" (see <see cref="HeatmapNames"/>).</summary>
+    public IReadOnlyList<string> Heatmaps { get; init; } = HeatmapNames.Default;
+
+    /// <summary>Also write pixels-STRATEGY.csv.</summary>
+    public bool PerPixel { get; init; }
+
+    /// <summary>The strategy summary.md is relative to; null for the slowest.</summary>
+    public Strategy? Baseline { get; init; }
+
+    public int Threads { get; init; }
+
+    public string ToolVersion { get; init; } = ToolInfo.Version;
+
+    public EnvironmentInfo Environment { get; init; } = ToolInfo.CurrentEnvironment();
+}
+
+/// <summary>Heatmap names accepted by --counters: every counter, plus the per-tile wave maxima.</summary>
+public static class HeatmapNames
+{
+    public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), "wave32", "wave64"];
+
+    public static IReadOnlyList<string> All { get; } =
+        [.. CounterNames.All.Select(c => c.Name()), .. WaveShape.Standard.Select(WaveName)];
+
+    public static string ValidList => string.Join(", ", All);
+
+    public static string WaveName(WaveShape s) => $"wave{s.Lanes}";
+
+    public static bool TryParse(string text, out string name)
+    {
+        name = All.FirstOrDefault(n => string.Equals(n, text, StringComparison.OrdinalIgnoreCase)) ?? "";
+        return name.Length > 0;
+    }
+
+    public static bool IsWave(string name, out WaveShape shape)
+    {
+        foreach (WaveShape s in WaveShape.Standard)
+        {
+            if (WaveName(s) == name)
+            {
+                shape = s;
+                return true;
+            }
+        }
+        shape = default;
+        return false;
+    }
+}
+
+public static class ToolInfo
+{
+    public static string Version { get; } =
+        typeof(ToolInfo).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion.Split('+')[0] ?? "0.0.0";
+
+    /// <summary>Build configuration of the assembly that holds the kernels: that is what sets the timings.</summary>
+    public static string Configuration { get; } =
+        typeof(Tracer).Assembly.GetCustomAttribute<AssemblyConfigurationAttribute>()?.Configuration ?? "unknown";
+
+    public static EnvironmentInfo CurrentEnvironment() =>
+        new(RuntimeInformation.FrameworkDescription, System.Environment.ProcessorCount, Configuration, RuntimeInformation.OSDescription);
+
+    public static bool IsDebug(EnvironmentInfo e) => string.Equals(e.Configuration, "Debug", StringComparison.OrdinalIgnoreCase);
+
+    public const string DebugWarning = "Debug build: timings are not representative; counts are still exact";
+}

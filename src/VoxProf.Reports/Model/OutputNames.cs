@@ -1,0 +1,23 @@
+using VoxProf.Core.Traversal;
+
+namespace VoxProf.Reports.Model;
+
+/// <summary>File names inside a report directory (documented in docs/reports.md).</summary>
+public static class OutputNames
+{
+    public const string ReportJson = "report.json";
+    public const string SummaryCsv = "summary.csv";
+    public const string SummaryMarkdown = "summary.md";
+    public const string Preview = "preview.png";
+
+    /// <summary><paramref name="map"/> is a counter name or "wave32"/"wave64".</summary>
+    public static string Heatmap(string strategy, string map) => $"heatmap-{strategy}-{map}.png";
+
+    public static string Mismatch(string strategy) => $"mismatch-{strategy}.png";
+
+    public static string PixelData(string strategy) => $"pixels-{strategy}.bin.gz";
+
+    public static string PixelCsv(string strategy) => $"pixels-{strategy}.csv";
+
+    public static string Heatmap(Strategy s, string map) => Heatmap(s.Name(), map);
+}

@@ -1,0 +1,60 @@
+using System.Numerics;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Traversal;
+using VoxProf.Core.Trees;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Tests.Reports;
+
+/// <summary>Hand-made traces, so report tests do not depend on the tracer.</summary>
+internal static class TestRuns
+{
+    public static readonly EnvironmentInfo Environment = new("test-runtime", 2, "Release", "test-os");
+
+    public static ReportOptions Options => new() { ToolVersion = "0.1.0-test", Environment = Environment, Threads = 2 };
+
+    /// <summary>
+    /// A 16×8 image with a grid and a dda result. Grid iterations are x + y + 1; dda takes half as many, plus a
+    /// spike of 40 at (3, 2); dda's hit at (5, 1) is a different voxel from the grid's.
+    /// </summary>
+    public static TraceRun Small(int width = 16, int height = 8)
+    {
+        var camera = new CameraSpec("gate", new Vector3(1.5f, 20, -30), new Vector3(32, 8, 32), Vector3.UnitY, 50);
+        var scene = new Scene(64, 32, 64, [], [camera], "yard", "/scenes/yard.json", "ab12cd");
+        var tree = new TreeStats(4, 3, 64, [1, 6, 40], [6, 40, 900], [64, 384, 2560], 900, 3008, TimeSpan.FromMilliseconds(12.5));
+        var settings = new TraceSettings(width, height, 4, 0, 2);
+        return new TraceRun(scene, camera, settings, tree,
+        [
+            Result(Strategy.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30),
+            Result(Strategy.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10),
+        ]);
+    }
+
+    public static StrategyResult Result(Strategy s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)
+    {
+        var counters = new uint[CounterNames.Count][];
+        for (int c = 0; c < counters.Length; c++)
+        {
+            counters[c] = new uint[width * height];
+            for (int y = 0; y < height; y++)
+                for (int x = 0; x < width; x++)
+                    counters[c][y * width + x] = c == 0 ? iterations(x, y) : (uint)((iterations(x, y) * (c + 1)) % 7);
+        }
+        var hits = new PixelHit[width * height];
+        for (int y = 0; y < height; y++)
+        {
+            for (int x = 0; x < width; x++)
+            {
+                if (x >= width / 2 + y % 3)
+                    continue;
+                hits[y * width + x] = new PixelHit
+                {
+                    Hit = true, X = x, Y = 10 - y, Z = 20 + (hitShift && x == 5 && y == 1 ? 1 : 0),
+                    T = 12.25f + x, Material = (byte)(1 + x % 3), Face = (HitFace)(1 + (x + y) % 6),
+                };
+            }
+        }
+        return new StrategyResult(s, width, height, counters, hits, TimeSpan.FromMilliseconds(elapsedMs));
+    }
+}

@@ -1,0 +1,87 @@
+using VoxProf.Core.Statistics;
+
+namespace VoxProf.Tests.Statistics;
+
+public class WaveModelTests
+{
+    // Worked example of the definition: 31 lanes × 10 + 40 = 350 lane iterations over 32 lanes × 40 = 1280 slots.
+    [Fact]
+    public void A_32_lane_tile_with_one_slow_lane_has_efficiency_350_over_1280()
+    {
+        uint[] costs = Enumerable.Repeat(10u, 32).ToArray();
+        costs[13] = 40;
+
+        WaveSummary s = WaveModel.Summarise(costs, 8, 4, WaveShape.Lanes32);
+
+        s.Tiles.Should().Be(1);
+        s.MeanTileMax.Should().Be(40);
+        s.SimdEfficiency.Should().BeApproximately(350.0 / 1280.0, 1e-12);
+        s.SimdEfficiency.Should().BeApproximately(0.2734, 1e-4);
+    }
+
+    [Fact]
+    public void Mean_tile_max_averages_the_maxima_of_every_tile()
+    {
+        // 16×4 image: left tile all 2, right tile all 6 with one lane at 10.
+        uint[] costs = new uint[16 * 4];
+        for (int y = 0; y < 4; y++)
+            for (int x = 0; x < 16; x++)
+                costs[y * 16 + x] = x < 8 ? 2u : 6u;
+        costs[2 * 16 + 12] = 10;
+
+        WaveSummary s = WaveModel.Summarise(costs, 16, 4, WaveShape.Lanes32);
+
+        s.Tiles.Should().Be(2);
+        s.MeanTileMax.Should().Be(6);
+        s.MaxTileMax.Should().Be(10);
+        long work = 32 * 2 + 31 * 6 + 10;
+        s.SimdEfficiency.Should().BeApproximately(work / (32.0 * (2 + 10)), 1e-12);
+    }
+
+    [Fact]
+    public void Partial_edge_tiles_count_their_missing_lanes_as_idle_slots()
+    {
+        // 9×4: one full tile plus a one-column tile whose 4 real lanes cost 5.
+        uint[] costs = Enumerable.Repeat(5u, 9 * 4).ToArray();
+
+        WaveSummary s = WaveModel.Summarise(costs, 9, 4, WaveShape.Lanes32);
+
+        s.Tiles.Should().Be(2);
+        s.MeanTileMax.Should().Be(5);
+        s.SimdEfficiency.Should().BeApproximately(36 * 5 / (32.0 * 10), 1e-12);
+    }
+
+    [Fact]
+    public void All_zero_tiles_lower_the_mean_but_not_the_efficiency()
+    {
+        uint[] costs = new uint[16 * 8];
+        for (int y = 0; y < 8; y++)
+            for (int x = 0; x < 8; x++)
+                costs[y * 16 + x] = 3;
+
+        WaveSummary s = WaveModel.Summarise(costs, 16, 8, WaveShape.Lanes64);
+
+        s.MeanTileMax.Should().Be(1.5);
+        s.SimdEfficiency.Should().Be(1.0);
+        WaveModel.Summarise(new uint[64], 8, 8, WaveShape.Lanes64).SimdEfficiency.Should().Be(1.0);
+    }
+
+    [Fact]
+    public void Expanded_tile_image_gives_every_pixel_its_tile_maximum()
+    {
+        uint[] costs = new uint[10 * 5];
+        costs[0] = 7;
+        costs[4 * 10 + 9] = 3;
+        var shape = WaveShape.Lanes32;
+        uint[] tiles = new uint[shape.TilesX(10) * shape.TilesY(5)];
+        WaveModel.TileMax(costs, 10, 5, shape, tiles);
+        tiles.Should().Equal(7u, 0u, 0u, 3u);
+
+        uint[] pixels = new uint[costs.Length];
+        WaveModel.ExpandTiles(tiles, 10, 5, shape, pixels);
+        pixels[3 * 10 + 7].Should().Be(7);
+        pixels[3 * 10 + 8].Should().Be(0);
+        pixels[4 * 10 + 0].Should().Be(0);
+        pixels[4 * 10 + 8].Should().Be(3);
+    }
+}
