@@ -1,0 +1,120 @@
+using System.Globalization;
+using SixLabors.ImageSharp;
+using SixLabors.ImageSharp.PixelFormats;
+using VoxProf.Core;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Images;
+using VoxProf.Reports.Model;
+using VoxProf.Reports.Pixels;
+
+namespace VoxProf.Reports.Compare;
+
+/// <summary>What the difference heatmaps step wrote, and what it had to leave out.</summary>
+public sealed record DiffImagesResult(IReadOnlyList<string> Written, IReadOnlyList<string> Notes);
+
+/// <summary>
+/// diff-STRATEGY-MAP.png for every strategy in both reports and every map both reports drew a heatmap of, from the
+/// per-pixel data files beside each report.json. All strategies of one map share one symmetric scale, so the images
+/// compare by eye, as the trace heatmaps do.
+/// </summary>
+public static class CompareDiffImages
+{
+    public static string FileName(string strategy, string map) => $"diff-{strategy}-{map}.png";
+
+    /// <summary>Maps both reports drew (counter names, wave32, wave64); iterations for reports that list none.</summary>
+    public static IReadOnlyList<string> Maps(ReportComparison cmp)
+    {
+        var b = cmp.Base.Document.Run.Heatmaps;
+        var c = cmp.Candidate.Document.Run.Heatmaps;
+        var both = b.Where(m => c.Contains(m, StringComparer.OrdinalIgnoreCase) && HeatmapNames.TryParse(m, out _)).ToArray();
+        return both.Length > 0 ? both : [Counter.Iterations.Name()];
+    }
+
+    public static DiffImagesResult Write(ReportComparison cmp, OutputDirectory output, string toolVersion)
+    {
+        var maps = Maps(cmp);
+        var notes = new List<string>();
+        var jobs = new List<Job>();
+        (LoadedReport Report, List<string> Strategies)[] missing = [(cmp.Base, []), (cmp.Candidate, [])];
+        foreach (var strategy in cmp.Strategies)
+        {
+            var basePixels = Load(cmp.Base, strategy, missing[0].Strategies);
+            var candidatePixels = Load(cmp.Candidate, strategy, missing[1].Strategies);
+            if (basePixels is null || candidatePixels is null)
+                continue;
+
+            var changed = new bool[basePixels.Width * basePixels.Height];
+            var hitChanges = PixelDiff.HitChanged(basePixels.Hits, candidatePixels.Hits, changed);
+            if (hitChanges > 0)
+                notes.Add(string.Create(CultureInfo.InvariantCulture, $"{strategy}: {hitChanges} pixels hit a different voxel or changed between hit and miss (checkered in its difference heatmaps)"));
+            foreach (var map in maps)
+            {
+                var a = Values(basePixels, map);
+                var b = Values(candidatePixels, map);
+                if (a is null || b is null)
+                {
+                    notes.Add($"{strategy}: no per-pixel {map} in {(a is null ? "base" : "candidate")}; its difference heatmap is left out");
+                    continue;
+                }
+                var diff = new long[a.Length];
+                jobs.Add(new Job(strategy, map, diff, changed, PixelDiff.Subtract(a, b, diff), basePixels.Width, basePixels.Height));
+            }
+        }
+
+        foreach (var (report, strategies) in missing.Where(m => m.Strategies.Count > 0))
+        {
+            notes.Insert(0, $"no per-pixel data in {report.Directory} for {string.Join(", ", strategies)} " +
+                $"(files {OutputNames.PixelData("STRATEGY")}): their difference heatmaps are left out");
+        }
+
+        var written = new List<string>();
+        foreach (var job in jobs)
+        {
+            var maxAbs = jobs.Where(j => j.Map == job.Map).Max(j => j.Summary.MaxAbs);
+            using Image<Rgba32> image = DiffHeatmap.Render(job.Diff, job.HitChanged, job.Width, job.Height, maxAbs);
+            Png.AddText(image, "Strategy", job.Strategy);
+            Png.AddText(image, "Counter", job.Map);
+            Png.AddText(image, "Difference", "candidate minus base");
+            Png.AddText(image, "Scale", string.Create(CultureInfo.InvariantCulture, $"linear {-maxAbs}..{maxAbs}"));
+            Png.AddText(image, "Software", $"VoxProf {toolVersion}");
+            var name = FileName(job.Strategy, job.Map);
+            output.Write(name, s => Png.Save(image, s));
+            written.Add(name);
+        }
+        return new DiffImagesResult(written, notes);
+    }
+
+    private sealed record Job(string Strategy, string Map, long[] Diff, bool[] HitChanged, PixelDiffSummary Summary, int Width, int Height);
+
+    private static PixelData? Load(LoadedReport report, string strategy, List<string> missing)
+    {
+        var path = Path.Combine(report.Directory, OutputNames.PixelData(strategy));
+        if (!File.Exists(path))
+        {
+            missing.Add(strategy);
+            return null;
+        }
+        var data = PixelDataFile.Read(path);
+        var run = report.Document.Run;
+        if (data.Width != run.Width || data.Height != run.Height)
+            throw new InputException($"{path}: image size {data.Width}x{data.Height} differs from its report.json ({run.Width}x{run.Height})");
+        return data;
+    }
+
+    /// <summary>A counter's per-pixel values, or for a wave map each pixel's tile maximum of loop iterations.</summary>
+    private static uint[]? Values(PixelData data, string map)
+    {
+        if (!HeatmapNames.IsWave(map, out var shape))
+            return data.Find(map);
+        var iterations = data.Find(Counter.Iterations.Name());
+        if (iterations is null)
+            return null;
+        var tiles = new uint[shape.TilesX(data.Width) * shape.TilesY(data.Height)];
+        WaveModel.TileMax(iterations, data.Width, data.Height, shape, tiles);
+        var pixels = new uint[data.Width * data.Height];
+        WaveModel.ExpandTiles(tiles, data.Width, data.Height, shape, pixels);
+        return pixels;
+    }
+}

@@ -1,0 +1,33 @@
+using System.Globalization;
+
+namespace VoxProf.Reports.Compare;
+
+/// <summary>Everything the compare outputs render: the comparison, the verdict, and the diff images written.</summary>
+public sealed record CompareResult(ReportComparison Comparison, GateVerdict Verdict)
+{
+    /// <summary>Difference heatmap file names (relative to the out directory), filled in once they are written.</summary>
+    public IReadOnlyList<string> DiffImages { get; init; } = [];
+
+    /// <summary>What the difference heatmaps left out or found (pixels whose hit changed).</summary>
+    public IReadOnlyList<string> DiffNotes { get; init; } = [];
+}
+
+/// <summary>Number formatting shared by the console, Markdown and CSV renderings (invariant culture throughout).</summary>
+public static class CompareText
+{
+    /// <summary>"+5.25%", "-0.5%", "0%", or "from 0" when the base is zero and the candidate is not.</summary>
+    public static string Relative(MetricChange change) => change.RelativeChange is { } r
+        ? (r * 100).ToString("+0.##;-0.##;0", CultureInfo.InvariantCulture) + "%"
+        : "from 0";
+
+    /// <summary>"+1.5 (+12.5%)"</summary>
+    public static string Change(MetricChange change) =>
+        $"{change.Metric.FormatChange(change.Change)} ({Relative(change)})";
+
+    public static string Verdict(GateVerdict verdict) => verdict.Passed ? "pass" : "fail";
+
+    /// <summary>One line per broken check: "dda iterations.mean: 12 -> 13.5 (+1.5, +12.5%), limit 5%".</summary>
+    public static string Broken(GateRule rule, MetricChange c) =>
+        $"{c.Strategy} {c.Metric.Key}: {c.Metric.Format(c.Base)} -> {c.Metric.Format(c.Candidate)} " +
+        $"({c.Metric.FormatChange(c.Change)}, {Relative(c)}), {(c.Metric.LowerIsBetter ? "may rise" : "may fall")} at most {rule.LimitText}";
+}

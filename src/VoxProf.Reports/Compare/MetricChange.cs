@@ -1,0 +1,44 @@
+namespace VoxProf.Reports.Compare;
+
+/// <summary>One metric of one strategy in both reports.</summary>
+public sealed record MetricChange(string Strategy, MetricDescriptor Metric, double Base, double Candidate)
+{
+    public double Change => Candidate - Base;
+
+    /// <summary>Change over |base|; 0 when both are 0; null when only the base is 0 (no finite ratio).</summary>
+    public double? RelativeChange => Base != 0 ? Change / Math.Abs(Base) : Change == 0 ? 0 : null;
+
+    /// <summary>The change in the metric's "worse" direction: positive is a regression whatever the metric.</summary>
+    public double AbsoluteWorsening => Metric.LowerIsBetter ? Change : -Change;
+
+    /// <summary>
+    /// <see cref="AbsoluteWorsening"/> over |base|: positive is a regression; ±infinity when the base is 0 and the
+    /// candidate is not, so a cost appearing from nothing sorts first and breaks any relative limit.
+    /// </summary>
+    public double RelativeWorsening => Base != 0
+        ? AbsoluteWorsening / Math.Abs(Base)
+        : AbsoluteWorsening == 0 ? 0 : AbsoluteWorsening > 0 ? double.PositiveInfinity : double.NegativeInfinity;
+
+    public bool IsRegression => AbsoluteWorsening > 0;
+
+    /// <summary>"dda-mask iterations.mean"</summary>
+    public string Name => $"{Strategy} {Metric.Key}";
+}
+
+/// <summary>Largest regressions first: by relative worsening, ties in the reports' own order.</summary>
+public static class RegressionOrder
+{
+    public static IReadOnlyList<MetricChange> Sort(IEnumerable<MetricChange> changes) =>
+        changes
+            .Select((c, i) => (c, i))
+            .OrderByDescending(x => SortKey(x.c))
+            .ThenBy(x => x.i)
+            .Select(x => x.c)
+            .ToArray();
+
+    // Rounded so that equal changes computed through different divisions (a 7% rise of 12 and of 40) tie, and
+    // keep the reports' strategy and counter order instead of an order set by the last bits of a division.
+    // Absolute changes are no tie-break: they are in different units.
+    private static double SortKey(MetricChange c) =>
+        double.IsInfinity(c.RelativeWorsening) ? c.RelativeWorsening : Math.Round(c.RelativeWorsening, 9);
+}

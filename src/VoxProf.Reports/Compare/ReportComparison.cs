@@ -1,0 +1,119 @@
+using System.Globalization;
+using VoxProf.Core;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Reports.Compare;
+
+/// <summary>Two reports of the same view, metric by metric. Build with <see cref="Create"/>.</summary>
+public sealed class ReportComparison
+{
+    private ReportComparison(LoadedReport @base, LoadedReport candidate, IReadOnlyList<string> notes,
+        IReadOnlyList<string> strategies, IReadOnlyList<MetricChange> changes)
+    {
+        Base = @base;
+        Candidate = candidate;
+        Notes = notes;
+        Strategies = strategies;
+        Changes = changes;
+    }
+
+    public LoadedReport Base { get; }
+    public LoadedReport Candidate { get; }
+
+    /// <summary>True when the scene files' hashes differ: allowed (content changes are what users compare), but stated.</summary>
+    public bool SceneChanged => !string.Equals(Base.Document.Scene.Sha256, Candidate.Document.Scene.Sha256, StringComparison.OrdinalIgnoreCase);
+
+    /// <summary>Differences a reader should know before trusting the numbers; the scene change comes first.</summary>
+    public IReadOnlyList<string> Notes { get; }
+
+    /// <summary>Strategies present in both reports, in the base report's order.</summary>
+    public IReadOnlyList<string> Strategies { get; }
+
+    /// <summary>Every metric present in both reports, largest regressions first.</summary>
+    public IReadOnlyList<MetricChange> Changes { get; }
+
+    /// <summary>Refuses (with <see cref="InputException"/>) reports of different image sizes or cameras.</summary>
+    public static ReportComparison Create(LoadedReport @base, LoadedReport candidate)
+    {
+        RequireSameView(@base, candidate);
+        var b = @base.Document;
+        var c = candidate.Document;
+        var notes = new List<string>();
+        if (!string.Equals(b.Scene.Sha256, c.Scene.Sha256, StringComparison.OrdinalIgnoreCase))
+            notes.Add($"scene content differs: base sha256 {Short(b.Scene.Sha256)}, candidate sha256 {Short(c.Scene.Sha256)}");
+        if (b.Camera.Name != c.Camera.Name)
+            notes.Add($"camera renamed from '{b.Camera.Name}' to '{c.Camera.Name}' (same position and field of view)");
+        if (b.Tree.Branching != c.Tree.Branching)
+            notes.Add($"tree branching differs: base {b.Tree.Branching}, candidate {c.Tree.Branching}");
+        if (b.Run.PrepassBlock != c.Run.PrepassBlock)
+            notes.Add($"prepass block differs: base {b.Run.PrepassBlock}, candidate {c.Run.PrepassBlock}");
+        if (b.ToolVersion != c.ToolVersion)
+            notes.Add($"voxprof version differs: base {b.ToolVersion}, candidate {c.ToolVersion}");
+
+        var candidateByName = c.Strategies.ToDictionary(s => s.Name, StringComparer.OrdinalIgnoreCase);
+        var common = b.Strategies.Where(s => candidateByName.ContainsKey(s.Name)).Select(s => s.Name).ToArray();
+        AddOnlyIn(notes, "strategies", b.Strategies.Select(s => s.Name), c.Strategies.Select(s => s.Name));
+
+        var changes = new List<MetricChange>();
+        var missingMetrics = new SortedSet<string>(StringComparer.Ordinal);
+        foreach (var bs in b.Strategies.Where(s => candidateByName.ContainsKey(s.Name)))
+        {
+            var cs = candidateByName[bs.Name];
+            var candidateValues = Metrics.Of(cs).ToDictionary(m => m.Metric.Key, StringComparer.OrdinalIgnoreCase);
+            var seen = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+            foreach (var m in Metrics.Of(bs))
+            {
+                seen.Add(m.Metric.Key);
+                if (candidateValues.TryGetValue(m.Metric.Key, out var cv))
+                    changes.Add(new MetricChange(bs.Name, m.Metric, m.Value, cv.Value));
+                else
+                    missingMetrics.Add($"{m.Metric.Group} (base only)");
+            }
+            foreach (var key in candidateValues.Keys.Where(k => !seen.Contains(k)))
+                missingMetrics.Add($"{candidateValues[key].Metric.Group} (candidate only)");
+        }
+        if (missingMetrics.Count > 0)
+            notes.Add($"not compared, present in one report only: {string.Join(", ", missingMetrics)}");
+        if (b.Environment.Configuration != "Release" || c.Environment.Configuration != "Release")
+            notes.Add($"build configuration: base {b.Environment.Configuration}, candidate {c.Environment.Configuration} (counts do not depend on it; timings do)");
+
+        return new ReportComparison(@base, candidate, notes, common, RegressionOrder.Sort(changes));
+    }
+
+    private static void RequireSameView(LoadedReport @base, LoadedReport candidate)
+    {
+        var b = @base.Document;
+        var c = candidate.Document;
+        if (b.Run.Width != c.Run.Width || b.Run.Height != c.Run.Height)
+        {
+            throw new InputException(
+                $"cannot compare runs of different image sizes: base {b.Run.Width}x{b.Run.Height} ({@base.File}), candidate {c.Run.Width}x{c.Run.Height} ({candidate.File})");
+        }
+        // Exact float equality: both runs read the camera from the same text, so any difference is a real move.
+        if (!b.Camera.Eye.SequenceEqual(c.Camera.Eye) || !b.Camera.Target.SequenceEqual(c.Camera.Target)
+            || !b.Camera.Up.SequenceEqual(c.Camera.Up) || b.Camera.FovDegrees != c.Camera.FovDegrees)
+        {
+            throw new InputException(
+                $"cannot compare runs of different cameras: base {Describe(b.Camera)} ({@base.File}), candidate {Describe(c.Camera)} ({candidate.File})");
+        }
+    }
+
+    private static void AddOnlyIn(List<string> notes, string what, IEnumerable<string> inBase, IEnumerable<string> inCandidate)
+    {
+        var b = inBase.ToArray();
+        var c = inCandidate.ToArray();
+        var onlyBase = b.Except(c, StringComparer.OrdinalIgnoreCase).ToArray();
+        var onlyCandidate = c.Except(b, StringComparer.OrdinalIgnoreCase).ToArray();
+        if (onlyBase.Length > 0)
+            notes.Add($"{what} only in base, not compared: {string.Join(", ", onlyBase)}");
+        if (onlyCandidate.Length > 0)
+            notes.Add($"{what} only in candidate, not compared: {string.Join(", ", onlyCandidate)}");
+    }
+
+    public static string Describe(CameraInfo camera) =>
+        $"'{camera.Name}' eye {Vec(camera.Eye)} target {Vec(camera.Target)} up {Vec(camera.Up)} fov {camera.FovDegrees.ToString("R", CultureInfo.InvariantCulture)}";
+
+    private static string Vec(float[] v) => string.Join(",", v.Select(x => x.ToString("R", CultureInfo.InvariantCulture)));
+
+    private static string Short(string? hash) => hash is null ? "(none)" : hash.Length > 12 ? hash[..12] : hash;
+}

@@ -1,0 +1,160 @@
+using System.Text.Json;
+using System.Text.RegularExpressions;
+using VoxProf.Core;
+using VoxProf.Reports.Model;
+
+namespace VoxProf.Reports.Compare;
+
+/// <summary>A report read from disk, with the path it was read from for messages.</summary>
+public sealed record LoadedReport(string File, ReportDocument Document)
+{
+    /// <summary>The report directory (the directory of report.json): heatmaps and per-pixel files live beside it.</summary>
+    public string Directory => Path.GetDirectoryName(Path.GetFullPath(File)) ?? ".";
+}
+
+/// <summary>Reads report.json for <c>compare</c>; every problem becomes one <see cref="InputException"/> line.</summary>
+public static partial class ReportLoader
+{
+    public const string FileName = OutputNames.ReportJson;
+
+    // The writer's options, made strict: a missing constructor field or a null where the model has none becomes
+    // an error with its JSON path instead of a null that fails somewhere in the comparison.
+    private static readonly JsonSerializerOptions Options = new(ReportJson.Options)
+    {
+        RespectRequiredConstructorParameters = true,
+        RespectNullableAnnotations = true,
+    };
+
+    /// <param name="path">A report directory or its report.json.</param>
+    public static LoadedReport Load(string path)
+    {
+        var file = Directory.Exists(path) ? Path.Combine(path, FileName) : path;
+        if (!File.Exists(file))
+        {
+            throw new InputException(Directory.Exists(path) || path.EndsWith(".json", StringComparison.OrdinalIgnoreCase)
+                ? $"{file}: not found (expected a report.json written by `voxprof trace`)"
+                : $"{path}: not found (expected a report directory or its {FileName})");
+        }
+
+        var bytes = File.ReadAllBytes(file);
+        CheckSchema(file, bytes);
+        ReportDocument? doc;
+        try
+        {
+            doc = JsonSerializer.Deserialize<ReportDocument>(bytes, Options);
+        }
+        catch (JsonException ex)
+        {
+            throw new InputException($"{file}: {Where(ex)}: {Problem(ex)}", ex);
+        }
+        if (doc is null)
+            throw new InputException($"{file}: expected a report object, found null");
+        Validate(file, doc);
+        return new LoadedReport(file, doc);
+    }
+
+    // Read the schema version alone first, so a report from a later schema gets "version N not read" rather than
+    // a confusing complaint about some field that schema renamed.
+    private static void CheckSchema(string file, byte[] bytes)
+    {
+        try
+        {
+            using var json = JsonDocument.Parse(bytes);
+            if (json.RootElement.ValueKind != JsonValueKind.Object)
+                throw new InputException($"{file}: expected a JSON object at the top, found {json.RootElement.ValueKind.ToString().ToLowerInvariant()}");
+            JsonElement? found = null;
+            foreach (var p in json.RootElement.EnumerateObject())
+            {
+                if (string.Equals(p.Name, "schemaVersion", StringComparison.OrdinalIgnoreCase))
+                    found = p.Value;
+            }
+            if (found is not { } version)
+                throw new InputException($"{file}: $.schemaVersion: missing; expected the report schema version ({ReportDocument.CurrentSchema})");
+            if (version.ValueKind != JsonValueKind.Number || !version.TryGetInt32(out var v))
+                throw new InputException($"{file}: $.schemaVersion: expected an integer, found {version.GetRawText()}");
+            if (v < 1 || v > ReportDocument.CurrentSchema)
+                throw new InputException($"{file}: $.schemaVersion: report schema {v} is not read by this voxprof (it reads schema 1..{ReportDocument.CurrentSchema}); trace both runs with one voxprof version");
+        }
+        catch (JsonException ex)
+        {
+            var truncated = AtEnd(bytes, ex);
+            throw new InputException($"{file}: {Where(ex)}: {(truncated ? "truncated or empty JSON" : "malformed JSON")}: {Problem(ex)}", ex);
+        }
+    }
+
+    // The parser stopped at the last byte: the text ended before the JSON did (a truncated or empty file), which
+    // deserves a plainer message than the parser's complaint about what it expected next.
+    private static bool AtEnd(byte[] bytes, JsonException ex)
+    {
+        var lastBreak = Array.LastIndexOf(bytes, (byte)'\n');
+        var lines = bytes.Count(b => b == (byte)'\n');
+        var lastLineLength = bytes.Length - (lastBreak + 1);
+        return ex.LineNumber == lines && ex.BytePositionInLine >= lastLineLength;
+    }
+
+    private static void Validate(string file, ReportDocument doc)
+    {
+        if (doc.Run.Width <= 0 || doc.Run.Height <= 0)
+            throw new InputException($"{file}: $.run: image size {doc.Run.Width}x{doc.Run.Height} is not a positive WxH");
+        if (doc.Camera.Eye.Length != 3 || doc.Camera.Target.Length != 3 || doc.Camera.Up.Length != 3)
+            throw new InputException($"{file}: $.camera: eye, target and up must each have 3 numbers");
+        var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        for (var i = 0; i < doc.Strategies.Count; i++)
+        {
+            var s = doc.Strategies[i];
+            if (!names.Add(s.Name))
+                throw new InputException($"{file}: $.strategies[{i}].name: strategy '{s.Name}' appears twice");
+            var counters = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+            for (var c = 0; c < s.Counters.Count; c++)
+            {
+                if (!counters.Add(s.Counters[c].Counter))
+                    throw new InputException($"{file}: $.strategies[{i}].counters[{c}].counter: counter '{s.Counters[c].Counter}' appears twice");
+            }
+            var lanes = new HashSet<int>();
+            for (var w = 0; w < s.Waves.Count; w++)
+            {
+                if (s.Waves[w].Lanes <= 0 || !lanes.Add(s.Waves[w].Lanes))
+                    throw new InputException($"{file}: $.strategies[{i}].waves[{w}].lanes: expected a positive lane count once per strategy, found {s.Waves[w].Lanes}");
+            }
+        }
+    }
+
+    private static string Where(JsonException ex)
+    {
+        // System.Text.Json counts lines and bytes from 0; editors count from 1.
+        var place = ex.LineNumber is { } line
+            ? $"line {line + 1}, position {(ex.BytePositionInLine ?? 0) + 1}"
+            : "";
+        var path = string.IsNullOrEmpty(ex.Path) || ex.Path == "$" ? "" : ex.Path;
+        return (place, path) switch
+        {
+            ("", "") => "JSON",
+            ("", _) => path,
+            (_, "") => place,
+            _ => $"{path} ({place})",
+        };
+    }
+
+    // The serializer's messages end with a "Path: … | LineNumber: …" suffix already given by Where, and name
+    // .NET types; keep the part a user can act on.
+    private static string Problem(JsonException ex)
+    {
+        var message = ex.Message;
+        var cut = message.IndexOf(" Path: ", StringComparison.Ordinal);
+        if (cut < 0)
+            cut = message.IndexOf(" LineNumber: ", StringComparison.Ordinal);
+        if (cut >= 0)
+            message = message[..cut];
+        var missing = MissingProperties().Match(message);
+        if (missing.Success)
+            return $"missing field {missing.Groups[1].Value}";
+        message = TypeName().Replace(message, m => $"'{m.Groups[1].Value}'");
+        return message.ReplaceLineEndings(" ").TrimEnd('.', ' ');
+    }
+
+    [GeneratedRegex("missing required properties including: (.*?)\\.?$")]
+    private static partial Regex MissingProperties();
+
+    [GeneratedRegex("'(?:[A-Za-z0-9_]+\\.)+([A-Za-z0-9_`]+)'")]
+    private static partial Regex TypeName();
+}
