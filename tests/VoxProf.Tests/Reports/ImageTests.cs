@@ -181,3 +181,15 @@ public class DifferenceImageTests
             .Should().Equal("-10", "-5", "0", "+5", "+10");
     }
 }
+
+public class HeatmapScaleTests
+{
+    [Theory]
+    [InlineData(2637, new[] { 0.0, 500, 1000, 1500, 2000, 2500 })]
+    [InlineData(1000, new[] { 0.0, 200, 400, 600, 800, 1000 })]
+    [InlineData(12, new[] { 0.0, 2.5, 5, 7.5, 10 })]
+    public void Linear_ticks_are_round_steps_within_the_range(double max, double[] expected)
+    {
+        new HeatmapScale(ScaleKind.Linear, 0, max).Ticks(6).Select(t => t.Value).Should().Equal(expected);
+    }
+}
