@@ -193,3 +193,18 @@ public class HeatmapScaleTests
         new HeatmapScale(ScaleKind.Linear, 0, max).Ticks(6).Select(t => t.Value).Should().Equal(expected);
     }
 }
+
+public class TickFormatTests
+{
+    [Theory]
+    [InlineData(0.25, true, "+25%")]
+    [InlineData(-0.05, true, "-5%")]
+    [InlineData(0.0, true, "0%")]
+    [InlineData(0.125, false, "13%")] // halves round away from zero
+    [InlineData(0.015, false, "1.5%")]
+    public void Percent_labels_carry_a_sign_only_when_asked(double fraction, bool signed, string expected)
+    {
+        using var _ = new CultureScope("de-DE");
+        TickFormat.Percent(fraction, signed).Should().Be(expected);
+    }
+}
