@@ -1,17 +1,204 @@
 using System.CommandLine;
+using System.Globalization;
+using System.Numerics;
+using VoxProf.Core;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Core.Trees;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Images;
 
 namespace VoxProf.Cli.Commands;
 
+/// <summary>The steps of a trace that are not the command's own, replaceable in tests.</summary>
+internal sealed record TracePipeline(
+    Func<string, Scene> LoadScene,
+    Func<Scene, int, int, BrickTree> BuildTree,
+    Func<TraceRequest, IProgress<int>?, TraceRun> Trace,
+    Func<bool> StderrIsTerminal)
+{
+    public static TracePipeline Default { get; } = new(
+        SceneLoader.Load, (scene, branching, threads) => TreeBuilder.Build(scene, branching, threads),
+        (request, progress) => Tracer.Run(request, progress), () => !Console.IsErrorRedirected);
+}
+
 public static class TraceCommand
 {
-    public static Command Create(TextWriter output, TextWriter error)
+    public const int DefaultWidth = 1280;
+    public const int DefaultHeight = 720;
+    public const float DefaultFov = 60;
+
+    public static Command Create(TextWriter output, TextWriter error) => Create(output, error, TracePipeline.Default);
+
+    internal static Command Create(TextWriter output, TextWriter error, TracePipeline pipeline)
     {
-        var cmd = new Command("trace", "Not yet available.");
-        cmd.SetAction(_ =>
+        var scene = new Argument<string>("scene") { Description = "Scene file (JSON)." };
+        var camera = new Option<string?>("--camera") { Description = "Named camera of the scene (default: the first)." };
+        var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
+        var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
+        var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
+        var fov = new Option<float?>("--fov") { Description = "Vertical field of view in degrees (custom camera default 60)." };
+        var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
+        var strategy = new Option<string?>("--strategy") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
+        var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
+        var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
+        var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default iterations,wave32,wave64): {HeatmapNames.ValidList}." };
+        var scale = new Option<string>("--scale") { Description = "Heatmap scale: linear or log.", DefaultValueFactory = _ => "linear" };
+        var range = new Option<string?>("--range") { Description = "Fixed heatmap range MIN:MAX, so two runs compare." };
+        var outDir = new Option<string?>("--out") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
+        var threads = new Option<int>("--threads") { Description = "Worker threads; 0 means every processor.", DefaultValueFactory = _ => 0 };
+        var quiet = new Option<bool>("--quiet") { Description = "No progress line on stderr." };
+        var perPixel = new Option<bool>("--per-pixel") { Description = "Also write pixels-STRATEGY.csv." };
+        var baseline = new Option<string?>("--baseline") { Description = "Strategy summary.md is relative to (default: the slowest)." };
+
+        var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries and report.json.")
         {
-            error.WriteLine("voxprof: trace is not available yet");
-            return ExitCodes.BadInput;
+            scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
+            quiet, perPixel, baseline,
+        };
+        cmd.SetAction(parse =>
+        {
+            return Guard.Run(error, () =>
+            {
+                // Option values first: a mistake is reported before any slow work starts.
+                var (width, height) = OptionParsing.Size(parse.GetValue(size)!);
+                List<Strategy> strategies = parse.GetValue(strategy) is { } s
+                    ? OptionParsing.List<Strategy>(s, "--strategy", "strategy", StrategyNames.TryParse, StrategyNames.ValidList)
+                    : [.. StrategyNames.All];
+                List<string> heatmaps = parse.GetValue(counters) is { } c
+                    ? OptionParsing.List<string>(c, "--counters", "counter", HeatmapNames.TryParse, HeatmapNames.ValidList)
+                    : [.. HeatmapNames.Default];
+                int prepassBlock = parse.GetValue(prepass) ?? 0;
+                if (parse.GetValue(prepass) is { } k && k is not (2 or 4 or 8))
+                    throw new InputException($"--prepass: {k} is not valid, expected 2, 4 or 8");
+                int branch = parse.GetValue(branching);
+                if (branch is not (2 or 4))
+                    throw new InputException($"--branching: {branch} is not valid, expected 2 or 4");
+                int threadCount = parse.GetValue(threads);
+                if (threadCount < 0)
+                    throw new InputException($"--threads: {threadCount} is not valid, expected 0 (every processor) or more");
+                ScaleKind scaleKind = OptionParsing.Choice(parse.GetValue(scale)!, "--scale", "linear", "log") == "log" ? ScaleKind.Log : ScaleKind.Linear;
+                (double Min, double Max)? fixedRange = parse.GetValue(range) is { } r ? OptionParsing.Range(r) : null;
+                Strategy? baselineStrategy = null;
+                if (parse.GetValue(baseline) is { } b)
+                {
+                    if (!StrategyNames.TryParse(b.Trim(), out Strategy bs))
+                        throw new InputException($"--baseline: unknown strategy '{b}'; expected one of: {StrategyNames.ValidList}");
+                    if (!strategies.Contains(bs))
+                        throw new InputException($"--baseline: {bs.Name()} is not among the traced strategies ({string.Join(", ", strategies.Select(x => x.Name()))})");
+                    baselineStrategy = bs;
+                }
+                var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
+                view.Validate();
+                string? outOption = parse.GetValue(outDir);
+                if (outOption is not null && File.Exists(outOption))
+                    throw new InputException($"{outOption}: is a file, expected an output directory");
+
+                // Scene, camera, output directory (proved writable before the trace), tree, trace.
+                Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!);
+                CameraSpec cam = view.Resolve(loaded);
+                string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
+                OutputDirectory.Open(dir);
+                BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
+                var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
+                bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
+                var progress = showProgress ? new TraceProgress(error, height * strategies.Count) : null;
+                TraceRun run = pipeline.Trace(request, progress);
+                progress?.Finish();
+
+                var options = new ReportOptions
+                {
+                    Scale = scaleKind,
+                    RangeMin = fixedRange?.Min,
+                    RangeMax = fixedRange?.Max,
+                    Heatmaps = heatmaps,
+                    PerPixel = parse.GetValue(perPixel),
+                    Baseline = baselineStrategy,
+                    Threads = threadCount == 0 ? Environment.ProcessorCount : threadCount,
+                };
+                if (ToolInfo.IsDebug(options.Environment))
+                    error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
+                ReportResult result = ReportWriter.WriteAll(run, options, dir);
+                PrintTable(output, result);
+                output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
+                foreach (ExportFailure f in result.Failures)
+                    error.WriteLine($"voxprof: error: could not write {f.Message}");
+                if (result.Failures.Count == 0)
+                    return ExitCodes.Ok;
+                return result.Failures.All(f => f.Error is IOException or UnauthorizedAccessException or InputException)
+                    ? ExitCodes.BadInput
+                    : ExitCodes.InternalError;
+            });
         });
         return cmd;
+    }
+
+    /// <summary>Per-strategy totals, mean iterations per pixel and the wave figures, as fixed-width text.</summary>
+    internal static void PrintTable(TextWriter output, ReportResult result)
+    {
+        output.WriteLine($"{"strategy",-10} {"iterations",14} {"mean/px",9} {"w32 max",9} {"w32 eff",8} {"w64 max",9} {"w64 eff",8} {"mismatch",9} {"time s",8}");
+        foreach (StrategyStatistics s in result.Statistics)
+        {
+            CounterSummary it = s[Counter.Iterations];
+            WaveSummary w32 = s.Waves[0], w64 = s.Waves[1];
+            double seconds = result.Document.Timings.TraceSeconds.TryGetValue(s.Strategy.Name(), out double t) ? t : 0;
+            output.WriteLine(string.Create(CultureInfo.InvariantCulture,
+                $"{s.Strategy.Name(),-10} {it.Total,14} {it.Mean,9:0.00} {w32.MeanTileMax,9:0.00} {w32.SimdEfficiency,8:0.000} {w64.MeanTileMax,9:0.00} {w64.SimdEfficiency,8:0.000} {s.MismatchPixels,9} {seconds,8:0.000}"));
+        }
+    }
+
+    private static string SafeName(string name)
+    {
+        var chars = name.Select(ch => char.IsLetterOrDigit(ch) || ch is '-' or '_' or '.' ? ch : '_').ToArray();
+        string safe = new string(chars).Trim('.');
+        return safe.Length == 0 ? "scene" : safe;
+    }
+
+    /// <summary>--camera, or a custom view from --eye/--target; --up and --fov adjust either.</summary>
+    private sealed record CameraChoice(string? Name, string? Eye, string? Target, string? Up, float? Fov)
+    {
+        public void Validate()
+        {
+            if (Name is not null && (Eye is not null || Target is not null))
+                throw new InputException("--camera: give either --camera NAME or --eye and --target, not both");
+            if ((Eye is null) != (Target is null))
+                throw new InputException($"{(Eye is null ? "--eye" : "--target")}: missing; a custom camera needs both --eye and --target");
+            if (Fov is { } f && !(f > 0 && f < 180))
+                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected degrees between 0 and 180");
+            if (Eye is not null)
+                OptionParsing.Vector(Eye, "--eye");
+            if (Target is not null)
+                OptionParsing.Vector(Target, "--target");
+            if (Up is not null && OptionParsing.Vector(Up, "--up") == Vector3.Zero)
+                throw new InputException("--up: 0,0,0 is not a direction");
+        }
+
+        public CameraSpec Resolve(Scene scene)
+        {
+            Vector3? up = Up is null ? null : OptionParsing.Vector(Up, "--up");
+            if (Eye is not null && Target is not null)
+            {
+                var custom = new CameraSpec("custom", OptionParsing.Vector(Eye, "--eye"), OptionParsing.Vector(Target, "--target"),
+                    up ?? Vector3.UnitY, Fov ?? DefaultFov);
+                if (custom.Eye == custom.Target)
+                    throw new InputException("--target: equals --eye, so the camera has no direction");
+                return custom;
+            }
+            string valid = scene.Cameras.Count == 0 ? "none" : string.Join(", ", scene.Cameras.Select(c => c.Name));
+            CameraSpec chosen;
+            if (Name is null)
+            {
+                chosen = scene.Cameras.Count > 0
+                    ? scene.Cameras[0]
+                    : throw new InputException($"{scene.SourcePath ?? scene.Name}: the scene has no cameras; give --eye and --target");
+            }
+            else
+            {
+                chosen = scene.Cameras.FirstOrDefault(c => string.Equals(c.Name, Name, StringComparison.OrdinalIgnoreCase))
+                    ?? throw new InputException($"--camera: no camera '{Name}' in {scene.SourcePath ?? scene.Name}; cameras: {valid}");
+            }
+            return chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
+        }
     }
 }

@@ -58,7 +58,7 @@ public sealed class PixelCsvExporter : IReportExporter
                 }
                 else
                 {
-                    for (int k = 0; k < 5; k++)
+                    for (int k = 0; k < 6; k++)
                         csv.WriteField("");
                 }
                 foreach (uint[] counter in r.Counters)

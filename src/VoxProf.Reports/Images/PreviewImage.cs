@@ -10,6 +10,8 @@ public static class PreviewImage
 {
     public static readonly Rgba32 Sky = Oklab.FromLch(0.86, 0.04, 235).ClipChromaToSrgb().ToRgba32();
     public static readonly Rgba32 Marker = new(255, 0, 220, 255);
+    public static readonly Rgba32 Halo = new(255, 255, 255, 255);
+    public const int HaloRadius = 2;
 
     /// <summary>Dimming of the preview under mismatch markers, so the marked pixels stand out.</summary>
     public const double MismatchDim = 0.35;
@@ -23,16 +25,29 @@ public static class PreviewImage
         return image;
     }
 
-    /// <summary>Dimmed preview of <paramref name="reference"/> with every pixel whose hit differs in <paramref name="hits"/> marked.</summary>
+    /// <summary>
+    /// Dimmed preview of <paramref name="reference"/> with every pixel whose hit differs in <paramref name="hits"/> in
+    /// <see cref="Marker"/>, ringed by <see cref="Halo"/> out to <see cref="HaloRadius"/> pixels so that a lone
+    /// differing pixel is still found at full image size.
+    /// </summary>
     public static Image<Rgba32> RenderMismatch(ReadOnlySpan<PixelHit> hits, ReadOnlySpan<PixelHit> reference, int width, int height)
     {
         var image = new Image<Rgba32>(width, height);
+        var differs = new bool[width * height];
+        for (int i = 0; i < differs.Length; i++)
+            differs[i] = !hits[i].SameVoxel(reference[i]);
+        for (int y = 0; y < height; y++)
+            for (int x = 0; x < width; x++)
+                image[x, y] = Dim(Shade(reference[y * width + x]));
         for (int y = 0; y < height; y++)
         {
             for (int x = 0; x < width; x++)
             {
-                int i = y * width + x;
-                image[x, y] = hits[i].SameVoxel(reference[i]) ? Dim(Shade(reference[i])) : Marker;
+                if (!differs[y * width + x])
+                    continue;
+                for (int hy = Math.Max(0, y - HaloRadius); hy <= Math.Min(height - 1, y + HaloRadius); hy++)
+                    for (int hx = Math.Max(0, x - HaloRadius); hx <= Math.Min(width - 1, x + HaloRadius); hx++)
+                        image[hx, hy] = differs[hy * width + hx] ? Marker : Halo;
             }
         }
         return image;

@@ -122,18 +122,62 @@ public class ImageTests
     }
 
     [Fact]
-    public void Preview_shows_sky_for_misses_and_mismatch_marks_only_differing_pixels()
+    public void Preview_shows_sky_for_misses_and_shades_faces_apart()
     {
-        PixelHit[] reference = [new() { Hit = true, X = 1, Material = 3, Face = HitFace.PosY }, new(), new() { Hit = true, X = 2, Material = 3, Face = HitFace.NegX }];
-        PixelHit[] other = [reference[0], new(), new() { Hit = true, X = 9, Material = 3, Face = HitFace.NegX }];
+        PixelHit[] hits = [new() { Hit = true, X = 1, Material = 3, Face = HitFace.PosY }, new(), new() { Hit = true, X = 2, Material = 3, Face = HitFace.NegX }];
 
-        ImageResult preview = Decode(PreviewImage.Render(reference, 3, 1));
+        ImageResult preview = Decode(PreviewImage.Render(hits, 3, 1));
+
         At(preview, 1, 0).Should().Be(PreviewImage.Sky);
         At(preview, 0, 0).Should().NotBe(At(preview, 2, 0), "faces are shaded differently");
+    }
 
-        ImageResult mismatch = Decode(PreviewImage.RenderMismatch(other, reference, 3, 1));
-        At(mismatch, 2, 0).Should().Be(PreviewImage.Marker);
-        At(mismatch, 0, 0).Should().NotBe(PreviewImage.Marker);
-        Oklab.FromSrgb(At(mismatch, 0, 0)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 0, 0)).L);
+    [Fact]
+    public void Mismatch_image_marks_differing_pixels_rings_them_and_dims_the_rest()
+    {
+        const int w = 12, h = 6;
+        var reference = new PixelHit[w * h];
+        for (int i = 0; i < reference.Length; i++)
+            reference[i] = new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY };
+        var hits = (PixelHit[])reference.Clone();
+        hits[2 * w + 3].X = 999;
+
+        ImageResult mismatch = Decode(PreviewImage.RenderMismatch(hits, reference, w, h));
+        ImageResult preview = Decode(PreviewImage.Render(reference, w, h));
+
+        At(mismatch, 3, 2).Should().Be(PreviewImage.Marker);
+        At(mismatch, 5, 4).Should().Be(PreviewImage.Halo, "two pixels away is inside the ring");
+        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Halo);
+        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Marker);
+        Oklab.FromSrgb(At(mismatch, 10, 5)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 10, 5)).L, "the preview is dimmed");
+    }
+}
+
+public class DifferenceImageTests
+{
+    [Fact]
+    public void Difference_image_is_near_white_at_zero_and_takes_the_ramp_ends_at_the_range()
+    {
+        double[] diffs = [0, -10, 10, 25, -5, 5];
+        using var image = DifferenceImage.Render(diffs, 3, 2, maxAbs: 10);
+
+        using var ms = new MemoryStream();
+        Png.Save(image, ms);
+        // StbImageSharp: an independent PNG decoder.
+        var png = ImageResult.FromMemory(ms.ToArray(), ColorComponents.RedGreenBlueAlpha);
+        Rgba32 At(int x, int y)
+        {
+            int i = (y * png.Width + x) * 4;
+            return new Rgba32(png.Data[i], png.Data[i + 1], png.Data[i + 2], png.Data[i + 3]);
+        }
+
+        png.Height.Should().Be(2 + Legend.Height);
+        At(0, 0).Should().Be(DivergingRamp.Map(0));
+        At(1, 0).Should().Be(DivergingRamp.Map(-1));
+        At(2, 0).Should().Be(DivergingRamp.Map(1));
+        At(0, 1).Should().Be(DivergingRamp.Map(1), "beyond the range takes the end colour");
+        Oklab.FromSrgb(At(1, 1)).L.Should().BeApproximately(Oklab.FromSrgb(At(2, 1)).L, 0.006);
+        DifferenceImage.LegendTicks(10, v => TickFormat.Compact(v, signed: true)).Select(t => t.Label)
+            .Should().Equal("-10", "-5", "0", "+5", "+10");
     }
 }

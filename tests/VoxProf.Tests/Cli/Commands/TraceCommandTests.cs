@@ -1,0 +1,134 @@
+using System.CommandLine;
+using VoxProf.Cli;
+using VoxProf.Cli.Commands;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Traversal;
+using VoxProf.Core.Trees;
+using VoxProf.Tests.Reports;
+
+namespace VoxProf.Tests.Cli.Commands;
+
+public sealed class TraceCommandTests : IDisposable
+{
+    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-cli-{Guid.NewGuid():N}");
+    private readonly List<TraceRequest> _requests = [];
+    private bool _sceneLoaded;
+
+    public void Dispose()
+    {
+        if (Directory.Exists(_dir))
+            Directory.Delete(_dir, recursive: true);
+    }
+
+    /// <summary>Stands in for scene loading, tree building and tracing with hand-made results.</summary>
+    private TracePipeline Fake(bool terminal = false) => new(
+        _ =>
+        {
+            _sceneLoaded = true;
+            return TestRuns.Small().Scene;
+        },
+        (_, branching, _) => new BrickTree(branching, 1, 4, 4, 4, new Node[1], [], TestRuns.Small().Tree),
+        (request, progress) =>
+        {
+            _requests.Add(request);
+            progress?.Report(request.Height * request.Strategies.Count);
+            var results = request.Strategies.Select((s, i) =>
+                TestRuns.Result(s, request.Width, request.Height, (x, y) => (uint)(x + y + 1 + i), hitShift: i == 1, elapsedMs: 5)).ToList();
+            return new TraceRun(request.Scene, request.Camera,
+                new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, 2), TestRuns.Small().Tree, results);
+        },
+        () => terminal);
+
+    private (int Code, string Out, string Err) Run(string args, bool terminal = false)
+    {
+        var output = new StringWriter();
+        var error = new StringWriter();
+        var root = new RootCommand { TraceCommand.Create(output, error, Fake(terminal)) };
+        var parse = root.Parse(args);
+        int code = parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
+        return (code, output.ToString(), error.ToString());
+    }
+
+    [Theory]
+    [InlineData("--size 0x720", "--size: '0x720' is not a valid size")]
+    [InlineData("--size 20000x10", "--size: '20000x10' is not a valid size")]
+    [InlineData("--size wide", "--size: 'wide' is not a valid size")]
+    [InlineData("--strategy dda,warp", "--strategy: unknown strategy 'warp'; expected one of: grid, slab, dda, dda-mask, hdda")]
+    [InlineData("--counters iterations,steps", "--counters: unknown counter 'steps'; expected one of: iterations,")]
+    [InlineData("--prepass 3", "--prepass: 3 is not valid, expected 2, 4 or 8")]
+    [InlineData("--branching 8", "--branching: 8 is not valid, expected 2 or 4")]
+    [InlineData("--scale cubic", "--scale: 'cubic' is not valid, expected one of: linear, log")]
+    [InlineData("--range 9:1", "--range: '9:1' is not a valid range")]
+    [InlineData("--baseline hdda --strategy grid,dda", "--baseline: hdda is not among the traced strategies")]
+    [InlineData("--eye 1,2,3", "--target: missing")]
+    public void Bad_options_exit_2_with_one_line_before_the_scene_is_read(string options, string message)
+    {
+        var (code, output, error) = Run($"trace scene.json {options}");
+
+        code.Should().Be(ExitCodes.BadInput);
+        error.Should().StartWith("voxprof: error: " + message);
+        error.TrimEnd('\n').Should().NotContain("\n", "one line");
+        output.Should().BeEmpty();
+        _sceneLoaded.Should().BeFalse();
+    }
+
+    [Fact]
+    public void Library_parse_errors_also_exit_2_through_the_command_line_entry_point()
+    {
+        var output = new StringWriter();
+        var error = new StringWriter();
+        VoxProf.Cli.Cli.Run(["trace", "scene.json", "--threads", "many"], output, error).Should().Be(ExitCodes.BadInput);
+        error.ToString().Should().Contain("many");
+    }
+
+    [Fact]
+    public void An_out_path_that_is_a_file_is_one_clear_error()
+    {
+        Directory.CreateDirectory(_dir);
+        string file = Path.Combine(_dir, "report");
+        File.WriteAllText(file, "keep");
+
+        var (code, _, error) = Run($"trace scene.json --out {file}");
+
+        code.Should().Be(ExitCodes.BadInput);
+        error.Should().Be($"voxprof: error: {file}: is a file, expected an output directory\n");
+        File.ReadAllText(file).Should().Be("keep");
+    }
+
+    [Fact]
+    public void A_trace_prints_a_table_and_the_directory_and_writes_the_reports()
+    {
+        var (code, output, error) = Run($"trace scene.json --size 32x16 --strategy grid,dda --out {_dir} --quiet");
+
+        code.Should().Be(ExitCodes.Ok, error);
+        error.Should().BeEmpty();
+        string[] lines = output.Split('\n', StringSplitOptions.RemoveEmptyEntries);
+        lines[0].Should().StartWith("strategy").And.Contain("w32 eff");
+        lines[1].Should().StartWith("grid");
+        lines[2].Should().StartWith("dda");
+        lines[^1].Should().StartWith("wrote ").And.EndWith(_dir);
+        File.Exists(Path.Combine(_dir, "report.json")).Should().BeTrue();
+        File.Exists(Path.Combine(_dir, "heatmap-dda-wave64.png")).Should().BeTrue();
+        _requests.Should().ContainSingle().Which.Width.Should().Be(32);
+        _requests[0].Camera.Name.Should().Be("gate", "the scene's first camera is the default");
+    }
+
+    [Fact]
+    public void Progress_goes_to_stderr_only_on_a_terminal_and_not_when_quiet()
+    {
+        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: true).Err.Should().Contain("rows");
+        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: false).Err.Should().BeEmpty();
+        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir} --quiet", terminal: true).Err.Should().BeEmpty();
+    }
+
+    [Fact]
+    public void A_custom_camera_replaces_the_scene_camera_and_an_unknown_name_lists_the_cameras()
+    {
+        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir} --eye 1,2,3 --target 4,5,6 --fov 35").Code.Should().Be(0);
+        _requests[0].Camera.Should().Be(new CameraSpec("custom", new(1, 2, 3), new(4, 5, 6), System.Numerics.Vector3.UnitY, 35));
+
+        var (code, _, error) = Run($"trace scene.json --camera tower --out {_dir}");
+        code.Should().Be(ExitCodes.BadInput);
+        error.Should().Be("voxprof: error: --camera: no camera 'tower' in /scenes/yard.json; cameras: gate\n");
+    }
+}
