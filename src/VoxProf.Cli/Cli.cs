@@ -19,8 +19,14 @@ public static class Cli
     {
         var root = BuildRoot(output, error);
         var parse = root.Parse(args);
-        int code = parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
-        // The library reports its own parse errors with exit code 1, which this tool reserves for broken compare rules.
-        return parse.Errors.Count > 0 && code == 1 ? ExitCodes.BadInput : code;
+        // The parser's own exit code for a bad option is 1, which compare uses for "a rule is broken";
+        // bad usage is 2 everywhere (ExitCodes).
+        if (parse.Errors.Count > 0)
+        {
+            foreach (var e in parse.Errors)
+                error.WriteLine($"voxprof: error: {e.Message}");
+            return ExitCodes.BadInput;
+        }
+        return parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
     }
 }

@@ -1,3 +1,21 @@
 using BenchmarkDotNet.Running;
+using VoxProf.Benchmarks;
+using VoxProf.Core.Scenes;
 
-BenchmarkSwitcher.FromAssembly(typeof(Program).Assembly).Run(args);
+if (args.Length > 0 && args[0] == "quick")
+{
+    Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : DemoLikeScene.Create();
+    int w = 1280, h = 720;
+    if (args.Length > 2)
+    {
+        string[] parts = args[2].Split('x');
+        w = int.Parse(parts[0]);
+        h = int.Parse(parts[1]);
+    }
+    int branching = args.Length > 3 ? int.Parse(args[3]) : 4;
+    int prepass = args.Length > 4 ? int.Parse(args[4]) : 0;
+    QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
+    return 0;
+}
+BenchmarkSwitcher.FromAssembly(typeof(QuickTiming).Assembly).Run(args);
+return 0;

@@ -1,16 +1,61 @@
 using System.CommandLine;
+using VoxProf.Cli.Formatting;
+using VoxProf.Core;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Trees;
 
 namespace VoxProf.Cli.Commands;
 
+/// <summary><c>voxprof inspect SCENE</c>: builds the scene's tree and prints its shape and memory per level.</summary>
 public static class InspectCommand
 {
     public static Command Create(TextWriter output, TextWriter error)
     {
-        var cmd = new Command("inspect", "Not yet available.");
-        cmd.SetAction(_ =>
+        var sceneArg = new Argument<string>("scene") { Description = "Scene file (JSON)." };
+        var branching = new Option<int>("--branching")
         {
-            error.WriteLine("voxprof: inspect is not available yet");
-            return ExitCodes.BadInput;
+            Description = "Cells per node side: 2 (octree) or 4 (4x4x4 bricks with one 64-bit mask).",
+            DefaultValueFactory = _ => 4,
+        };
+        branching.Validators.Add(r =>
+        {
+            // Validators also run when the value did not parse; leave that error to the parser.
+            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && n is not (2 or 4))
+                r.AddError($"--branching: expected 2 or 4, got {n}");
+        });
+        var format = new Option<string>("--format")
+        {
+            Description = "Output format: text or json.",
+            DefaultValueFactory = _ => "text",
+        };
+        format.AcceptOnlyFromAmong("text", "json");
+        var threads = new Option<int>("--threads")
+        {
+            Description = "Build threads; 0 uses every processor.",
+            DefaultValueFactory = _ => 0,
+        };
+        threads.Validators.Add(r =>
+        {
+            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && n < 0)
+                r.AddError($"--threads: expected 0 or more, got {n}");
+        });
+
+        var cmd = new Command("inspect", "Build a scene's sparse tree and print its size per level.")
+        {
+            sceneArg, branching, format, threads,
+        };
+        cmd.SetAction(parse =>
+        {
+            return Guard.Run(error, () =>
+            {
+                string path = parse.GetValue(sceneArg)!;
+                if (!File.Exists(path))
+                    throw new InputException($"{path}: scene file not found");
+                Scene scene = SceneLoader.Load(path);
+                BrickTree tree = TreeBuilder.Build(scene, parse.GetValue(branching), parse.GetValue(threads));
+                output.Write(parse.GetValue(format) == "json" ? TreeSummary.Json(scene, tree) : TreeSummary.Text(scene, tree));
+                return ExitCodes.Ok;
+            });
         });
         return cmd;
     }

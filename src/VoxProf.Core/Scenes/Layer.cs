@@ -42,6 +42,9 @@ public abstract class Layer
     /// <summary>Every voxel inside the shape lies in this box (already clipped to the scene extent).</summary>
     public Box3i Bounds { get; }
 
+    /// <summary>The optional <c>label</c> the scene file gives this layer, for listings.</summary>
+    public string? Label { get; internal set; }
+
     /// <summary>Short kind name as written in the scene file, for messages.</summary>
     public abstract string Kind { get; }
 

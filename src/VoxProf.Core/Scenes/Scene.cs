@@ -32,6 +32,9 @@ public sealed class Scene
 
     public string? SourcePath { get; }
 
+    /// <summary>The scene file's optional free-text <c>description</c>.</summary>
+    public string? Description { get; init; }
+
     /// <summary>Lower-case hex SHA-256 of the scene file's bytes (and of raw volume files it names), if loaded from disk.</summary>
     public string? ContentHash { get; }
 

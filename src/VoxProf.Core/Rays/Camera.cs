@@ -1,0 +1,50 @@
+using System.Numerics;
+using VoxProf.Core.Scenes;
+
+namespace VoxProf.Core.Rays;
+
+/// <summary>
+/// Pinhole camera producing one ray per pixel, in single precision as a shader would (docs/strategies.md):
+/// forward = normalize(target − eye), right = normalize(forward × up), trueUp = right × forward, and the ray of pixel
+/// (x, y), row 0 at the top, points along forward + (2(x + 0.5)/W − 1)·tan(fov/2)·(W/H)·right + (1 − 2(y + 0.5)/H)·tan(fov/2)·trueUp,
+/// normalised so that t is a distance in voxels.
+/// </summary>
+public readonly struct Camera
+{
+    private readonly Vector3 _forward;
+    private readonly Vector3 _right;
+    private readonly Vector3 _trueUp;
+    private readonly float _tanHalf;
+    private readonly float _aspect;
+
+    public Camera(CameraSpec spec, int width, int height)
+    {
+        Eye = spec.Eye;
+        Width = width;
+        Height = height;
+        _forward = Vector3.Normalize(spec.Target - spec.Eye);
+        _right = Vector3.Normalize(Vector3.Cross(_forward, spec.Up));
+        _trueUp = Vector3.Cross(_right, _forward);
+        // Math.Tan in double, rounded once: float tangent functions differ between C runtimes in the last bit.
+        _tanHalf = (float)Math.Tan(spec.FovYDegrees * Math.PI / 360.0);
+        _aspect = (float)width / height;
+    }
+
+    public Vector3 Eye { get; }
+    public int Width { get; }
+    public int Height { get; }
+
+    /// <summary>Unit direction of the ray through the centre of pixel (x, y).</summary>
+    public Vector3 Direction(int x, int y) => Direction(x + 0.5f, y + 0.5f);
+
+    /// <summary>Unit direction through any image point; (0, 0) is the top-left corner of the image.</summary>
+    public Vector3 Direction(float px, float py)
+    {
+        float u = (2f * px / Width - 1f) * _tanHalf * _aspect;
+        float v = (1f - 2f * py / Height) * _tanHalf;
+        Vector3 d = _forward + u * _right + v * _trueUp;
+        return Vector3.Normalize(d);
+    }
+
+    public RaySetup Ray(int x, int y) => new(Eye, Direction(x, y));
+}

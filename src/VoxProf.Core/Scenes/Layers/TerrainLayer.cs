@@ -1,0 +1,104 @@
+using VoxProf.Core.Geometry;
+using VoxProf.Core.Noise;
+
+namespace VoxProf.Core.Scenes.Layers;
+
+/// <summary>
+/// A fractal-noise heightfield over a footprint: voxel (x, y, z) is inside when y &lt; height(x, z).
+/// Heights are computed once, on first use, in parallel, into a min/max pyramid, so classifying any region costs
+/// at most four tile look-ups and filling a block reads each column's height once.
+/// </summary>
+public sealed class TerrainLayer : Layer
+{
+    /// <summary>Heights are stored in 16 bits; at an extent of 65,536 the top voxel row is never terrain.</summary>
+    public const int MaxHeight = ushort.MaxValue;
+
+    private readonly FractalNoise _noise;
+    private readonly int _heightCap;
+    private readonly Lazy<HeightPyramid> _pyramid;
+
+    /// <param name="footprint">Columns the terrain covers (y ignored); clipped to <paramref name="extent"/>.</param>
+    public TerrainLayer(LayerOp op, byte material, TerrainSettings settings, Box3i footprint, Box3i extent)
+        : base(op, material, ComputeBounds(settings, footprint, extent))
+    {
+        Settings = settings;
+        _noise = new FractalNoise(settings.Seed, settings.Octaves, settings.Frequency, settings.Gain, settings.Lacunarity);
+        _heightCap = Math.Min(extent.MaxY, MaxHeight);
+        _pyramid = new Lazy<HeightPyramid>(BuildPyramid, LazyThreadSafetyMode.ExecutionAndPublication);
+    }
+
+    public TerrainSettings Settings { get; }
+
+    public override string Kind => "terrain";
+
+    /// <summary>Height of column (x, z) straight from the noise (the definition the stored heights must equal).</summary>
+    public int ComputeHeight(int x, int z)
+    {
+        double h = Math.Floor(Settings.BaseHeight + Settings.Amplitude * _noise.Sample2(x + 0.5, z + 0.5));
+        return h <= 0 ? 0 : h >= _heightCap ? _heightCap : (int)h;
+    }
+
+    /// <summary>Stored height of a column inside the footprint; 0 outside it.</summary>
+    public int HeightAt(int x, int z) =>
+        Bounds.IsEmpty || x < Bounds.MinX || x >= Bounds.MaxX || z < Bounds.MinZ || z >= Bounds.MaxZ
+            ? 0
+            : _pyramid.Value.Height(x, z);
+
+    public override Coverage Classify(in Box3i region)
+    {
+        Box3i r = region.Intersect(Bounds);
+        if (r.IsEmpty)
+            return Coverage.None;
+        var (min, max) = _pyramid.Value.Range(r.MinX, r.MaxX, r.MinZ, r.MaxZ);
+        if (max <= r.MinY)
+            return Coverage.None;
+        return region.MaxY <= min && Bounds.ContainsBox(region) ? Coverage.Full : Coverage.Partial;
+    }
+
+    public override bool Contains(int x, int y, int z) =>
+        Bounds.Contains(x, y, z) && y < _pyramid.Value.Height(x, z);
+
+    public override void Fill(in Box3i region, Span<bool> inside)
+    {
+        inside[..checked((int)region.Volume)].Clear();
+        Box3i r = region.Intersect(Bounds);
+        if (r.IsEmpty)
+            return;
+        HeightPyramid pyramid = _pyramid.Value;
+        int sx = region.SizeX, sxy = sx * region.SizeY;
+        for (int z = r.MinZ; z < r.MaxZ; z++)
+        {
+            for (int x = r.MinX; x < r.MaxX; x++)
+            {
+                // One height per column, then a run of solid voxels from the bottom of the block up.
+                int top = Math.Min(pyramid.Height(x, z), r.MaxY);
+                int i = (z - region.MinZ) * sxy + (r.MinY - region.MinY) * sx + (x - region.MinX);
+                for (int y = r.MinY; y < top; y++, i += sx)
+                    inside[i] = true;
+            }
+        }
+    }
+
+    private HeightPyramid BuildPyramid()
+    {
+        Box3i b = Bounds;
+        int width = b.SizeX, depth = b.SizeZ;
+        var heights = new ushort[(long)width * depth];
+        Parallel.For(0, depth, dz =>
+        {
+            int z = b.MinZ + dz;
+            int row = dz * width;
+            for (int dx = 0; dx < width; dx++)
+                heights[row + dx] = (ushort)ComputeHeight(b.MinX + dx, z);
+        });
+        return new HeightPyramid(b.MinX, b.MinZ, width, depth, heights);
+    }
+
+    private static Box3i ComputeBounds(TerrainSettings s, Box3i footprint, Box3i extent)
+    {
+        // Noise is bounded, so no column rises above base + |amplitude| · bound.
+        double top = Math.Floor(s.BaseHeight + Math.Abs(s.Amplitude) * GradientNoise.Bound) + 1;
+        int maxY = (int)Math.Clamp(top, 0, Math.Min(extent.MaxY, MaxHeight));
+        return new Box3i(footprint.MinX, 0, footprint.MinZ, footprint.MaxX, maxY, footprint.MaxZ).Intersect(extent);
+    }
+}

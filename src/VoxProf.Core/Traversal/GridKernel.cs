@@ -1,0 +1,44 @@
+using VoxProf.Core.Rays;
+
+namespace VoxProf.Core.Traversal;
+
+/// <summary>
+/// The reference strategy: Amanatides &amp; Woo (1987), "A fast voxel traversal algorithm for ray tracing", over the
+/// finest voxels, with a full tree lookup at every voxel. Slow on purpose: it defines the correct answer.
+/// </summary>
+public static class GridKernel
+{
+    public static void Trace<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, ref PixelHit hit)
+        where TCounters : struct, ICostCounters
+    {
+        hit = default;
+        if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
+            return;
+
+        int x = RayStart.Voxel(ray.Ox, ray.Dx, start.T, 0, view.ExtentX);
+        int y = RayStart.Voxel(ray.Oy, ray.Dy, start.T, 0, view.ExtentY);
+        int z = RayStart.Voxel(ray.Oz, ray.Dz, start.T, 0, view.ExtentZ);
+        var walk = DdaWalk.Start(ray, start.T, x, y, z, 1.0);
+        walk.LastAxis = start.FaceAxis;
+
+        while (true)
+        {
+            counters.Iteration();
+
+            // Look the voxel up from the root
+            byte material = view.Lookup(walk.X, walk.Y, walk.Z, ref counters);
+            if (material != 0)
+            {
+                RayStart.SetHit(ref hit, walk.X, walk.Y, walk.Z, walk.T, material, RayStart.Face(walk.LastAxis, ray));
+                return;
+            }
+
+            // Advance to the next voxel; leaving the extent on any axis is a miss
+            if (!walk.TryStep(start.TExit))
+                return;
+            counters.CellStep();
+            if ((uint)walk.X >= (uint)view.ExtentX || (uint)walk.Y >= (uint)view.ExtentY || (uint)walk.Z >= (uint)view.ExtentZ)
+                return;
+        }
+    }
+}

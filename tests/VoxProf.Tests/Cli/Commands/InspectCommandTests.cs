@@ -1,0 +1,37 @@
+using VoxProf.Cli;
+
+namespace VoxProf.Tests.Cli.Commands;
+
+public class InspectCommandTests
+{
+    private static (int Code, string Out, string Err) Run(params string[] args)
+    {
+        using var output = new StringWriter();
+        using var error = new StringWriter();
+        int code = VoxProf.Cli.Cli.Run(args, output, error);
+        return (code, output.ToString(), error.ToString());
+    }
+
+    [Fact]
+    public void Missing_scene_file_is_one_line_naming_it_and_exit_code_2()
+    {
+        string path = Path.Combine(Path.GetTempPath(), $"voxprof-missing-{Guid.NewGuid():N}.json");
+        (int code, string output, string error) = Run("inspect", path);
+        code.Should().Be(ExitCodes.BadInput);
+        output.Should().BeEmpty();
+        error.TrimEnd().Should().NotContain("\n").And.Contain(path).And.Contain("not found");
+    }
+
+    [Theory]
+    [InlineData("--branching", "3", "expected 2 or 4")]
+    [InlineData("--branching", "8", "expected 2 or 4")]
+    [InlineData("--threads", "-1", "expected 0 or more")]
+    [InlineData("--format", "xml", "xml")]
+    public void Bad_option_value_is_refused_before_any_work(string option, string value, string message)
+    {
+        (int code, string output, string error) = Run("inspect", "scene.json", option, value);
+        code.Should().NotBe(ExitCodes.Ok);
+        error.Should().Contain(message);
+        output.Should().NotContain("solid voxels");
+    }
+}

@@ -1,0 +1,57 @@
+using VoxProf.Core.Geometry;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Scenes.Layers;
+
+namespace VoxProf.Tests.Scenes;
+
+public class RawLayerTests
+{
+    private static readonly Box3i Extent = new(0, 0, 0, 64, 48, 64);
+
+    /// <summary>A 30 × 20 × 26 volume: a solid block in one corner, random bytes elsewhere, empty on top.</summary>
+    private static byte[] Volume(int sx, int sy, int sz)
+    {
+        var rng = new Random(23);
+        var data = new byte[sx * sy * sz];
+        for (int z = 0; z < sz; z++)
+            for (int y = 0; y < sy; y++)
+                for (int x = 0; x < sx; x++)
+                {
+                    byte v = x < 17 && y < 9 && z < 16 ? (byte)(1 + rng.Next(255))
+                        : y >= 14 ? (byte)0
+                        : rng.Next(4) == 0 ? (byte)rng.Next(256) : (byte)0;
+                    data[(z * sy + y) * sx + x] = v;
+                }
+        return data;
+    }
+
+    [Theory]
+    [InlineData(0, 0, 0)]
+    [InlineData(5, 3, 7)]
+    [InlineData(-6, 2, 45)]
+    public void Classify_is_conservative_and_fill_agrees_with_contains(int ox, int oy, int oz)
+    {
+        var layer = new RawLayer(LayerOp.Add, 8, Volume(30, 20, 26), 30, 20, 26, ox, oy, oz, Extent);
+        var tally = LayerChecks.ClassifyIsConservative(layer, Extent, seed: 18, regions: 600, maxSize: 16);
+        LayerChecks.FillAgreesWithContains(layer, Extent, seed: 19);
+        tally.None.Should().BeGreaterThan(0);
+        tally.Full.Should().BeGreaterThan(0);
+    }
+
+    [Fact]
+    public void Any_non_zero_byte_is_inside_and_zero_is_outside()
+    {
+        var data = new byte[8];
+        data[1] = 1;
+        data[6] = 255;
+        var layer = new RawLayer(LayerOp.Add, 8, data, 2, 2, 2, 10, 10, 10, Extent);
+        var inside = new List<(int, int, int)>();
+        LayerChecks.ForEach(new Box3i(10, 10, 10, 12, 12, 12), (x, y, z) =>
+        {
+            if (layer.Contains(x, y, z))
+                inside.Add((x, y, z));
+        });
+        // Byte 1 is (x 1, y 0, z 0) and byte 6 is (x 0, y 1, z 1): x fastest, then y, then z.
+        inside.Should().Equal((11, 10, 10), (10, 11, 11));
+    }
+}

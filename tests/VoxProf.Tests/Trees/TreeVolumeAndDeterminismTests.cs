@@ -1,0 +1,59 @@
+using System.Runtime.InteropServices;
+using VoxProf.Core.Geometry;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Trees;
+using VoxProf.Core.Trees.Building;
+
+namespace VoxProf.Tests.Trees;
+
+public class TreeVolumeAndDeterminismTests
+{
+    [Theory]
+    [InlineData(64, 4)]
+    [InlineData(64, 2)]
+    [InlineData(200, 4)]
+    public void Voxelized_ball_holds_about_four_thirds_pi_r_cubed_solid_voxels(int radius, int branching)
+    {
+        int side = 2 * radius + 10;
+        var extent = new Box3i(0, 0, 0, side, side, side);
+        // An off-lattice centre, so no symmetry hides a counting error.
+        double c = radius + 5.3;
+        var scene = TestScenes.Of(side, side, side, new SphereLayer(LayerOp.Add, 1, c, c - 0.4, c + 0.2, radius, extent));
+
+        BrickTree tree = TreeBuilder.Build(scene, branching);
+
+        // The voxels are the points of a shifted unit lattice inside a ball (centre rule). Gauss's ball problem
+        // (lattice points in a sphere) gives count = 4/3·π·r³ + E(r) with E(r) = O(r^(21/16 + ε)) (Heath-Brown, 1999;
+        // exponent from memory): far below 1% of the volume for r = 64 (r^1.32 ≈ 234 against 11,000).
+        double volume = 4.0 / 3.0 * Math.PI * radius * radius * radius;
+        tree.Stats.SolidVoxels.Should().BeCloseTo((long)volume, (ulong)(0.01 * volume));
+    }
+
+    public static TheoryData<int> Branchings => new() { 2, 4 };
+
+    [Theory]
+    [MemberData(nameof(Branchings))]
+    public void Builds_with_one_two_and_three_threads_give_identical_arrays(int branching)
+    {
+        var extent = new Box3i(0, 0, 0, 700, 180, 600);
+        var scene = TestScenes.Of(700, 180, 600,
+            new HillsLayer(1, 60, 20, 150, extent),
+            new SphereLayer(LayerOp.Add, 2, 300.5, 90, 280, 70, extent),
+            new SphereLayer(LayerOp.Carve, 0, 500, 60, 100, 50, extent),
+            new NoiseLayer(LayerOp.Add, 3, new Box3i(100, 40, 400, 170, 120, 480), extent, 11, 0.4));
+        new BuildPlan(scene, branching).TaskLevel.Should().BeGreaterThan(0, "the scene must split into several subtrees");
+
+        BrickTree one = TreeBuilder.Build(scene, branching, threads: 1);
+        BrickTree two = TreeBuilder.Build(scene, branching, threads: 2);
+        BrickTree three = TreeBuilder.Build(scene, branching, threads: 3);
+
+        one.Nodes.Length.Should().BeGreaterThan(1000);
+        foreach (BrickTree other in new[] { two, three })
+        {
+            MemoryMarshal.AsBytes(other.Nodes.AsSpan()).SequenceEqual(MemoryMarshal.AsBytes(one.Nodes.AsSpan()))
+                .Should().BeTrue("node arrays must be byte-identical");
+            other.Materials.AsSpan().SequenceEqual(one.Materials).Should().BeTrue("material arrays must be byte-identical");
+        }
+        TreeStructureTests.AssertWellFormed(one, "parallel build");
+    }
+}
