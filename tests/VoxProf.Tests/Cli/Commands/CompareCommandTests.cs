@@ -2,7 +2,7 @@ using System.Text.Json;
 using VoxProf.Cli;
 using VoxProf.Tests.Compare;
 
-namespace VoxProf.Tests.Cli;
+namespace VoxProf.Tests.Cli.Commands;
 
 public class CompareCommandTests : IDisposable
 {
