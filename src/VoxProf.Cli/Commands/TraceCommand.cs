@@ -137,7 +137,7 @@ public static class TraceCommand
     /// <summary>Per-strategy totals, mean iterations per pixel and the wave figures, as fixed-width text.</summary>
     internal static void PrintTable(TextWriter output, ReportResult result)
     {
-        output.WriteLine($"{"strategy",-10} {"iterations",14} {"mean/px",9} {"w32 max",9} {"w32 eff",8} {"w64 max",9} {"w64 eff",8} {"mismatch",9} {"time s",8}");
+        output.WriteLine($"{"strategy",-10} {"iter total",14} {"mean/px",9} {"w32 max",9} {"w32 eff",8} {"w64 max",9} {"w64 eff",8} {"mismatch",9} {"time s",8}");
         foreach (StrategyStatistics s in result.Statistics)
         {
             CounterSummary it = s[Counter.Iterations];

@@ -34,16 +34,36 @@ public sealed class HeatmapExporter : IReportExporter
         });
     }
 
-    /// <summary>The fixed range if given, else 0..the largest value of the map over all strategies.</summary>
+    /// <summary>
+    /// The fixed range if given, else 0 to the largest 99th percentile of the map over all strategies: a handful of
+    /// extreme pixels would otherwise darken every image; the few above it take the top colour.
+    /// </summary>
     public static HeatmapScale ScaleFor(string map, ReportContext context)
     {
         var o = context.Options;
         if (o.RangeMin is { } min && o.RangeMax is { } max)
             return new HeatmapScale(o.Scale, min, max);
-        // A tile maximum never exceeds the largest pixel, so wave maps share the iterations scale and read against it.
-        Counter counter = HeatmapNames.IsWave(map, out _) ? Counter.Iterations : Parse(map);
-        double top = context.Statistics.Count == 0 ? 1 : context.Statistics.Max(s => (double)s[counter].Max);
+        double top = 0;
+        foreach (StrategyResult r in context.Run.Results)
+            top = Math.Max(top, Top(r, map));
         return HeatmapScale.Auto(o.Scale, top);
+    }
+
+    /// <summary>The 99th percentile (definition 7) of the map's values, or their maximum when that is 0.</summary>
+    public static double Top(StrategyResult r, string map)
+    {
+        CounterSummary s;
+        if (HeatmapNames.IsWave(map, out WaveShape shape))
+        {
+            var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
+            WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+            s = CounterSummary.Compute(tiles);
+        }
+        else
+        {
+            s = CounterSummary.Compute(r.Counters[(int)Parse(map)]);
+        }
+        return s.P99 > 0 ? s.P99 : s.Max;
     }
 
     public static uint[] Values(StrategyResult r, string map)

@@ -25,7 +25,8 @@ public static class ReportBuilder
                 return new CounterStats(c.Name(), cs.Total, cs.Mean, cs.P50, cs.P90, cs.P99, cs.Max) { Unit = c.Unit() };
             }).ToList();
             var waves = s.Waves.Select(w => new WaveStats(
-                w.Shape.Lanes, w.Shape.TileWidth, w.Shape.TileHeight, w.Tiles, w.MeanTileMax, w.SimdEfficiency) { MaxTileMax = w.MaxTileMax }).ToList();
+                w.Shape.Lanes, w.Shape.TileWidth, w.Shape.TileHeight, w.Tiles, w.MeanTileMax, w.SimdEfficiency)
+            { MaxTileMax = w.MaxTileMax }).ToList();
             strategies.Add(new StrategyReport(s.Strategy.Name(), s.HitRate, s.MismatchPixels, counterStats, waves, FilesOf(s, options)));
         }
 

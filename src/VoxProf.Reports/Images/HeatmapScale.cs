@@ -40,7 +40,11 @@ public sealed record HeatmapScale(ScaleKind Kind, double Min, double Max)
         }
         else
         {
-            double step = NiceStep((Max - Min) / Math.Max(1, maxTicks - 1));
+            // The finest round step that still gives at most maxTicks ticks.
+            double span = Max - Min;
+            double step = NiceStep(span / Math.Max(1, maxTicks));
+            while (Math.Floor(span / step + 1e-9) + 1 > Math.Max(2, maxTicks))
+                step = NiceStep(step * 1.0001);
             for (double v = Math.Ceiling(Min / step) * step; v <= Max + step * 1e-9; v += step)
                 values.Add(Math.Abs(v) < step * 1e-9 ? 0 : v);
         }
@@ -49,13 +53,13 @@ public sealed record HeatmapScale(ScaleKind Kind, double Min, double Max)
         return values.Select(v => (v, Fraction(v))).ToList();
     }
 
-    /// <summary>1, 2 or 5 times a power of ten, at least <paramref name="raw"/>.</summary>
+    /// <summary>1, 2, 2.5 or 5 times a power of ten, at least <paramref name="raw"/>.</summary>
     public static double NiceStep(double raw)
     {
         if (!(raw > 0))
             return 1;
         double p = Math.Pow(10, Math.Floor(Math.Log10(raw)));
-        foreach (double m in new[] { 1.0, 2.0, 5.0, 10.0 })
+        foreach (double m in new[] { 1.0, 2.0, 2.5, 5.0, 10.0 })
         {
             if (m * p >= raw * (1 - 1e-12))
                 return m * p;

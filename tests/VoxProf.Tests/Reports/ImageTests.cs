@@ -181,3 +181,30 @@ public class DifferenceImageTests
             .Should().Equal("-10", "-5", "0", "+5", "+10");
     }
 }
+
+public class HeatmapScaleTests
+{
+    [Theory]
+    [InlineData(2637, new[] { 0.0, 500, 1000, 1500, 2000, 2500 })]
+    [InlineData(1000, new[] { 0.0, 200, 400, 600, 800, 1000 })]
+    [InlineData(12, new[] { 0.0, 2.5, 5, 7.5, 10 })]
+    public void Linear_ticks_are_round_steps_within_the_range(double max, double[] expected)
+    {
+        new HeatmapScale(ScaleKind.Linear, 0, max).Ticks(6).Select(t => t.Value).Should().Equal(expected);
+    }
+}
+
+public class TickFormatTests
+{
+    [Theory]
+    [InlineData(0.25, true, "+25%")]
+    [InlineData(-0.05, true, "-5%")]
+    [InlineData(0.0, true, "0%")]
+    [InlineData(0.125, false, "13%")] // halves round away from zero
+    [InlineData(0.015, false, "1.5%")]
+    public void Percent_labels_carry_a_sign_only_when_asked(double fraction, bool signed, string expected)
+    {
+        using var _ = new CultureScope("de-DE");
+        TickFormat.Percent(fraction, signed).Should().Be(expected);
+    }
+}

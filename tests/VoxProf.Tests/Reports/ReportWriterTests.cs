@@ -91,17 +91,22 @@ public sealed class ReportWriterTests : IDisposable
     }
 
     [Fact]
-    public void Heatmaps_of_one_counter_share_a_scale_across_strategies()
+    public void Heatmaps_of_one_counter_share_a_scale_up_to_the_largest_99th_percentile()
     {
-        WriteSmall();
-        // Grid's largest iteration count is 23, dda's 40: both images are coloured on 0..40.
+        ReportResult result = WriteSmall();
+        double top = result.Document.Strategies.Max(s => s.Counters.Single(c => c.Counter == "iterations").P99);
+        // Grid's p99 (values x + y + 1 up to 23) is above dda's (about half), so it sets the shared top.
+        top.Should().Be(result.Document.Strategies.Single(s => s.Name == "grid").Counters[0].P99);
+
         var grid = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(_dir, "heatmap-grid-iterations.png")), ColorComponents.RedGreenBlue);
         var dda = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(_dir, "heatmap-dda-iterations.png")), ColorComponents.RedGreenBlue);
         grid.Width.Should().Be(16);
         grid.Height.Should().Be(8 + Legend.Height);
-        Pixel(grid, 15, 7).Should().Be(Rgb(SequentialRamp.Map(23 / 40.0)));
+        Pixel(grid, 0, 0).Should().Be(Rgb(SequentialRamp.Map(1 / top)));
+        Pixel(grid, 15, 7).Should().Be(Rgb(SequentialRamp.Map(1)), "23 is above the p99 and takes the top colour");
         Pixel(dda, 3, 2).Should().Be(Rgb(SequentialRamp.Map(1)));
         Pixel(dda, 0, 0).Should().Be(Rgb(SequentialRamp.Map(0)));
+        Pixel(dda, 9, 0).Should().Be(Rgb(SequentialRamp.Map(5 / top)));
     }
 
     [Fact]

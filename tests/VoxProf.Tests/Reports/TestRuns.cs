@@ -50,8 +50,13 @@ internal static class TestRuns
                     continue;
                 hits[y * width + x] = new PixelHit
                 {
-                    Hit = true, X = x, Y = 10 - y, Z = 20 + (hitShift && x == 5 && y == 1 ? 1 : 0),
-                    T = 12.25f + x, Material = (byte)(1 + x % 3), Face = (HitFace)(1 + (x + y) % 6),
+                    Hit = true,
+                    X = x,
+                    Y = 10 - y,
+                    Z = 20 + (hitShift && x == 5 && y == 1 ? 1 : 0),
+                    T = 12.25f + x,
+                    Material = (byte)(1 + x % 3),
+                    Face = (HitFace)(1 + (x + y) % 6),
                 };
             }
         }
