@@ -19,7 +19,8 @@ public static class QuickTiming
         output.WriteLine($"scene {scene.Name}: extent {scene.ExtentX}x{scene.ExtentY}x{scene.ExtentZ}, N={branching}, " +
             $"build {sw.Elapsed.TotalSeconds:F2} s, {tree.Stats.NodeCount} nodes, cores {Environment.ProcessorCount}");
         int cores = Environment.ProcessorCount;
-        output.WriteLine("camera,strategy,prepass,wall_s_counting,wall_s_uncounted,mrays_per_s,iterations_per_pixel,m_iterations_per_s_per_core_counting,m_iterations_per_s_per_core_uncounted");
+        // CPU seconds as well as wall time: on a shared machine the CPU figure is the steadier per-core measure.
+        output.WriteLine("camera,strategy,prepass,wall_s_counting,wall_s_uncounted,mrays_per_s,iterations_per_pixel,m_iterations_per_s_per_core_counting,m_iterations_per_s_per_core_uncounted,m_iterations_per_cpu_s_counting,m_iterations_per_cpu_s_uncounted");
         foreach (CameraSpec cam in scene.Cameras)
         {
             foreach (Strategy s in StrategyNames.All)
@@ -27,14 +28,17 @@ public static class QuickTiming
                 // Warm up the JIT's optimised code for this kernel before timing.
                 Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, [s], prepass));
                 Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, [s], prepass, CountWork: false));
+                TimeSpan cpu0 = Process.GetCurrentProcess().TotalProcessorTime;
                 TraceRun counted = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], prepass));
+                TimeSpan cpu1 = Process.GetCurrentProcess().TotalProcessorTime;
                 TraceRun bare = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], prepass, CountWork: false));
+                TimeSpan cpu2 = Process.GetCurrentProcess().TotalProcessorTime;
                 double tc = counted.Results[0].Elapsed.TotalSeconds, tu = bare.Results[0].Elapsed.TotalSeconds;
                 long iterations = counted.Results[0].Counters[(int)Counter.Iterations].Sum(v => (long)v)
                     + counted.Results[0].Counters[(int)Counter.PrepassIterations].Sum(v => (long)v);
                 double pixels = (double)width * height;
                 output.WriteLine(FormattableString.Invariant(
-                    $"{cam.Name},{s.Name()},{prepass},{tc:F3},{tu:F3},{pixels / tc / 1e6:F2},{iterations / pixels:F1},{iterations / tc / cores / 1e6:F1},{iterations / tu / cores / 1e6:F1}"));
+                    $"{cam.Name},{s.Name()},{prepass},{tc:F3},{tu:F3},{pixels / tc / 1e6:F2},{iterations / pixels:F1},{iterations / tc / cores / 1e6:F1},{iterations / tu / cores / 1e6:F1},{iterations / (cpu1 - cpu0).TotalSeconds / 1e6:F1},{iterations / (cpu2 - cpu1).TotalSeconds / 1e6:F1}"));
             }
         }
     }

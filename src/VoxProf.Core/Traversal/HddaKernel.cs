@@ -40,7 +40,7 @@ public static class HddaKernel
         int gy = RayStart.Voxel(ray.Oy, ray.Dy, t, 0, view.ExtentY) >> shift;
         int gz = RayStart.Voxel(ray.Oz, ray.Dz, t, 0, view.ExtentZ) >> shift;
         PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out double tMaxX, out double tMaxY, out double tMaxZ);
-        double size = 1 << shift;
+        double tdx = (1 << shift) * adx, tdy = (1 << shift) * ady, tdz = (1 << shift) * adz;
 
         while (true)
         {
@@ -70,7 +70,7 @@ public static class HddaKernel
                 childMask = node.ChildMask; solidMask = node.SolidMask;
                 firstChild = node.FirstChild; firstMaterial = node.FirstMaterial;
                 shift -= log2N;
-                size = 1 << shift;
+                tdx = (1 << shift) * adx; tdy = (1 << shift) * ady; tdz = (1 << shift) * adz;
                 gx = RayStart.Voxel(ray.Ox, ray.Dx, t, lx, lx + cell) >> shift;
                 gy = RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell) >> shift;
                 gz = RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell) >> shift;
@@ -83,17 +83,17 @@ public static class HddaKernel
             bool leftNode;
             if (tMaxX <= tMaxY && tMaxX <= tMaxZ)
             {
-                axis = 0; t = tMaxX; tMaxX += size * adx; gx += sx;
+                axis = 0; t = tMaxX; tMaxX += tdx; gx += sx;
                 leftNode = (gx & last) == (sx > 0 ? 0 : last);
             }
             else if (tMaxY <= tMaxZ)
             {
-                axis = 1; t = tMaxY; tMaxY += size * ady; gy += sy;
+                axis = 1; t = tMaxY; tMaxY += tdy; gy += sy;
                 leftNode = (gy & last) == (sy > 0 ? 0 : last);
             }
             else
             {
-                axis = 2; t = tMaxZ; tMaxZ += size * adz; gz += sz;
+                axis = 2; t = tMaxZ; tMaxZ += tdz; gz += sz;
                 leftNode = (gz & last) == (sz > 0 ? 0 : last);
             }
             if (t > tExit)
@@ -119,7 +119,7 @@ public static class HddaKernel
                 if ((g & last) != wrapped)
                     break;
             }
-            size = 1 << shift;
+            tdx = (1 << shift) * adx; tdy = (1 << shift) * ady; tdz = (1 << shift) * adz;
             PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
         }
     }

@@ -45,6 +45,7 @@ public static class StackWalkKernel
         int cz = RayStart.Voxel(ray.Oz, ray.Dz, t, 0, view.ExtentZ) >> shift;
         double tMaxX = 0, tMaxY = 0, tMaxZ = 0;
         double size = 1 << shift;
+        double tdx = size * adx, tdy = size * ady, tdz = size * adz;
         if (TMode.StepsWithDda)
             SetUpDda(ray, ox, oy, oz, cx, cy, cz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
         if (TMode.CullsWithMask && !MaskAdmits(view, childMask | solidMask, maskBase, cx, cy, cz, ref counters, countCulled: true))
@@ -82,6 +83,7 @@ public static class StackWalkKernel
                 int span = 1 << shift;
                 shift -= log2N;
                 size = 1 << shift;
+                tdx = size * adx; tdy = size * ady; tdz = size * adz;
                 childMask = node.ChildMask; solidMask = node.SolidMask;
                 firstChild = node.FirstChild; firstMaterial = node.FirstMaterial;
                 counters.SlabTest();
@@ -98,25 +100,38 @@ public static class StackWalkKernel
             else
             {
                 // Advance to the next cell of this node
-                int axis;
                 if (TMode.StepsWithDda)
                 {
-                    if (!StepDda(ref tMaxX, ref tMaxY, ref tMaxZ, size * adx, size * ady, size * adz, tExit, out axis, out t))
-                        return;
+                    // One comparison chain and one addition; the cell moves in the same branch to avoid a second one.
+                    if (tMaxX <= tMaxY && tMaxX <= tMaxZ)
+                    {
+                        if (tMaxX > tExit) return;
+                        t = tMaxX; tMaxX += tdx; cx += sx; lastAxis = 0;
+                    }
+                    else if (tMaxY <= tMaxZ)
+                    {
+                        if (tMaxY > tExit) return;
+                        t = tMaxY; tMaxY += tdy; cy += sy; lastAxis = 1;
+                    }
+                    else
+                    {
+                        if (tMaxZ > tExit) return;
+                        t = tMaxZ; tMaxZ += tdz; cz += sz; lastAxis = 2;
+                    }
                 }
                 else
                 {
                     counters.SlabTest();
                     int lx = ox + (cx << shift), ly = oy + (cy << shift), lz = oz + (cz << shift);
                     SlabTest.Intersect(ray, lx, ly, lz, lx + size, ly + size, lz + size, t, tExit, out SlabHit cellBox);
-                    axis = cellBox.FarAxis;
+                    int axis = cellBox.FarAxis;
                     if (axis < 0)
                         return;
                     t = Math.Max(t, cellBox.Far);
+                    lastAxis = axis;
+                    if (axis == 0) cx += sx; else if (axis == 1) cy += sy; else cz += sz;
                 }
                 counters.CellStep();
-                lastAxis = axis;
-                if (axis == 0) cx += sx; else if (axis == 1) cy += sy; else cz += sz;
                 if (((cx | cy | cz) & ~last) == 0)
                 {
                     if (!TMode.CullsWithMask || MaskAdmits(view, childMask | solidMask, maskBase, cx, cy, cz, ref counters, countCulled: false))
@@ -136,12 +151,13 @@ public static class StackWalkKernel
                 tMaxX = f.TMaxX; tMaxY = f.TMaxY; tMaxZ = f.TMaxZ;
                 shift += log2N;
                 size = 1 << shift;
+                tdx = size * adx; tdy = size * ady; tdz = size * adz;
 
                 // Step the parent past the cell just left
                 int axis;
                 if (TMode.StepsWithDda)
                 {
-                    if (!StepDda(ref tMaxX, ref tMaxY, ref tMaxZ, size * adx, size * ady, size * adz, tExit, out axis, out double tp))
+                    if (!StepDda(ref tMaxX, ref tMaxY, ref tMaxZ, tdx, tdy, tdz, tExit, out axis, out double tp))
                         return;
                     t = Math.Max(t, tp);
                 }

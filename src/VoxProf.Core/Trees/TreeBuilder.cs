@@ -26,8 +26,8 @@ public static class TreeBuilder
         CellKind kind = top.ClassifyRoot(out byte baseMaterial, out int[] rootLayers);
         (Node[] nodes, byte[] materials) = kind switch
         {
-            CellKind.Empty => Layout(plan, CellResult.Empty, [], [], []),
-            CellKind.Solid => Layout(plan, CellResult.Uniform(baseMaterial), [], [], []),
+            CellKind.Empty => Layout(plan, CellResult.Empty, [], [], [], degree),
+            CellKind.Solid => Layout(plan, CellResult.Uniform(baseMaterial), [], [], [], degree),
             _ => BuildMixed(plan, top, baseMaterial, rootLayers, degree),
         };
 
@@ -71,13 +71,13 @@ public static class TreeBuilder
         }
 
         if (plan.TaskLevel == 0)
-            return Layout(plan, roots[0], outputs, nodeOffsets, materialOffsets);
+            return Layout(plan, roots[0], outputs, nodeOffsets, materialOffsets, degree);
         CellResult root = top.AssembleTop(baseMaterial, rootLayers, roots, (int)nodeTotal, (int)materialTotal);
-        return Layout(plan, root, outputs, nodeOffsets, materialOffsets, top);
+        return Layout(plan, root, outputs, nodeOffsets, materialOffsets, degree, top);
     }
 
     private static (Node[], byte[]) Layout(BuildPlan plan, CellResult root, SubtreeOutput[] outputs,
-        int[] nodeOffsets, int[] materialOffsets, BuildWorker? top = null)
+        int[] nodeOffsets, int[] materialOffsets, int degree, BuildWorker? top = null)
     {
         ReadOnlySpan<Node> topNodes = top is null ? [] : top.Nodes.Span;
         ReadOnlySpan<byte> topMaterials = top is null ? [] : top.Materials.Span;
@@ -96,7 +96,7 @@ public static class TreeBuilder
         };
         materials.AsSpan(materials.Length - rootMaterials).Fill(root.Material);
 
-        Parallel.For(0, outputs.Length, i =>
+        Parallel.For(0, outputs.Length, new ParallelOptions { MaxDegreeOfParallelism = degree }, i =>
         {
             Node[] src = outputs[i].Nodes;
             Span<Node> dst = nodes.AsSpan(nodeOffsets[i], src.Length);

@@ -120,4 +120,27 @@ public class TreeBuilderTests
         stats.RootSize.Should().Be(tree.RootSize);
         stats.NodesPerLevel[0].Should().Be(1);
     }
+
+    [Theory]
+    [InlineData(2)]
+    [InlineData(4)]
+    public void Largest_extent_builds_from_its_surfaces_alone(int branching)
+    {
+        // 2^48 voxels: a dense pass over the volume would never finish, so only the surfaces can have been visited.
+        int side = Scene.MaxExtent;
+        var extent = new Box3i(0, 0, 0, side, side, side);
+        var box = new Box3i(1000, 2000, 3000, 1100, 2077, 3123);
+        Scene scene = TestScenes.Of(side, side, side,
+            new BoxLayer(LayerOp.Add, 1, box, extent),
+            new SphereLayer(LayerOp.Add, 2, side - 60.5, side - 70.25, 80, 40, extent));
+
+        BrickTree tree = TreeBuilder.Build(scene, branching);
+
+        tree.RootSize.Should().Be(side);
+        tree.Material(1099, 2076, 3122).Should().Be(1);
+        tree.Material(1100, 2076, 3122).Should().Be(0);
+        tree.Material(side - 61, side - 71, 80).Should().Be(2);
+        tree.Stats.SolidVoxels.Should().BeGreaterThan(box.Volume);
+        tree.Stats.TotalBytes.Should().BeLessThan(16L << 20, "memory follows the surface, not the volume");
+    }
 }

@@ -152,6 +152,21 @@ public class TreeStructureTests
     }
 
     [Theory]
+    [InlineData(2, 3)]
+    [InlineData(4, 1)]
+    public void Extent_filled_whole_on_cell_boundaries_needs_no_subtree_below_the_top(int branching, int nodes)
+    {
+        // 512 x 256 x 768 splits into whole 256-voxel cells: nothing is left for the parallel subtrees to build.
+        var extent = new Box3i(0, 0, 0, 512, 256, 768);
+        BrickTree tree = TreeBuilder.Build(TestScenes.Of(512, 256, 768, new BoxLayer(LayerOp.Add, 4, extent, extent)), branching);
+        tree.Nodes.Should().HaveCount(nodes);
+        tree.Stats.SolidVoxels.Should().Be(extent.Volume);
+        tree.Material(511, 255, 767).Should().Be(4);
+        tree.Material(0, 0, 0).Should().Be(4);
+        AssertWellFormed(tree, "aligned fill");
+    }
+
+    [Theory]
     [InlineData(2)]
     [InlineData(4)]
     public void Unaligned_box_is_stored_as_the_fewest_aligned_solid_cells(int branching)

@@ -1,4 +1,6 @@
+using System.Text.Json;
 using VoxProf.Cli;
+using VoxProf.Core.Scenes;
 
 namespace VoxProf.Tests.Cli.Commands;
 
@@ -33,5 +35,28 @@ public class InspectCommandTests
         code.Should().NotBe(ExitCodes.Ok);
         error.Should().Contain(message);
         output.Should().NotContain("solid voxels");
+    }
+
+    [Theory]
+    [InlineData("2")]
+    [InlineData("4")]
+    public void Sample_scene_reports_as_many_solid_voxels_as_its_layers_define(string branching)
+    {
+        string path = Path.Combine(AppContext.BaseDirectory, "samples", "ring-post.vpscene.json");
+        (int code, string output, string error) = Run("inspect", path, "--format", "json", "--branching", branching);
+        code.Should().Be(ExitCodes.Ok, error);
+
+        // The slow definition, voxel by voxel over the whole extent.
+        Scene scene = SceneLoader.Load(path);
+        long solid = 0;
+        for (int z = 0; z < scene.ExtentZ; z++)
+            for (int y = 0; y < scene.ExtentY; y++)
+                for (int x = 0; x < scene.ExtentX; x++)
+                    if (scene.EvaluateMaterial(x, y, z) != 0)
+                        solid++;
+
+        using JsonDocument doc = JsonDocument.Parse(output);
+        doc.RootElement.GetProperty("solidVoxels").GetInt64().Should().Be(solid).And.BeGreaterThan(0);
+        doc.RootElement.GetProperty("branching").GetInt32().Should().Be(int.Parse(branching));
     }
 }
