@@ -20,10 +20,6 @@ public static class CompareText
         ? (r * 100).ToString("+0.##;-0.##;0", CultureInfo.InvariantCulture) + "%"
         : "from 0";
 
-    /// <summary>"+1.5 (+12.5%)"</summary>
-    public static string Change(MetricChange change) =>
-        $"{change.Metric.FormatChange(change.Change)} ({Relative(change)})";
-
     public static string Verdict(GateVerdict verdict) => verdict.Passed ? "pass" : "fail";
 
     /// <summary>One line per broken check: "dda iterations.mean: 12 -> 13.5 (+1.5, +12.5%), limit 5%".</summary>

@@ -1,18 +1,15 @@
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
-using VoxProf.Reports.Colour;
 using VoxProf.Reports.Images;
 
 namespace VoxProf.Reports.Compare;
 
 /// <summary>
-/// A per-pixel difference image (candidate minus base) in the <see cref="DivergingRamp"/>, on a symmetric scale
-/// -maxAbs..+maxAbs, with the legend band underneath.
+/// compare's per-pixel map: the report writers' <see cref="DifferenceImage"/> (diverging ramp, symmetric scale,
+/// legend) with the pixels whose hit changed marked on top.
 /// </summary>
 public static class DiffHeatmap
 {
-    public const int MaxLegendTicks = 5;
-
     public static readonly Rgba32 MarkDark = new(0, 0, 0, 255);
     public static readonly Rgba32 MarkLight = new(255, 255, 255, 255);
 
@@ -23,26 +20,19 @@ public static class DiffHeatmap
     {
         if (diff.Length != width * height || hitChanged.Length != diff.Length)
             throw new ArgumentException($"expected {width}x{height} = {width * height} pixels, got diff {diff.Length}, mask {hitChanged.Length}");
-        var image = new Image<Rgba32>(width, height + Legend.Height);
+        // Differences of counts stay exact in a double up to 2^53, far beyond the 33 bits a uint difference needs.
+        var values = new double[diff.Length];
+        for (var i = 0; i < diff.Length; i++)
+            values[i] = diff[i];
+        var image = DifferenceImage.Render(values, width, height, maxAbs);
         for (var y = 0; y < height; y++)
         {
             for (var x = 0; x < width; x++)
             {
-                var i = y * width + x;
-                image[x, y] = hitChanged[i]
-                    ? ((x + y) & 1) == 0 ? MarkDark : MarkLight
-                    : DivergingRamp.Map(PixelDiff.Normalize(diff[i], maxAbs));
+                if (hitChanged[y * width + x])
+                    image[x, y] = ((x + y) & 1) == 0 ? MarkDark : MarkLight;
             }
         }
-        Legend.Draw(image, height, DivergingRamp.MapBar, LegendTicks(maxAbs));
         return image;
-    }
-
-    /// <summary>Round ticks across -maxAbs..+maxAbs, zero among them; bar position 0.5 is zero.</summary>
-    public static IReadOnlyList<LegendTick> LegendTicks(long maxAbs)
-    {
-        var half = Math.Max(maxAbs, 1);
-        var scale = new HeatmapScale(ScaleKind.Linear, -half, half);
-        return scale.Ticks(MaxLegendTicks).Select(t => new LegendTick(t.Position, TickFormat.Compact(t.Value, signed: true))).ToList();
     }
 }

@@ -41,7 +41,7 @@ public sealed partial record GateRule(string Text, string Strategy, string Group
             m.Groups["pct"].Success ? LimitKind.Relative : LimitKind.Absolute);
     }
 
-    public bool IsWildcard(string part) => part == Wildcard;
+    public static bool IsWildcard(string part) => part == Wildcard;
 
     public bool Matches(MetricChange change) =>
         Is(Strategy, change.Strategy) && Is(Group, change.Metric.Group) && Is(Statistic, change.Metric.Statistic);

@@ -54,17 +54,17 @@ public static class GateRules
     private static string Unmatched(GateRule rule, ReportComparison comparison)
     {
         var changes = comparison.Changes;
-        if (!rule.IsWildcard(rule.Strategy) && !comparison.Strategies.Contains(rule.Strategy, StringComparer.OrdinalIgnoreCase))
+        if (!GateRule.IsWildcard(rule.Strategy) && !comparison.Strategies.Contains(rule.Strategy, StringComparer.OrdinalIgnoreCase))
             return $"rule '{rule.Text}': unknown strategy '{rule.Strategy}'; strategies in both reports: {List(comparison.Strategies)}";
 
-        var inStrategy = changes.Where(c => rule.IsWildcard(rule.Strategy) || Same(c.Strategy, rule.Strategy)).ToArray();
+        var inStrategy = changes.Where(c => GateRule.IsWildcard(rule.Strategy) || Same(c.Strategy, rule.Strategy)).ToArray();
         var groups = inStrategy.Select(c => c.Metric.Group).Distinct(StringComparer.OrdinalIgnoreCase).ToArray();
-        if (!rule.IsWildcard(rule.Group) && !groups.Contains(rule.Group, StringComparer.OrdinalIgnoreCase))
+        if (!GateRule.IsWildcard(rule.Group) && !groups.Contains(rule.Group, StringComparer.OrdinalIgnoreCase))
             return $"rule '{rule.Text}': unknown counter or wave group '{rule.Group}'; valid: {List(groups)}";
 
-        var stats = inStrategy.Where(c => rule.IsWildcard(rule.Group) || Same(c.Metric.Group, rule.Group))
+        var stats = inStrategy.Where(c => GateRule.IsWildcard(rule.Group) || Same(c.Metric.Group, rule.Group))
             .Select(c => c.Metric.Statistic).Distinct(StringComparer.OrdinalIgnoreCase).ToArray();
-        var of = rule.IsWildcard(rule.Group) ? "" : $" of '{rule.Group}'";
+        var of = GateRule.IsWildcard(rule.Group) ? "" : $" of '{rule.Group}'";
         return $"rule '{rule.Text}': unknown statistic '{rule.Statistic}'{of}; valid: {List(stats)}";
     }
 

@@ -20,9 +20,6 @@ public sealed record MetricChange(string Strategy, MetricDescriptor Metric, doub
         : AbsoluteWorsening == 0 ? 0 : AbsoluteWorsening > 0 ? double.PositiveInfinity : double.NegativeInfinity;
 
     public bool IsRegression => AbsoluteWorsening > 0;
-
-    /// <summary>"dda-mask iterations.mean"</summary>
-    public string Name => $"{Strategy} {Metric.Key}";
 }
 
 /// <summary>Largest regressions first: by relative worsening, ties in the reports' own order.</summary>

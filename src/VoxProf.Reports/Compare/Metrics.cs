@@ -1,4 +1,3 @@
-using VoxProf.Core.Traversal;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
@@ -9,17 +8,10 @@ public readonly record struct MetricValue(MetricDescriptor Metric, double Value)
 /// <summary>The metrics a report holds, as <see cref="MetricDescriptor"/>s: six per counter, two per wave group.</summary>
 public static class Metrics
 {
-    public static readonly IReadOnlyList<string> CounterStatistics = ["total", "mean", "p50", "p90", "p99", "max"];
-
     public const string TileMax = "tile-max";
     public const string Efficiency = "efficiency";
 
-    public static readonly IReadOnlyList<string> WaveStatistics = [TileMax, Efficiency];
-
     public static string WaveGroup(int lanes) => $"wave{lanes}";
-
-    public static bool IsWaveGroup(string group) =>
-        group.StartsWith("wave", StringComparison.Ordinal) && int.TryParse(group.AsSpan(4), out _);
 
     /// <summary>Every metric of one strategy, in a stable order: counters as the report lists them, then wave groups.</summary>
     public static IEnumerable<MetricValue> Of(StrategyReport strategy)
@@ -27,7 +19,7 @@ public static class Metrics
         foreach (var c in strategy.Counters)
         {
             // Totals and maxima are whole counts; the rest are averages or interpolated percentiles.
-            var unit = CounterNames.TryParse(c.Counter, out var known) ? known.Unit() : "count";
+            var unit = c.Unit;
             yield return new(Counter(c.Counter, "total", unit, "0"), c.Total);
             yield return new(Counter(c.Counter, "mean", unit, "0.###"), c.Mean);
             yield return new(Counter(c.Counter, "p50", unit, "0.###"), c.P50);

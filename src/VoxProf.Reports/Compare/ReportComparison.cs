@@ -74,6 +74,8 @@ public sealed class ReportComparison
         }
         if (missingMetrics.Count > 0)
             notes.Add($"not compared, present in one report only: {string.Join(", ", missingMetrics)}");
+        notes.AddRange(b.Warnings.Select(w => $"base report warns: {w}"));
+        notes.AddRange(c.Warnings.Select(w => $"candidate report warns: {w}"));
         if (b.Environment.Configuration != "Release" || c.Environment.Configuration != "Release")
             notes.Add($"build configuration: base {b.Environment.Configuration}, candidate {c.Environment.Configuration} (counts do not depend on it; timings do)");
 

@@ -78,7 +78,9 @@ public static partial class ReportLoader
         catch (JsonException ex)
         {
             var truncated = AtEnd(bytes, ex);
-            throw new InputException($"{file}: {Where(ex)}: {(truncated ? "truncated or empty JSON" : "malformed JSON")}: {Problem(ex)}", ex);
+            throw new InputException(truncated
+                ? $"{file}: {Where(ex)}: truncated or empty JSON: the text ends before the report does"
+                : $"{file}: {Where(ex)}: malformed JSON: {Problem(ex)}", ex);
         }
     }
 
@@ -148,6 +150,10 @@ public static partial class ReportLoader
         var missing = MissingProperties().Match(message);
         if (missing.Success)
             return $"missing field {missing.Groups[1].Value}";
+        if (message.Contains("doesn't allow null values", StringComparison.Ordinal))
+            return "expected a value, found null";
+        if (message.StartsWith("The JSON value could not be converted", StringComparison.Ordinal))
+            return "the value has the wrong type for this field (a number, text, list or object as report.json defines it)";
         message = TypeName().Replace(message, m => $"'{m.Groups[1].Value}'");
         return message.ReplaceLineEndings(" ").TrimEnd('.', ' ');
     }

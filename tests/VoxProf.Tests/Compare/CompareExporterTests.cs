@@ -72,6 +72,31 @@ public class CompareExporterTests
     }
 
     [Fact]
+    public void Every_text_output_is_the_same_under_a_comma_decimal_culture()
+    {
+        var result = Result(1.1, "dda.iterations.mean:5%");
+        ICompareExporter[] exporters = [new CompareMarkdownExporter(), new CompareCsvExporter(), new CompareJsonExporter()];
+        var invariant = exporters.Select(e => Render(e, result)).ToArray();
+        var console = new StringWriter();
+        CompareConsole.WriteTable(console, result.Comparison);
+
+        var saved = CultureInfo.CurrentCulture;
+        try
+        {
+            CultureInfo.CurrentCulture = CultureInfo.GetCultureInfo("de-DE");
+            exporters.Select(e => Render(e, result)).Should().Equal(invariant);
+            var german = new StringWriter();
+            CompareConsole.WriteTable(german, result.Comparison);
+            german.ToString().Should().Be(console.ToString());
+        }
+        finally
+        {
+            CultureInfo.CurrentCulture = saved;
+        }
+        invariant[0].Should().Contain("| 12 | 13.2 | +1.2 | +10% ▲ |");
+    }
+
+    [Fact]
     public void Compare_json_holds_the_verdict_the_broken_rule_and_every_change()
     {
         var result = Result(1.1, "dda.iterations.mean:5%", "all.wave32.tile-max:20%");

@@ -95,7 +95,33 @@ public class ReportLoaderTests
 
         var ex = Assert.Throws<InputException>(() => ReportLoader.Load(file));
 
-        ex.Message.Should().Contain("$.strategies[0].counters");
+        ex.Message.Should().Contain("$.strategies[0].counters").And.Contain("expected a value, found null");
+    }
+
+    [Fact]
+    public void A_value_of_the_wrong_type_is_named_with_its_json_path()
+    {
+        using var tmp = new TempDir();
+        var file = Path.Combine(tmp.Path, "report.json");
+        var node = System.Text.Json.Nodes.JsonNode.Parse(ReportJson.Serialize(ReportFixtures.Standard()))!;
+        node["run"]!["width"] = "wide";
+        File.WriteAllText(file, node.ToJsonString());
+
+        var ex = Assert.Throws<InputException>(() => ReportLoader.Load(file));
+
+        ex.Message.Should().StartWith(file + ": $.run.width").And.Contain("wrong type");
+    }
+
+    [Fact]
+    public void An_empty_file_is_called_truncated_or_empty()
+    {
+        using var tmp = new TempDir();
+        var file = Path.Combine(tmp.Path, "report.json");
+        File.WriteAllText(file, "");
+
+        var ex = Assert.Throws<InputException>(() => ReportLoader.Load(tmp.Path));
+
+        ex.Message.Should().Be($"{file}: line 1, position 1: truncated or empty JSON: the text ends before the report does");
     }
 
     [Fact]

@@ -9,7 +9,7 @@ using VoxProf.Reports.Images;
 using VoxProf.Tests.Compare;
 using VoxProf.Tests.Reports;
 
-namespace VoxProf.Tests.Cli;
+namespace VoxProf.Tests.Cli.Commands;
 
 /// <summary>
 /// compare over report directories written by the trace report writer (report.json plus per-pixel data), from
