@@ -8,12 +8,14 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 public static class GridKernel
 {
-    public static void Trace<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, ref PixelHit hit)
+    public static void Trace<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counterSink, ref PixelHit hit)
         where TCounters : struct, ICostCounters
     {
+        // Count in a local the JIT can keep in registers, and hand the counts over once at the end.
+        TCounters counters = default;
         hit = default;
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
-            return;
+            goto Done;
 
         int x = RayStart.Voxel(ray.Ox, ray.Dx, start.T, 0, view.ExtentX);
         int y = RayStart.Voxel(ray.Oy, ray.Dy, start.T, 0, view.ExtentY);
@@ -30,15 +32,18 @@ public static class GridKernel
             if (material != 0)
             {
                 RayStart.SetHit(ref hit, walk.X, walk.Y, walk.Z, walk.T, material, RayStart.Face(walk.LastAxis, ray));
-                return;
+                goto Done;
             }
 
             // Advance to the next voxel; leaving the extent on any axis is a miss
             if (!walk.TryStep(start.TExit))
-                return;
+                goto Done;
             counters.CellStep();
             if ((uint)walk.X >= (uint)view.ExtentX || (uint)walk.Y >= (uint)view.ExtentY || (uint)walk.Z >= (uint)view.ExtentZ)
-                return;
+                goto Done;
         }
+
+    Done:
+        counterSink = counters;
     }
 }

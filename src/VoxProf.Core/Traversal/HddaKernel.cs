@@ -14,12 +14,14 @@ namespace VoxProf.Core.Traversal;
 public static class HddaKernel
 {
     public static void Trace<TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<WalkFrame> path,
-        ref TCounters counters, ref PixelHit hit)
+        ref TCounters counterSink, ref PixelHit hit)
         where TCounters : struct, ICostCounters
     {
+        // Count in a local the JIT can keep in registers, and hand the counts over once at the end.
+        TCounters counters = default;
         hit = default;
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
-            return;
+            goto Done;
 
         int log2N = view.Log2N;
         int last = view.N - 1;
@@ -58,7 +60,7 @@ public static class HddaKernel
                         RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell),
                         RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell),
                         t, view.SolidMaterial(solidMask, firstMaterial, bit), RayStart.Face(lastAxis, ray));
-                    return;
+                    goto Done;
                 }
 
                 // Descend: refine the cell from the current point, keep t
@@ -97,7 +99,7 @@ public static class HddaKernel
                 leftNode = (gz & last) == (sz > 0 ? 0 : last);
             }
             if (t > tExit)
-                return;
+                goto Done;
             counters.CellStep();
             lastAxis = axis;
             if (!leftNode)
@@ -109,7 +111,7 @@ public static class HddaKernel
             while (true)
             {
                 if (depth == 0)
-                    return;
+                    goto Done;
                 ref WalkFrame f = ref path[--depth];
                 counters.Ascent();
                 childMask = f.ChildMask; solidMask = f.SolidMask; firstChild = f.FirstChild; firstMaterial = f.FirstMaterial;
@@ -122,6 +124,9 @@ public static class HddaKernel
             tdx = (1 << shift) * adx; tdy = (1 << shift) * ady; tdz = (1 << shift) * adz;
             PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
         }
+
+    Done:
+        counterSink = counters;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]

@@ -15,13 +15,15 @@ public static class StackWalkKernel
 {
     /// <param name="stack">Scratch for one frame per level (at least the tree depth), reused across rays.</param>
     public static void Trace<TMode, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<WalkFrame> stack,
-        ref TCounters counters, ref PixelHit hit)
+        ref TCounters counterSink, ref PixelHit hit)
         where TMode : struct, IWalkMode
         where TCounters : struct, ICostCounters
     {
+        // Count in a local the JIT can keep in registers, and hand the counts over once at the end.
+        TCounters counters = default;
         hit = default;
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
-            return;
+            goto Done;
 
         int log2N = view.Log2N;
         int last = view.N - 1;
@@ -49,7 +51,7 @@ public static class StackWalkKernel
         if (TMode.StepsWithDda)
             SetUpDda(ray, ox, oy, oz, cx, cy, cz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
         if (TMode.CullsWithMask && !MaskAdmits(view, childMask | solidMask, maskBase, cx, cy, cz, ref counters, countCulled: true))
-            return;
+            goto Done;
 
         while (true)
         {
@@ -68,7 +70,7 @@ public static class StackWalkKernel
                         RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell),
                         RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell),
                         t, view.SolidMaterial(solidMask, firstMaterial, bit), RayStart.Face(lastAxis, ray));
-                    return;
+                    goto Done;
                 }
 
                 // Descend: save this level, fetch the child and restart with a slab test of its box
@@ -105,17 +107,17 @@ public static class StackWalkKernel
                     // One comparison chain and one addition; the cell moves in the same branch to avoid a second one.
                     if (tMaxX <= tMaxY && tMaxX <= tMaxZ)
                     {
-                        if (tMaxX > tExit) return;
+                        if (tMaxX > tExit) goto Done;
                         t = tMaxX; tMaxX += tdx; cx += sx; lastAxis = 0;
                     }
                     else if (tMaxY <= tMaxZ)
                     {
-                        if (tMaxY > tExit) return;
+                        if (tMaxY > tExit) goto Done;
                         t = tMaxY; tMaxY += tdy; cy += sy; lastAxis = 1;
                     }
                     else
                     {
-                        if (tMaxZ > tExit) return;
+                        if (tMaxZ > tExit) goto Done;
                         t = tMaxZ; tMaxZ += tdz; cz += sz; lastAxis = 2;
                     }
                 }
@@ -126,7 +128,7 @@ public static class StackWalkKernel
                     SlabTest.Intersect(ray, lx, ly, lz, lx + size, ly + size, lz + size, t, tExit, out SlabHit cellBox);
                     int axis = cellBox.FarAxis;
                     if (axis < 0)
-                        return;
+                        goto Done;
                     t = Math.Max(t, cellBox.Far);
                     lastAxis = axis;
                     if (axis == 0) cx += sx; else if (axis == 1) cy += sy; else cz += sz;
@@ -143,7 +145,7 @@ public static class StackWalkKernel
             while (true)
             {
                 if (sp == 0)
-                    return;
+                    goto Done;
                 ref WalkFrame f = ref stack[--sp];
                 counters.Ascent();
                 childMask = f.ChildMask; solidMask = f.SolidMask; firstChild = f.FirstChild; firstMaterial = f.FirstMaterial;
@@ -158,7 +160,7 @@ public static class StackWalkKernel
                 if (TMode.StepsWithDda)
                 {
                     if (!StepDda(ref tMaxX, ref tMaxY, ref tMaxZ, tdx, tdy, tdz, tExit, out axis, out double tp))
-                        return;
+                        goto Done;
                     t = Math.Max(t, tp);
                 }
                 else
@@ -174,6 +176,9 @@ public static class StackWalkKernel
                     break;
             }
         }
+
+    Done:
+        counterSink = counters;
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
