@@ -2,6 +2,14 @@ using BenchmarkDotNet.Running;
 using VoxProf.Benchmarks;
 using VoxProf.Core.Scenes;
 
+if (args.Length > 1 && args[0] == "build")
+{
+    // One build per process, so the peak working set belongs to this scene and branching alone.
+    Scene scene = SceneLoader.Load(args[1]);
+    int branching = args.Length > 2 ? int.Parse(args[2]) : 4;
+    BuildTiming.Run(scene, branching, Console.Out);
+    return 0;
+}
 if (args.Length > 0 && args[0] == "quick")
 {
     Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : DemoLikeScene.Create();

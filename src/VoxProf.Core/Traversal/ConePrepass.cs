@@ -32,13 +32,16 @@ public static class ConePrepass
         double t = box.Near;
         double tEnd = box.Far;
 
+        int startLevel = 0;
         while (t < tEnd && iterations < MaxIterations)
         {
             iterations++;
 
-            // Find the coarsest level whose 3×3×3 neighbourhood around the cone's cell is empty
+            // Find a coarse level whose 3×3×3 neighbourhood around the cone's cell is empty. The search starts one
+            // level above the last one that worked, not at the root: near geometry the root's neighbourhood is never
+            // empty, and any empty level is a correct choice.
             double advanceTo = t;
-            for (int level = 0; level < view.Depth; level++)
+            for (int level = startLevel; level < view.Depth; level++)
             {
                 int shift = view.RootShift - level * view.Log2N;
                 double size = 1 << shift;
@@ -56,6 +59,7 @@ public static class ConePrepass
                 double exit = cell.Far;
                 double radiusLimit = slope > 0 ? size / slope : double.PositiveInfinity;
                 advanceTo = Math.Min(exit, radiusLimit);
+                startLevel = Math.Max(0, level - 1);
                 break;
             }
             if (advanceTo <= t)

@@ -42,8 +42,13 @@ public static class Tracer
 
         // The prepass depends only on geometry and camera, so every strategy that uses it shares one map.
         PrepassMap? prepass = null;
+        TimeSpan prepassTime = TimeSpan.Zero;
         if (request.PrepassBlock > 0 && request.Strategies.Any(s => s != Strategy.Grid))
+        {
+            var watch = Stopwatch.StartNew();
             prepass = PrepassMap.Compute(view, camera, request.PrepassBlock, options);
+            prepassTime = watch.Elapsed;
+        }
 
         var results = new List<StrategyResult>();
         long pixelsDone = 0;
@@ -70,7 +75,9 @@ public static class Tracer
                 rowsDone?.Report((int)(done / request.Width));
             });
             pixelsDone = before + (long)request.Width * request.Height;
-            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, sw.Elapsed));
+            // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
+            TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
+            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, elapsed));
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
