@@ -18,9 +18,8 @@ public sealed class HeatmapExporter : IReportExporter
         var jobs = new List<(StrategyResult Result, string Map, HeatmapScale Scale)>();
         foreach (string map in context.Options.Heatmaps)
         {
-            HeatmapScale scale = ScaleFor(map, context);
             foreach (StrategyResult r in run.Results)
-                jobs.Add((r, map, scale));
+                jobs.Add((r, map, ScaleFor(map, context, r)));
         }
         Parallel.ForEach(jobs, job =>
         {
@@ -35,17 +34,24 @@ public sealed class HeatmapExporter : IReportExporter
     }
 
     /// <summary>
-    /// The fixed range if given, else 0 to the largest 99th percentile of the map over all strategies: a handful of
-    /// extreme pixels would otherwise darken every image; the few above it take the top colour.
+    /// The fixed range if given, else 0 to the largest 99th percentile of the map over the strategies that share a
+    /// scale: a handful of extreme pixels would otherwise darken every image; the few above it take the top colour.
+    /// The tree strategies share one scale so they compare by eye; the grid reference, whose cost is one to two orders
+    /// of magnitude higher, gets a scale of its own whenever another strategy is traced beside it (its legend says so).
     /// </summary>
-    public static HeatmapScale ScaleFor(string map, ReportContext context)
+    public static HeatmapScale ScaleFor(string map, ReportContext context, StrategyResult result)
     {
         var o = context.Options;
         if (o.RangeMin is { } min && o.RangeMax is { } max)
             return new HeatmapScale(o.Scale, min, max);
+        bool ownScale = result.Strategy == Strategy.Grid && context.Run.Results.Count > 1;
         double top = 0;
         foreach (StrategyResult r in context.Run.Results)
-            top = Math.Max(top, Top(r, map));
+        {
+            bool shares = ownScale ? r.Strategy == Strategy.Grid : r.Strategy != Strategy.Grid || context.Run.Results.Count == 1;
+            if (shares)
+                top = Math.Max(top, Top(r, map));
+        }
         return HeatmapScale.Auto(o.Scale, top);
     }
 
