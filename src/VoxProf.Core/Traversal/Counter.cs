@@ -36,6 +36,15 @@ public static class CounterNames
         _ => throw new ArgumentOutOfRangeException(nameof(c)),
     };
 
+    /// <summary>
+    /// Whether a rise is a regression. Every counter measures work except <see cref="Counter.PrepassSkip"/>, which
+    /// measures distance the prepass saved: there a fall is the regression.
+    /// </summary>
+    public static bool LowerIsBetter(this Counter c) => c != Counter.PrepassSkip;
+
+    /// <summary>As <see cref="LowerIsBetter(Counter)"/> for a counter named in a report; unknown names count as work.</summary>
+    public static bool LowerIsBetter(string name) => !TryParse(name, out Counter c) || c.LowerIsBetter();
+
     /// <summary>Unit shown in reports.</summary>
     public static string Unit(this Counter c) => c == Counter.PrepassSkip ? "voxels" : "count";
 

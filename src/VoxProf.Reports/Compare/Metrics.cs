@@ -1,3 +1,4 @@
+using VoxProf.Core.Traversal;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
@@ -37,5 +38,5 @@ public static class Metrics
     }
 
     private static MetricDescriptor Counter(string name, string statistic, string unit, string format) =>
-        new(name, statistic, unit, LowerIsBetter: true, format);
+        new(name, statistic, unit, LowerIsBetter: CounterNames.LowerIsBetter(name), format);
 }

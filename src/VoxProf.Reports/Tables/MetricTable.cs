@@ -1,3 +1,4 @@
+using VoxProf.Core.Traversal;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Tables;
@@ -72,13 +73,14 @@ public sealed class MetricTable
         foreach (CounterStats c0 in counterOrder)
         {
             string g = c0.Counter;
+            bool work = CounterNames.LowerIsBetter(g);
             CounterStats Of(StrategyReport s) => s.Counters.First(c => c.Counter == g);
-            Add(new(g, "total", $"{g} total", c0.Unit, "0", true), s => Of(s).Total);
-            Add(new(g, "mean", $"{g} mean", c0.Unit, "0.00", true), s => Of(s).Mean);
-            Add(new(g, "p50_hf7", $"{g} p50", c0.Unit, "0.00", true), s => Of(s).P50);
-            Add(new(g, "p90_hf7", $"{g} p90", c0.Unit, "0.00", true), s => Of(s).P90);
-            Add(new(g, "p99_hf7", $"{g} p99", c0.Unit, "0.00", true), s => Of(s).P99);
-            Add(new(g, "max", $"{g} max", c0.Unit, "0", true), s => Of(s).Max);
+            Add(new(g, "total", $"{g} total", c0.Unit, "0", work), s => Of(s).Total);
+            Add(new(g, "mean", $"{g} mean", c0.Unit, "0.00", work), s => Of(s).Mean);
+            Add(new(g, "p50_hf7", $"{g} p50", c0.Unit, "0.00", work), s => Of(s).P50);
+            Add(new(g, "p90_hf7", $"{g} p90", c0.Unit, "0.00", work), s => Of(s).P90);
+            Add(new(g, "p99_hf7", $"{g} p99", c0.Unit, "0.00", work), s => Of(s).P99);
+            Add(new(g, "max", $"{g} max", c0.Unit, "0", work), s => Of(s).Max);
         }
 
         IReadOnlyList<WaveStats> waveOrder = report.Strategies.Count > 0 ? report.Strategies[0].Waves : [];

@@ -107,6 +107,20 @@ public class GateRuleTests
     }
 
     [Fact]
+    public void More_distance_skipped_by_the_prepass_is_a_gain_and_less_a_regression()
+    {
+        StrategyReport With(double skip) => ReportFixtures.Strategy("dda", 10) with
+        {
+            Counters = [ReportFixtures.Counter("iterations", 10), ReportFixtures.Counter("prepass-skip", skip)],
+        };
+        var less = ReportFixtures.Report(With(100));
+        var more = ReportFixtures.Report(With(150));
+
+        GateRules.Evaluate(Compare(less, more), GateRules.Parse(["dda.prepass-skip.mean:0%"])).Passed.Should().BeTrue("skipping more is better");
+        GateRules.Evaluate(Compare(more, less), GateRules.Parse(["dda.prepass-skip.mean:10%"])).Passed.Should().BeFalse("a third less skipped is a regression");
+    }
+
+    [Fact]
     public void A_negative_limit_demands_a_gain()
     {
         var cmp = Compare(ReportFixtures.Standard(), ReportFixtures.Standard(0.9));
