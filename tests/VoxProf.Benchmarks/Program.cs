@@ -12,7 +12,7 @@ if (args.Length > 1 && args[0] == "build")
 }
 if (args.Length > 0 && args[0] == "quick")
 {
-    Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : DemoLikeScene.Create();
+    Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : SampleScenes.Demo();
     int w = 1280, h = 720;
     if (args.Length > 2)
     {

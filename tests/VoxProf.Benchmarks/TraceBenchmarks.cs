@@ -47,21 +47,19 @@ public class TraceBenchmarks
     public TraceRun Uncounted() => Tracer.Run(Request(false));
 }
 
-/// <summary>Finds the bundled demo scene from the repository root, falling back to a code-built stand-in.</summary>
+/// <summary>Finds scene files relative to the repository root, wherever the benchmark runs from.</summary>
 public static class SampleScenes
 {
-    public static Scene Demo()
+    public static Scene Demo() => SceneLoader.Load(FromRepository("samples/stonebrook-quarry.vpscene.json"));
+
+    public static string FromRepository(string relativePath)
     {
         for (var dir = new DirectoryInfo(AppContext.BaseDirectory); dir != null; dir = dir.Parent)
         {
-            string samples = Path.Combine(dir.FullName, "samples");
-            if (Directory.Exists(samples))
-            {
-                string? demo = Directory.GetFiles(samples, "*.json").Where(f => f.Contains("quarry", StringComparison.OrdinalIgnoreCase)).FirstOrDefault();
-                if (demo != null)
-                    return SceneLoader.Load(demo);
-            }
+            string candidate = Path.Combine(dir.FullName, relativePath);
+            if (File.Exists(candidate))
+                return candidate;
         }
-        return DemoLikeScene.Create();
+        throw new FileNotFoundException($"{relativePath}: not found above {AppContext.BaseDirectory}");
     }
 }
