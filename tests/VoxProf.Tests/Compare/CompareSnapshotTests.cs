@@ -1,5 +1,6 @@
 using System.Text;
 using VoxProf.Reports.Compare;
+using VoxProf.Tests.Reports;
 
 namespace VoxProf.Tests.Compare;
 
@@ -25,28 +26,9 @@ public class CompareSnapshotTests
     public void Output_matches_the_stored_file(string file, string culture)
     {
         var exporter = CompareOutputs.All.Single(e => e.FileName == file);
-        var saved = System.Globalization.CultureInfo.CurrentCulture;
-        string actual;
-        try
-        {
-            System.Globalization.CultureInfo.CurrentCulture = System.Globalization.CultureInfo.GetCultureInfo(culture);
-            using var stream = new MemoryStream();
+        using var stream = new MemoryStream();
+        using (culture.Length > 0 ? new CultureScope(culture) : null)
             exporter.Write(Result(), stream);
-            actual = Encoding.UTF8.GetString(stream.ToArray());
-        }
-        finally
-        {
-            System.Globalization.CultureInfo.CurrentCulture = saved;
-        }
-
-        var path = Path.Combine(AppContext.BaseDirectory, "Compare", "Expected", file);
-        var expected = File.Exists(path) ? File.ReadAllText(path) : "";
-        if (actual != expected)
-        {
-            var dump = Path.Combine(Path.GetTempPath(), "voxprof-snapshots");
-            Directory.CreateDirectory(dump);
-            File.WriteAllText(Path.Combine(dump, file), actual);
-        }
-        actual.Should().Be(expected, $"output must match Compare/Expected/{file} (actual left in the temp folder)");
+        Snapshot.Match(Encoding.UTF8.GetString(stream.ToArray()), "Compare", file);
     }
 }

@@ -3,9 +3,12 @@ namespace VoxProf.Tests.Reports;
 /// <summary>Compares output with a stored expected file; on a difference, leaves the actual text in the temp folder.</summary>
 internal static class Snapshot
 {
-    public static void Match(string actual, string expectedFile)
+    public static void Match(string actual, string expectedFile) => Match(actual, "Reports", expectedFile);
+
+    /// <param name="folder">Test folder whose Expected/ subfolder holds the file.</param>
+    public static void Match(string actual, string folder, string expectedFile)
     {
-        string path = Path.Combine(AppContext.BaseDirectory, "Reports", "Expected", expectedFile);
+        string path = Path.Combine(AppContext.BaseDirectory, folder, "Expected", expectedFile);
         string expected = File.Exists(path) ? File.ReadAllText(path) : "";
         if (actual != expected)
         {
@@ -13,7 +16,7 @@ internal static class Snapshot
             Directory.CreateDirectory(dump);
             File.WriteAllText(Path.Combine(dump, expectedFile), actual);
         }
-        actual.Should().Be(expected, $"output must match Reports/Expected/{expectedFile} (actual left in the temp folder)");
+        actual.Should().Be(expected, $"output must match {folder}/Expected/{expectedFile} (actual left in the temp folder)");
     }
 }
 
