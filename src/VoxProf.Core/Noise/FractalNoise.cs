@@ -1,3 +1,5 @@
+using System.Runtime.CompilerServices;
+
 namespace VoxProf.Core.Noise;
 
 /// <summary>
@@ -39,6 +41,7 @@ public sealed class FractalNoise
     public int Octaves { get; }
 
     /// <summary>Two-dimensional fractal noise (slices of the 3D noise).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double Sample2(double x, double z)
     {
         double s = 0;
@@ -50,6 +53,7 @@ public sealed class FractalNoise
         return s;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public double Sample3(double x, double y, double z)
     {
         double s = 0;
