@@ -14,6 +14,7 @@ internal struct RayStart
     public int FaceAxis;
 
     /// <summary>Clips the ray to the volume box [0, extent) with one slab test; false when it misses the volume.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static bool Clip<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, out RayStart start)
         where TCounters : struct, ICostCounters
     {

@@ -24,6 +24,7 @@ public struct SlabHit
 /// </summary>
 public static class SlabTest
 {
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static bool Intersect(in RaySetup r, double loX, double loY, double loZ, double hiX, double hiY, double hiZ,
         double tMin, double tMax, out SlabHit hit)
     {

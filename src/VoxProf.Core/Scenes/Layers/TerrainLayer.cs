@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Noise;
 
@@ -32,6 +33,7 @@ public sealed class TerrainLayer : Layer
     public override string Kind => "terrain";
 
     /// <summary>Height of column (x, z) straight from the noise (the definition the stored heights must equal).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int ComputeHeight(int x, int z)
     {
         double h = Math.Floor(Settings.BaseHeight + Settings.Amplitude * _noise.Sample2(x + 0.5, z + 0.5));
