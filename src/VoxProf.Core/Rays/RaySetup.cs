@@ -23,6 +23,8 @@ public readonly struct RaySetup
         ParallelX = dx == 0; ParallelY = dy == 0; ParallelZ = dz == 0;
         // Branch on the reciprocal: 1/-0.0 is -∞, so a negative zero counts as a negative direction.
         Octant = (Ix < 0 ? 1 : 0) | (Iy < 0 ? 2 : 0) | (Iz < 0 ? 4 : 0);
+        StepX = Ix < 0 ? -1 : 1; StepY = Iy < 0 ? -1 : 1; StepZ = Iz < 0 ? -1 : 1;
+        AbsIx = Math.Abs(Ix); AbsIy = Math.Abs(Iy); AbsIz = Math.Abs(Iz);
     }
 
     public readonly double Ox, Oy, Oz;
@@ -32,6 +34,12 @@ public readonly struct RaySetup
 
     /// <summary>Bit a set when the reciprocal of axis a is negative (x = 1, y = 2, z = 4).</summary>
     public readonly int Octant;
+
+    /// <summary>Cell step per axis: -1 where the reciprocal is negative, else +1.</summary>
+    public readonly int StepX, StepY, StepZ;
+
+    /// <summary>|1/d| per axis: the parameter length of one unit cell (+∞ on a parallel axis).</summary>
+    public readonly double AbsIx, AbsIy, AbsIz;
 
     public double O(int axis) => axis == 0 ? Ox : axis == 1 ? Oy : Oz;
     public double D(int axis) => axis == 0 ? Dx : axis == 1 ? Dy : Dz;

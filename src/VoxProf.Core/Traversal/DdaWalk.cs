@@ -24,15 +24,15 @@ public struct DdaWalk
     public static DdaWalk Start(in RaySetup ray, double t, int x, int y, int z, double cellSize)
     {
         var w = new DdaWalk { X = x, Y = y, Z = z, T = t, LastAxis = -1 };
-        w.StepX = ray.Ix < 0 ? -1 : 1;
-        w.StepY = ray.Iy < 0 ? -1 : 1;
-        w.StepZ = ray.Iz < 0 ? -1 : 1;
+        w.StepX = ray.StepX;
+        w.StepY = ray.StepY;
+        w.StepZ = ray.StepZ;
         w.TMaxX = ray.ParallelX ? double.PositiveInfinity : ((x + (w.StepX > 0 ? 1 : 0)) * cellSize - ray.Ox) * ray.Ix;
         w.TMaxY = ray.ParallelY ? double.PositiveInfinity : ((y + (w.StepY > 0 ? 1 : 0)) * cellSize - ray.Oy) * ray.Iy;
         w.TMaxZ = ray.ParallelZ ? double.PositiveInfinity : ((z + (w.StepZ > 0 ? 1 : 0)) * cellSize - ray.Oz) * ray.Iz;
-        w.TDeltaX = ray.ParallelX ? double.PositiveInfinity : cellSize * Math.Abs(ray.Ix);
-        w.TDeltaY = ray.ParallelY ? double.PositiveInfinity : cellSize * Math.Abs(ray.Iy);
-        w.TDeltaZ = ray.ParallelZ ? double.PositiveInfinity : cellSize * Math.Abs(ray.Iz);
+        w.TDeltaX = ray.ParallelX ? double.PositiveInfinity : cellSize * ray.AbsIx;
+        w.TDeltaY = ray.ParallelY ? double.PositiveInfinity : cellSize * ray.AbsIy;
+        w.TDeltaZ = ray.ParallelZ ? double.PositiveInfinity : cellSize * ray.AbsIz;
         return w;
     }
 

@@ -25,8 +25,8 @@ public static class HddaKernel
 
         int log2N = view.Log2N;
         int last = view.N - 1;
-        int sx = ray.Ix < 0 ? -1 : 1, sy = ray.Iy < 0 ? -1 : 1, sz = ray.Iz < 0 ? -1 : 1;
-        double adx = Math.Abs(ray.Ix), ady = Math.Abs(ray.Iy), adz = Math.Abs(ray.Iz);
+        int sx = ray.StepX, sy = ray.StepY, sz = ray.StepZ;
+        double adx = ray.AbsIx, ady = ray.AbsIy, adz = ray.AbsIz;
         double tExit = start.TExit;
         double t = start.T;
         int lastAxis = start.FaceAxis;

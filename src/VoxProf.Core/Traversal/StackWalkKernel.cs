@@ -27,8 +27,8 @@ public static class StackWalkKernel
 
         int log2N = view.Log2N;
         int last = view.N - 1;
-        int sx = ray.Ix < 0 ? -1 : 1, sy = ray.Iy < 0 ? -1 : 1, sz = ray.Iz < 0 ? -1 : 1;
-        double adx = Math.Abs(ray.Ix), ady = Math.Abs(ray.Iy), adz = Math.Abs(ray.Iz);
+        int sx = ray.StepX, sy = ray.StepY, sz = ray.StepZ;
+        double adx = ray.AbsIx, ady = ray.AbsIy, adz = ray.AbsIz;
         int maskBase = ray.Octant << (3 * log2N);
         double tExit = start.TExit;
         double t = start.T;
