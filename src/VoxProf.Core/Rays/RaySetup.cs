@@ -41,8 +41,5 @@ public readonly struct RaySetup
     /// <summary>|1/d| per axis: the parameter length of one unit cell (+∞ on a parallel axis).</summary>
     public readonly double AbsIx, AbsIy, AbsIz;
 
-    public double O(int axis) => axis == 0 ? Ox : axis == 1 ? Oy : Oz;
-    public double D(int axis) => axis == 0 ? Dx : axis == 1 ? Dy : Dz;
     public double Inv(int axis) => axis == 0 ? Ix : axis == 1 ? Iy : Iz;
-    public bool Parallel(int axis) => axis == 0 ? ParallelX : axis == 1 ? ParallelY : ParallelZ;
 }
