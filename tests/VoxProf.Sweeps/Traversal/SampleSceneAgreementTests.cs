@@ -5,7 +5,7 @@ using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using Xunit.Abstractions;
 
-namespace VoxProf.Tests.Traversal;
+namespace VoxProf.Sweeps.Traversal;
 
 /// <summary>
 /// The acceptance check of the traversal issue: on every sample scene, every named camera and 200 seeded random
@@ -18,20 +18,23 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
     private const double EdgeTolerance = 1e-4;
     private static readonly Strategy[] Fast = [Strategy.Slab, Strategy.Dda, Strategy.DdaMask, Strategy.Hdda];
 
-    public static TheoryData<string> Samples()
+    public static TheoryData<string, int> Samples()
     {
-        var data = new TheoryData<string>();
-        foreach (string f in Directory.GetFiles(Path.Combine(AppContext.BaseDirectory, "samples"), "*.json").Order())
-            data.Add(Path.GetFileName(f));
+        var data = new TheoryData<string, int>();
+        foreach (string f in Directory.GetFiles(Path.Combine(AppContext.BaseDirectory, "samples"), "*.json").Order(StringComparer.Ordinal))
+        {
+            data.Add(Path.GetFileName(f), 4);
+            data.Add(Path.GetFileName(f), 2);
+        }
         return data;
     }
 
     [Theory]
     [MemberData(nameof(Samples))]
-    public void Every_strategy_agrees_with_the_grid_reference_on_sample_scenes(string file)
+    public void Every_strategy_agrees_with_the_grid_reference_on_sample_scenes(string file, int branching)
     {
         Scene scene = SceneLoader.Load(Path.Combine(AppContext.BaseDirectory, "samples", file));
-        BrickTree tree = TreeBuilder.Build(scene, file.GetHashCode() % 2 == 0 ? 4 : 2);
+        BrickTree tree = TreeBuilder.Build(scene, branching);
         var rng = new Random(20261201);
         var cameras = scene.Cameras.Concat(Enumerable.Range(0, RandomCameras).Select(_ => RandomCamera(rng, scene))).ToList();
         long pixels = 0, nearEdge = 0, bad = 0, hits = 0;
