@@ -12,12 +12,13 @@ public enum Counter
     MaskCulledCells,
     MaskSkippedNodes,
     PrepassIterations,
+    PrepassNodeFetches,
     PrepassSkip,
 }
 
 public static class CounterNames
 {
-    public const int Count = 10;
+    public const int Count = 11;
 
     public static readonly IReadOnlyList<Counter> All = Enum.GetValues<Counter>();
 
@@ -32,6 +33,7 @@ public static class CounterNames
         Counter.MaskCulledCells => "mask-culled-cells",
         Counter.MaskSkippedNodes => "mask-skipped-nodes",
         Counter.PrepassIterations => "prepass-iterations",
+        Counter.PrepassNodeFetches => "prepass-node-fetches",
         Counter.PrepassSkip => "prepass-skip",
         _ => throw new ArgumentOutOfRangeException(nameof(c)),
     };
@@ -59,6 +61,7 @@ public static class CounterNames
         Counter.MaskCulledCells => "occupied cells proven unreachable by the directional mask",
         Counter.MaskSkippedNodes => "nodes left whole because the directional mask left nothing reachable",
         Counter.PrepassIterations => "the coarse prepass ray's iterations, shared among the pixels it serves",
+        Counter.PrepassNodeFetches => "node records the coarse prepass ray read, shared among the pixels it serves",
         Counter.PrepassSkip => "whole voxels of distance the prepass let the ray skip",
         _ => throw new ArgumentOutOfRangeException(nameof(c)),
     };
