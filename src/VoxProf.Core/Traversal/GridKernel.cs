@@ -17,10 +17,7 @@ public static class GridKernel
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             goto Done;
 
-        int x = RayStart.Voxel(ray.Ox, ray.Dx, start.T, 0, view.ExtentX);
-        int y = RayStart.Voxel(ray.Oy, ray.Dy, start.T, 0, view.ExtentY);
-        int z = RayStart.Voxel(ray.Oz, ray.Dz, start.T, 0, view.ExtentZ);
-        var walk = DdaWalk.Start(ray, start.T, x, y, z, 1.0);
+        var walk = DdaWalk.Start(ray, start.T, start.X, start.Y, start.Z, 1.0);
         walk.LastAxis = start.FaceAxis;
 
         while (true)
@@ -31,7 +28,7 @@ public static class GridKernel
             byte material = view.Lookup(walk.X, walk.Y, walk.Z, ref counters);
             if (material != 0)
             {
-                RayStart.SetHit(ref hit, walk.X, walk.Y, walk.Z, walk.T, material, RayStart.Face(walk.LastAxis, ray));
+                RayStart.SetHit(ref hit, ray, walk.X, walk.Y, walk.Z, 0, walk.T, walk.LastAxis, material);
                 goto Done;
             }
 

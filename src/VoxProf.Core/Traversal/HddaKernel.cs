@@ -26,23 +26,23 @@ public static class HddaKernel
         int log2N = view.Log2N;
         int last = view.N - 1;
         int sx = ray.StepX, sy = ray.StepY, sz = ray.StepZ;
-        double adx = ray.AbsIx, ady = ray.AbsIy, adz = ray.AbsIz;
+        int ux = sx > 0 ? 1 : 0, uy = sy > 0 ? 1 : 0, uz = sz > 0 ? 1 : 0;
         double tExit = start.TExit;
         double t = start.T;
         int lastAxis = start.FaceAxis;
 
-        // One DDA state: global cell coordinates at the current level and the next-plane times
+        // One DDA state: global cell coordinates at the current level, the next plane on each axis (an integer-valued
+        // double), its crossing time, and the signed cell size
         ref readonly Node root = ref view.Nodes[0];
         counters.NodeFetch(1);
         ulong childMask = root.ChildMask, solidMask = root.SolidMask;
         int firstChild = root.FirstChild, firstMaterial = root.FirstMaterial;
         int shift = view.RootShift;
         int depth = 0;
-        int gx = RayStart.Voxel(ray.Ox, ray.Dx, t, 0, view.ExtentX) >> shift;
-        int gy = RayStart.Voxel(ray.Oy, ray.Dy, t, 0, view.ExtentY) >> shift;
-        int gz = RayStart.Voxel(ray.Oz, ray.Dz, t, 0, view.ExtentZ) >> shift;
-        PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out double tMaxX, out double tMaxY, out double tMaxZ);
-        double tdx = (1 << shift) * adx, tdy = (1 << shift) * ady, tdz = (1 << shift) * adz;
+        int gx = start.X >> shift, gy = start.Y >> shift, gz = start.Z >> shift;
+        PlaneTimes(ray, gx, gy, gz, shift, ux, uy, uz, out double px, out double py, out double pz,
+            out double tMaxX, out double tMaxY, out double tMaxZ);
+        double dpx = sx * (double)(1 << shift), dpy = sy * (double)(1 << shift), dpz = sz * (double)(1 << shift);
 
         while (true)
         {
@@ -51,19 +51,14 @@ public static class HddaKernel
             ulong b = 1UL << bit;
             if (((childMask | solidMask) & b) != 0)
             {
-                int cell = 1 << shift;
                 int lx = gx << shift, ly = gy << shift, lz = gz << shift;
                 if ((solidMask & b) != 0)
                 {
-                    RayStart.SetHit(ref hit,
-                        RayStart.Voxel(ray.Ox, ray.Dx, t, lx, lx + cell),
-                        RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell),
-                        RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell),
-                        t, view.SolidMaterial(solidMask, firstMaterial, bit), RayStart.Face(lastAxis, ray));
+                    RayStart.SetHit(ref hit, ray, lx, ly, lz, shift, t, lastAxis, view.SolidMaterial(solidMask, firstMaterial, bit));
                     goto Done;
                 }
 
-                // Descend: refine the cell from the current point, keep t
+                // Descend: refine the cell by the crossing order at the walk's key, keep t
                 ref WalkFrame f = ref path[depth++];
                 f.ChildMask = childMask; f.SolidMask = solidMask; f.FirstChild = firstChild; f.FirstMaterial = firstMaterial;
                 ref readonly Node node = ref view.Nodes[firstChild + BrickTree.Rank(childMask, bit)];
@@ -72,30 +67,32 @@ public static class HddaKernel
                 childMask = node.ChildMask; solidMask = node.SolidMask;
                 firstChild = node.FirstChild; firstMaterial = node.FirstMaterial;
                 shift -= log2N;
-                tdx = (1 << shift) * adx; tdy = (1 << shift) * ady; tdz = (1 << shift) * adz;
-                gx = RayStart.Voxel(ray.Ox, ray.Dx, t, lx, lx + cell) >> shift;
-                gy = RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell) >> shift;
-                gz = RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell) >> shift;
-                PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
+                dpx = sx * (double)(1 << shift); dpy = sy * (double)(1 << shift); dpz = sz * (double)(1 << shift);
+                gx = (lx >> shift) + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, view.N, shift, out px, out tMaxX);
+                gy = (ly >> shift) + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, view.N, shift, out py, out tMaxY);
+                gz = (lz >> shift) + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, view.N, shift, out pz, out tMaxZ);
                 continue;
             }
 
-            // Advance to the next cell at this level along the smallest t
+            // Advance to the next cell at this level along the smallest t, the next plane's time in closed form
             int axis;
             bool leftNode;
             if (tMaxX <= tMaxY && tMaxX <= tMaxZ)
             {
-                axis = 0; t = tMaxX; tMaxX += tdx; gx += sx;
+                axis = 0; t = tMaxX; gx += sx;
+                px += dpx; tMaxX = CrossingOrder.Time(px, ray.Ox, ray.Ix);
                 leftNode = (gx & last) == (sx > 0 ? 0 : last);
             }
             else if (tMaxY <= tMaxZ)
             {
-                axis = 1; t = tMaxY; tMaxY += tdy; gy += sy;
+                axis = 1; t = tMaxY; gy += sy;
+                py += dpy; tMaxY = CrossingOrder.Time(py, ray.Oy, ray.Iy);
                 leftNode = (gy & last) == (sy > 0 ? 0 : last);
             }
             else
             {
-                axis = 2; t = tMaxZ; tMaxZ += tdz; gz += sz;
+                axis = 2; t = tMaxZ; gz += sz;
+                pz += dpz; tMaxZ = CrossingOrder.Time(pz, ray.Oz, ray.Iz);
                 leftNode = (gz & last) == (sz > 0 ? 0 : last);
             }
             if (t > tExit)
@@ -121,20 +118,24 @@ public static class HddaKernel
                 if ((g & last) != wrapped)
                     break;
             }
-            tdx = (1 << shift) * adx; tdy = (1 << shift) * ady; tdz = (1 << shift) * adz;
-            PlaneTimes(ray, gx, gy, gz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
+            dpx = sx * (double)(1 << shift); dpy = sy * (double)(1 << shift); dpz = sz * (double)(1 << shift);
+            PlaneTimes(ray, gx, gy, gz, shift, ux, uy, uz, out px, out py, out pz, out tMaxX, out tMaxY, out tMaxZ);
         }
 
     Done:
         counterSink = counters;
     }
 
+    /// <summary>The next plane on each axis of global cell (gx, gy, gz) of size 2^shift, and its crossing time.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void PlaneTimes(in RaySetup ray, int gx, int gy, int gz, int shift, int sx, int sy, int sz,
-        out double tMaxX, out double tMaxY, out double tMaxZ)
+    private static void PlaneTimes(in RaySetup ray, int gx, int gy, int gz, int shift, int ux, int uy, int uz,
+        out double px, out double py, out double pz, out double tMaxX, out double tMaxY, out double tMaxZ)
     {
-        tMaxX = ray.ParallelX ? double.PositiveInfinity : (((gx + (sx > 0 ? 1 : 0)) << shift) - ray.Ox) * ray.Ix;
-        tMaxY = ray.ParallelY ? double.PositiveInfinity : (((gy + (sy > 0 ? 1 : 0)) << shift) - ray.Oy) * ray.Iy;
-        tMaxZ = ray.ParallelZ ? double.PositiveInfinity : (((gz + (sz > 0 ? 1 : 0)) << shift) - ray.Oz) * ray.Iz;
+        px = (gx + ux) << shift;
+        py = (gy + uy) << shift;
+        pz = (gz + uz) << shift;
+        tMaxX = ray.ParallelX ? double.PositiveInfinity : CrossingOrder.Time(px, ray.Ox, ray.Ix);
+        tMaxY = ray.ParallelY ? double.PositiveInfinity : CrossingOrder.Time(py, ray.Oy, ray.Iy);
+        tMaxZ = ray.ParallelZ ? double.PositiveInfinity : CrossingOrder.Time(pz, ray.Oz, ray.Iz);
     }
 }

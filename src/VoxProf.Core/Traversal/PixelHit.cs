@@ -19,8 +19,11 @@ public struct PixelHit
     public int X;
     public int Y;
     public int Z;
-    /// <summary>Distance along the unit-length ray to the entry into the hit voxel, in voxels.</summary>
-    public float T;
+    /// <summary>
+    /// Distance along the unit-length ray to the entry into the hit voxel, in voxels: the double the traversal computed
+    /// (the plane time of the last crossing, or the start distance).
+    /// </summary>
+    public double T;
     public byte Material;
     public HitFace Face;
     public bool Hit;

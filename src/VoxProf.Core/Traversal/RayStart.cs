@@ -10,10 +10,16 @@ internal struct RayStart
     public double T;
     /// <summary>Parameter at which the ray leaves the volume box.</summary>
     public double TExit;
-    /// <summary>Axis of the volume face the ray entered through at <see cref="T"/>, or -1.</summary>
+    /// <summary>Axis of the volume face the ray entered through at <see cref="T"/>, or -1 (the walk's key is (T, FaceAxis)).</summary>
     public int FaceAxis;
+    /// <summary>The voxel the walk starts in, by the crossing order at (T, FaceAxis); inside the extent.</summary>
+    public int X, Y, Z;
 
-    /// <summary>Clips the ray to the volume box [0, extent) with one slab test; false when it misses the volume.</summary>
+    /// <summary>
+    /// Clips the ray to the volume box [0, extent) with one slab test and finds its first voxel; false when the ray never
+    /// is inside a voxel of the volume (it misses the box, only touches it where it leaves, or starts on a high face and
+    /// moves away).
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public static bool Clip<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, out RayStart start)
         where TCounters : struct, ICostCounters
@@ -24,7 +30,7 @@ internal struct RayStart
             return false;
         start.T = box.Near;
         start.TExit = box.Far;
-        start.FaceAxis = box.NearAxis;
+        start.FaceAxis = box.Near == 0 ? FaceAtEye(view, ray) : box.NearAxis;
         if (tMin > start.T)
         {
             if (tMin > box.Far)
@@ -32,17 +38,28 @@ internal struct RayStart
             start.T = tMin;
             start.FaceAxis = -1;
         }
-        return true;
+
+        // The first voxel by the crossing order, looked for one voxel beyond the extent on each side: a ray whose exit
+        // crossing comes before its last entry crossing ends up outside and never is inside a voxel.
+        double t = start.T;
+        int a = start.FaceAxis;
+        start.X = CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, a, -1, view.ExtentX + 2, 0, out _, out _) - 1;
+        start.Y = CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, a, -1, view.ExtentY + 2, 0, out _, out _) - 1;
+        start.Z = CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, a, -1, view.ExtentZ + 2, 0, out _, out _) - 1;
+        return (uint)start.X < (uint)view.ExtentX && (uint)start.Y < (uint)view.ExtentY && (uint)start.Z < (uint)view.ExtentZ;
     }
 
-    /// <summary>The voxel containing the ray point at <paramref name="t"/>, clamped into [lo, hi) against rounding.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static int Voxel(double o, double d, double t, int lo, int hi)
+    /// <summary>
+    /// The entry face of a walk that starts at t = 0. An eye on a low face of the volume is inside the voxel above it by
+    /// the half-open rule: no face. An eye on a high face is outside; a ray moving in from there enters through that face
+    /// at t = 0 (the highest such axis, as entry ties go to the last plane crossed).
+    /// </summary>
+    private static int FaceAtEye(in TreeView view, in RaySetup ray)
     {
-        double p = Math.Floor(o + t * d);
-        if (p < lo) return lo;
-        if (p >= hi) return hi - 1;
-        return (int)p;
+        if (!ray.ParallelZ && ray.Iz < 0 && ray.Oz == view.ExtentZ) return 2;
+        if (!ray.ParallelY && ray.Iy < 0 && ray.Oy == view.ExtentY) return 1;
+        if (!ray.ParallelX && ray.Ix < 0 && ray.Ox == view.ExtentX) return 0;
+        return -1;
     }
 
     /// <summary>The face a ray entered through when it crossed a plane of <paramref name="axis"/>.</summary>
@@ -55,15 +72,20 @@ internal struct RayStart
         return (HitFace)(1 + 2 * axis + (negative ? 1 : 0));
     }
 
+    /// <summary>
+    /// Records a hit on a solid cell of size 2^<paramref name="shift"/> at voxel (lx, ly, lz): the hit voxel is the
+    /// cell's voxel the walk is in at key (t, lastAxis), by the same crossing order the reference walk follows.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static void SetHit(ref PixelHit hit, int x, int y, int z, double t, byte material, HitFace face)
+    public static void SetHit(ref PixelHit hit, in RaySetup ray, int lx, int ly, int lz, int shift, double t, int lastAxis, byte material)
     {
+        int cell = 1 << shift;
         hit.Hit = true;
-        hit.X = x;
-        hit.Y = y;
-        hit.Z = z;
-        hit.T = (float)t;
+        hit.X = lx + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, cell, 0, out _, out _);
+        hit.Y = ly + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, cell, 0, out _, out _);
+        hit.Z = lz + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, cell, 0, out _, out _);
+        hit.T = t;
         hit.Material = material;
-        hit.Face = face;
+        hit.Face = Face(lastAxis, ray);
     }
 }

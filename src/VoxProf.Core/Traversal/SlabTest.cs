@@ -19,8 +19,11 @@ public struct SlabHit
 /// algorithm": near and far planes chosen by the sign of the reciprocal direction. Rule for rays lying in a face plane
 /// (where the textbook formula forms 0·∞ = NaN): an axis with a zero component (+0.0 or -0.0) is parallel and the ray is
 /// inside that slab exactly when lo ≤ o &lt; hi, the same half-open rule that makes voxel x own [x, x+1). So a ray in a
-/// box's low face plane is inside the box and a ray in its high face plane is not, on every axis. Ties between axes go to
-/// the lowest axis (x, then y, then z), the same rule as the DDA.
+/// box's low face plane is inside the box and a ray in its high face plane is not, on every axis. Ties between axes follow
+/// the DDA's crossing order, where the lowest axis crosses first (x, then y, then z): the exit plane is the lowest tied
+/// axis (the first plane crossed out of the box), the entry plane the highest (the last plane crossed into it).
+/// Every plane time is computed as <see cref="CrossingOrder.Time"/> computes it, so a box face and a DDA plane at the same
+/// coordinate get the same time.
 /// </summary>
 public static class SlabTest
 {
@@ -53,7 +56,7 @@ public static class SlabTest
         {
             double a = ((r.Iy < 0 ? hiY : loY) - r.Oy) * r.Iy;
             double b = ((r.Iy < 0 ? loY : hiY) - r.Oy) * r.Iy;
-            if (a > near) { near = a; nearAxis = 1; }
+            if (a >= near) { near = a; nearAxis = 1; }
             if (b < far) { far = b; farAxis = 1; }
         }
 
@@ -66,7 +69,7 @@ public static class SlabTest
         {
             double a = ((r.Iz < 0 ? hiZ : loZ) - r.Oz) * r.Iz;
             double b = ((r.Iz < 0 ? loZ : hiZ) - r.Oz) * r.Iz;
-            if (a > near) { near = a; nearAxis = 2; }
+            if (a >= near) { near = a; nearAxis = 2; }
             if (b < far) { far = b; farAxis = 2; }
         }
 

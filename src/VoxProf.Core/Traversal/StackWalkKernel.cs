@@ -28,7 +28,7 @@ public static class StackWalkKernel
         int log2N = view.Log2N;
         int last = view.N - 1;
         int sx = ray.StepX, sy = ray.StepY, sz = ray.StepZ;
-        double adx = ray.AbsIx, ady = ray.AbsIy, adz = ray.AbsIz;
+        int ux = sx > 0 ? 1 : 0, uy = sy > 0 ? 1 : 0, uz = sz > 0 ? 1 : 0;
         int maskBase = ray.Octant << (3 * log2N);
         double tExit = start.TExit;
         double t = start.T;
@@ -42,14 +42,13 @@ public static class StackWalkKernel
         int ox = 0, oy = 0, oz = 0;
         int shift = view.RootShift;
         int sp = 0;
-        int cx = RayStart.Voxel(ray.Ox, ray.Dx, t, 0, view.ExtentX) >> shift;
-        int cy = RayStart.Voxel(ray.Oy, ray.Dy, t, 0, view.ExtentY) >> shift;
-        int cz = RayStart.Voxel(ray.Oz, ray.Dz, t, 0, view.ExtentZ) >> shift;
-        double tMaxX = 0, tMaxY = 0, tMaxZ = 0;
+        int cx = start.X >> shift, cy = start.Y >> shift, cz = start.Z >> shift;
         double size = 1 << shift;
-        double tdx = size * adx, tdy = size * ady, tdz = size * adz;
+        // DDA state: the next plane on each axis (an integer-valued double), its crossing time, and the signed cell size
+        double px = 0, py = 0, pz = 0, tMaxX = 0, tMaxY = 0, tMaxZ = 0;
+        double dpx = sx * size, dpy = sy * size, dpz = sz * size;
         if (TMode.StepsWithDda)
-            SetUpDda(ray, ox, oy, oz, cx, cy, cz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
+            SetUpDda(ray, ox, oy, oz, cx, cy, cz, shift, ux, uy, uz, out px, out py, out pz, out tMaxX, out tMaxY, out tMaxZ);
         if (TMode.CullsWithMask && !MaskAdmits(view, childMask | solidMask, maskBase, cx, cy, cz, ref counters, countCulled: true))
             goto Done;
 
@@ -63,13 +62,8 @@ public static class StackWalkKernel
                 // Solid cell: the hit voxel is where the ray enters the cell
                 if ((solidMask & b) != 0)
                 {
-                    int lx = ox + (cx << shift), ly = oy + (cy << shift), lz = oz + (cz << shift);
-                    int cell = 1 << shift;
-                    RayStart.SetHit(ref hit,
-                        RayStart.Voxel(ray.Ox, ray.Dx, t, lx, lx + cell),
-                        RayStart.Voxel(ray.Oy, ray.Dy, t, ly, ly + cell),
-                        RayStart.Voxel(ray.Oz, ray.Dz, t, lz, lz + cell),
-                        t, view.SolidMaterial(solidMask, firstMaterial, bit), RayStart.Face(lastAxis, ray));
+                    RayStart.SetHit(ref hit, ray, ox + (cx << shift), oy + (cy << shift), oz + (cz << shift), shift, t, lastAxis,
+                        view.SolidMaterial(solidMask, firstMaterial, bit));
                     goto Done;
                 }
 
@@ -85,17 +79,18 @@ public static class StackWalkKernel
                 int span = 1 << shift;
                 shift -= log2N;
                 size = 1 << shift;
-                tdx = size * adx; tdy = size * ady; tdz = size * adz;
+                dpx = sx * size; dpy = sy * size; dpz = sz * size;
                 childMask = node.ChildMask; solidMask = node.SolidMask;
                 firstChild = node.FirstChild; firstMaterial = node.FirstMaterial;
                 counters.SlabTest();
                 SlabTest.Intersect(ray, ox, oy, oz, ox + span, oy + span, oz + span, t, tExit, out SlabHit box);
+                // The box is the cell the walk is in, so its entry planes are behind the walk and Near is t itself.
                 t = box.Near;
-                cx = (RayStart.Voxel(ray.Ox, ray.Dx, t, ox, ox + span) - ox) >> shift;
-                cy = (RayStart.Voxel(ray.Oy, ray.Dy, t, oy, oy + span) - oy) >> shift;
-                cz = (RayStart.Voxel(ray.Oz, ray.Dz, t, oz, oz + span) - oz) >> shift;
-                if (TMode.StepsWithDda)
-                    SetUpDda(ray, ox, oy, oz, cx, cy, cz, shift, sx, sy, sz, out tMaxX, out tMaxY, out tMaxZ);
+
+                // The child cell by the crossing order at the walk's key, with its next-plane times
+                cx = CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, ox, view.N, shift, out px, out tMaxX);
+                cy = CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, oy, view.N, shift, out py, out tMaxY);
+                cz = CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, oz, view.N, shift, out pz, out tMaxZ);
                 if (!TMode.CullsWithMask || MaskAdmits(view, childMask | solidMask, maskBase, cx, cy, cz, ref counters, countCulled: true))
                     continue;
             }
@@ -104,21 +99,25 @@ public static class StackWalkKernel
                 // Advance to the next cell of this node
                 if (TMode.StepsWithDda)
                 {
-                    // One comparison chain and one addition; the cell moves in the same branch to avoid a second one.
+                    // One comparison chain, then the next plane's time in closed form; the cell moves in the same branch
+                    // to avoid a second one.
                     if (tMaxX <= tMaxY && tMaxX <= tMaxZ)
                     {
                         if (tMaxX > tExit) goto Done;
-                        t = tMaxX; tMaxX += tdx; cx += sx; lastAxis = 0;
+                        t = tMaxX; cx += sx; lastAxis = 0;
+                        px += dpx; tMaxX = CrossingOrder.Time(px, ray.Ox, ray.Ix);
                     }
                     else if (tMaxY <= tMaxZ)
                     {
                         if (tMaxY > tExit) goto Done;
-                        t = tMaxY; tMaxY += tdy; cy += sy; lastAxis = 1;
+                        t = tMaxY; cy += sy; lastAxis = 1;
+                        py += dpy; tMaxY = CrossingOrder.Time(py, ray.Oy, ray.Iy);
                     }
                     else
                     {
                         if (tMaxZ > tExit) goto Done;
-                        t = tMaxZ; tMaxZ += tdz; cz += sz; lastAxis = 2;
+                        t = tMaxZ; cz += sz; lastAxis = 2;
+                        pz += dpz; tMaxZ = CrossingOrder.Time(pz, ray.Oz, ray.Iz);
                     }
                 }
                 else
@@ -153,13 +152,14 @@ public static class StackWalkKernel
                 tMaxX = f.TMaxX; tMaxY = f.TMaxY; tMaxZ = f.TMaxZ;
                 shift += log2N;
                 size = 1 << shift;
-                tdx = size * adx; tdy = size * ady; tdz = size * adz;
+                dpx = sx * size; dpy = sy * size; dpz = sz * size;
 
                 // Step the parent past the cell just left
                 int axis;
                 if (TMode.StepsWithDda)
                 {
-                    if (!StepDda(ref tMaxX, ref tMaxY, ref tMaxZ, tdx, tdy, tdz, tExit, out axis, out double tp))
+                    NextPlanes(ox, oy, oz, cx, cy, cz, shift, ux, uy, uz, out px, out py, out pz);
+                    if (!StepDda(ray, ref tMaxX, ref tMaxY, ref tMaxZ, ref px, ref py, ref pz, dpx, dpy, dpz, tExit, out axis, out double tp))
                         goto Done;
                     t = Math.Max(t, tp);
                 }
@@ -181,23 +181,34 @@ public static class StackWalkKernel
         counterSink = counters;
     }
 
+    /// <summary>The next plane on each axis of cell (cx, cy, cz) of size 2^shift in the node at (ox, oy, oz).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static void SetUpDda(in RaySetup ray, int ox, int oy, int oz, int cx, int cy, int cz, int shift,
-        int sx, int sy, int sz, out double tMaxX, out double tMaxY, out double tMaxZ)
+    private static void NextPlanes(int ox, int oy, int oz, int cx, int cy, int cz, int shift, int ux, int uy, int uz,
+        out double px, out double py, out double pz)
     {
-        tMaxX = ray.ParallelX ? double.PositiveInfinity : (ox + ((cx + (sx > 0 ? 1 : 0)) << shift) - ray.Ox) * ray.Ix;
-        tMaxY = ray.ParallelY ? double.PositiveInfinity : (oy + ((cy + (sy > 0 ? 1 : 0)) << shift) - ray.Oy) * ray.Iy;
-        tMaxZ = ray.ParallelZ ? double.PositiveInfinity : (oz + ((cz + (sz > 0 ? 1 : 0)) << shift) - ray.Oz) * ray.Iz;
+        px = ox + ((cx + ux) << shift);
+        py = oy + ((cy + uy) << shift);
+        pz = oz + ((cz + uz) << shift);
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void SetUpDda(in RaySetup ray, int ox, int oy, int oz, int cx, int cy, int cz, int shift, int ux, int uy, int uz,
+        out double px, out double py, out double pz, out double tMaxX, out double tMaxY, out double tMaxZ)
+    {
+        NextPlanes(ox, oy, oz, cx, cy, cz, shift, ux, uy, uz, out px, out py, out pz);
+        tMaxX = ray.ParallelX ? double.PositiveInfinity : CrossingOrder.Time(px, ray.Ox, ray.Ix);
+        tMaxY = ray.ParallelY ? double.PositiveInfinity : CrossingOrder.Time(py, ray.Oy, ray.Iy);
+        tMaxZ = ray.ParallelZ ? double.PositiveInfinity : CrossingOrder.Time(pz, ray.Oz, ray.Iz);
     }
 
     /// <summary>One DDA step: picks the axis of the nearest plane (lowest axis on ties); false past <paramref name="tExit"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool StepDda(ref double tMaxX, ref double tMaxY, ref double tMaxZ, double dX, double dY, double dZ,
-        double tExit, out int axis, out double t)
+    private static bool StepDda(in RaySetup ray, ref double tMaxX, ref double tMaxY, ref double tMaxZ,
+        ref double px, ref double py, ref double pz, double dpx, double dpy, double dpz, double tExit, out int axis, out double t)
     {
-        if (tMaxX <= tMaxY && tMaxX <= tMaxZ) { axis = 0; t = tMaxX; tMaxX += dX; }
-        else if (tMaxY <= tMaxZ) { axis = 1; t = tMaxY; tMaxY += dY; }
-        else { axis = 2; t = tMaxZ; tMaxZ += dZ; }
+        if (tMaxX <= tMaxY && tMaxX <= tMaxZ) { axis = 0; t = tMaxX; px += dpx; tMaxX = CrossingOrder.Time(px, ray.Ox, ray.Ix); }
+        else if (tMaxY <= tMaxZ) { axis = 1; t = tMaxY; py += dpy; tMaxY = CrossingOrder.Time(py, ray.Oy, ray.Iy); }
+        else { axis = 2; t = tMaxZ; pz += dpz; tMaxZ = CrossingOrder.Time(pz, ray.Oz, ray.Iz); }
         return t <= tExit;
     }
 

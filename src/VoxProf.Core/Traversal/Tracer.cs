@@ -112,7 +112,8 @@ public static class Tracer
                     Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
                     if (prepass != null)
                     {
-                        buffers[(int)Counter.PrepassIterations][pixel] = prepass.Share(x, y, width, camera.Height);
+                        buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);
+                        buffers[(int)Counter.PrepassNodeFetches][pixel] = prepass.NodeFetchShare(x, y, width, camera.Height);
                         buffers[(int)Counter.PrepassSkip][pixel] = SkippedVoxels(view, ray, tMin);
                     }
                 }

@@ -10,11 +10,12 @@ namespace VoxProf.Reports.Pixels;
 /// <summary>
 /// pixels-STRATEGY.bin.gz: a gzip stream of little-endian binary (layout in docs/reports.md): magic "VXPX", version,
 /// counter count, width, height, strategy name, counter names, one uint32 array per counter, then the hit arrays
-/// (flags, face, material as bytes; x, y, z as int32; t as float32), each array whole so it compresses well.
+/// (flags, face, material as bytes; x, y, z as int32; t as float64), each array whole so it compresses well.
 /// </summary>
 public static class PixelDataFile
 {
-    public const ushort Version = 1;
+    /// <summary>Format version; 2 stores t as float64 (version 1 stored float32 and is no longer read).</summary>
+    public const ushort Version = 2;
     public const int MaxSide = 16384;
     private static ReadOnlySpan<byte> Magic => "VXPX"u8;
 
@@ -36,7 +37,7 @@ public static class PixelDataFile
         int n = data.Width * data.Height;
         byte[] bytes = new byte[n];
         int[] ints = new int[n];
-        float[] floats = new float[n];
+        double[] doubles = new double[n];
         PixelHit[] hits = data.Hits;
         for (int i = 0; i < n; i++) bytes[i] = hits[i].Hit ? (byte)1 : (byte)0;
         w.Write(bytes);
@@ -50,8 +51,8 @@ public static class PixelDataFile
         WriteArray<int>(w, ints);
         for (int i = 0; i < n; i++) ints[i] = hits[i].Z;
         WriteArray<int>(w, ints);
-        for (int i = 0; i < n; i++) floats[i] = hits[i].T;
-        WriteArray<float>(w, floats);
+        for (int i = 0; i < n; i++) doubles[i] = hits[i].T;
+        WriteArray<double>(w, doubles);
     }
 
     public static void Write(PixelData data, string path)
@@ -72,7 +73,7 @@ public static class PixelDataFile
                 throw new InputException($"{source}: not a VoxProf pixel data file (expected magic VXPX)");
             ushort version = r.ReadUInt16();
             if (version != Version)
-                throw new InputException($"{source}: pixel data version {version} is not supported, expected {Version}");
+                throw new InputException($"{source}: pixel data version {version} is not supported, expected {Version} (run voxprof trace again to write it in this version)");
             int counters = r.ReadUInt16();
             int width = r.ReadInt32(), height = r.ReadInt32();
             if (width is < 1 or > MaxSide || height is < 1 or > MaxSide)
@@ -88,7 +89,7 @@ public static class PixelDataFile
 
             byte[] flags = ReadArray<byte>(r, n, source), faces = ReadArray<byte>(r, n, source), materials = ReadArray<byte>(r, n, source);
             int[] xs = ReadArray<int>(r, n, source), ys = ReadArray<int>(r, n, source), zs = ReadArray<int>(r, n, source);
-            float[] ts = ReadArray<float>(r, n, source);
+            double[] ts = ReadArray<double>(r, n, source);
             var hits = new PixelHit[n];
             for (int i = 0; i < n; i++)
             {
@@ -148,8 +149,7 @@ public static class PixelDataFile
         }
         // The file is little-endian whatever the machine; swap a copy on a big-endian host.
         var copy = (T[])values.Clone();
-        Span<int> words = MemoryMarshal.Cast<T, int>(copy.AsSpan());
-        BinaryPrimitives.ReverseEndianness(words, words);
+        Swap(copy);
         w.Write(MemoryMarshal.AsBytes(copy.AsSpan()));
     }
 
@@ -165,11 +165,23 @@ public static class PixelDataFile
                 throw new InputException($"{source}: truncated pixel data file (expected {bytes.Length} bytes of an array, found {read})");
             read += k;
         }
-        if (!BitConverter.IsLittleEndian && Marshal.SizeOf<T>() == 4)
+        if (!BitConverter.IsLittleEndian)
+            Swap(values);
+        return values;
+    }
+
+    /// <summary>Reverses the byte order of each 4- or 8-byte element (bytes need none).</summary>
+    private static void Swap<T>(T[] values) where T : unmanaged
+    {
+        if (Marshal.SizeOf<T>() == 4)
         {
             Span<int> words = MemoryMarshal.Cast<T, int>(values.AsSpan());
             BinaryPrimitives.ReverseEndianness(words, words);
         }
-        return values;
+        else if (Marshal.SizeOf<T>() == 8)
+        {
+            Span<long> words = MemoryMarshal.Cast<T, long>(values.AsSpan());
+            BinaryPrimitives.ReverseEndianness(words, words);
+        }
     }
 }
