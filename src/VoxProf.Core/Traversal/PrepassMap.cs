@@ -30,13 +30,17 @@ public sealed class PrepassMap
     /// <summary>Distance at which every pixel ray of the block containing (x, y) may start (+∞: it meets nothing).</summary>
     public double Start(int x, int y) => _start[y / Block * BlocksX + x / Block];
 
+    /// <summary>Iterations of the coarse ray of the block containing (x, y).</summary>
+    public uint BlockIterations(int x, int y) => _iterations[y / Block * BlocksX + x / Block];
+
+    /// <summary>Node records the coarse ray of the block containing (x, y) read in its neighbourhood look-ups.</summary>
+    public uint BlockNodeFetches(int x, int y) => _nodeFetches[y / Block * BlocksX + x / Block];
+
     /// <summary>This pixel's share of its block's coarse-ray iterations (see <see cref="Share(uint, int, int, int, int)"/>).</summary>
-    public uint IterationShare(int x, int y, int width, int height) =>
-        Share(_iterations[y / Block * BlocksX + x / Block], x, y, width, height);
+    public uint IterationShare(int x, int y, int width, int height) => Share(BlockIterations(x, y), x, y, width, height);
 
     /// <summary>This pixel's share of the node records its block's coarse ray read, split as iterations are.</summary>
-    public uint NodeFetchShare(int x, int y, int width, int height) =>
-        Share(_nodeFetches[y / Block * BlocksX + x / Block], x, y, width, height);
+    public uint NodeFetchShare(int x, int y, int width, int height) => Share(BlockNodeFetches(x, y), x, y, width, height);
 
     /// <summary>
     /// This pixel's share of a block total: an even split whose remainder goes to the first pixels of the block in

@@ -3,6 +3,7 @@ using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Tests.Scenes;
 
 namespace VoxProf.Tests.Traversal;
 
@@ -71,6 +72,47 @@ public class PrepassTests
                 fast.Results[s].Hits.Should().Equal(plain.Results[s].Hits, $"{cam.Name} {plain.Results[s].Strategy.Name()} with prepass {block}");
         }
         hits.Should().BeGreaterThan(0, "the adversarial geometry must be seen by some camera");
+    }
+
+    [Fact]
+    public void A_voxel_far_down_a_long_volume_is_still_hit_through_a_narrow_field_of_view()
+    {
+        // Regression: at a 10° field of view a 2×2 block's cone half-angle is about 5e-4 rad, and the old angle (arc
+        // cosine of a dot product of float directions) lost most of its digits: every tree strategy with the prepass
+        // started pixel (163,114) past voxel (2028,44,39) and missed it.
+        using var file = new TempScene("""
+            {'version': 1, 'extent': [2048, 64, 64],
+             'layers': [{'kind': 'box', 'material': 1, 'min': [2028, 44, 39], 'max': [2029, 45, 40]}],
+             'cameras': [{'name': 'far', 'eye': [-1000, 40, 20], 'target': [2000, 32, 32], 'fovY': 10}]}
+            """);
+        Scene scene = SceneLoader.Load(file.Path);
+        foreach (int branching in new[] { 4, 2 })
+        {
+            BrickTree tree = TreeBuilder.Build(scene, branching);
+            TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, [Strategy.Grid]));
+            TraceRun pre = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, StrategyNames.All, 2));
+            PixelHit g = plain.Reference!.Hits[114 * 320 + 163];
+            (g.Hit, g.X, g.Y, g.Z).Should().Be((true, 2028, 44, 39), "the grid reference sees the voxel at pixel (163,114)");
+            foreach (StrategyResult r in pre.Results)
+            {
+                r.Hits.Should().Equal(plain.Reference!.Hits, $"{r.Strategy.Name()} with prepass 2, branching {branching}");
+                if (r.Strategy != Strategy.Grid)
+                    r.Get(Counter.PrepassSkip)[114 * 320 + 163].Should().BeGreaterThan(1500u, "the coarse ray skips most of the empty volume before the voxel");
+            }
+        }
+    }
+
+    [Fact]
+    public void Fields_of_view_from_1_to_120_degrees_at_distances_up_to_60000_voxels_never_change_a_hit()
+    {
+        // The short version of the sweep in tests/VoxProf.Sweeps (same property, more and larger cases there).
+        var settings = new PrepassProperty.Settings([256, 1024, 2048], 64, 48, [Strategy.Dda]);
+        var tally = new PrepassProperty.Tally();
+        for (int seed = 1; seed <= 32; seed++)
+            PrepassProperty.Check(seed, settings, tally);
+        tally.Failures.Should().BeEmpty();
+        tally.Hits.Should().BeGreaterThan(tally.Pixels / 20, "the cameras look at the geometry");
+        tally.Skipped.Should().BeGreaterThan(0, "the prepass must skip distance for the check to mean anything");
     }
 
     [Fact]
