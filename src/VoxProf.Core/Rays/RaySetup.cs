@@ -5,7 +5,8 @@ namespace VoxProf.Core.Rays;
 /// <summary>
 /// Everything a kernel needs per ray, computed once: origin, direction, reciprocal, step signs and octant.
 /// The ray is built in single precision (as the user's shader builds it); traversal arithmetic then runs in double,
-/// so every strategy makes the same decisions except at near-exact ties (see docs/strategies.md).
+/// and every kernel orders plane crossings the same way, so every strategy makes the same decisions (docs/strategies.md,
+/// "The crossing order").
 /// Zero components: +0.0 and -0.0 both mark the axis as parallel. Kernels never multiply by the infinite reciprocal
 /// of a parallel axis: its boundary times are +∞ by construction, so no 0·∞ NaN can form. The step sign of an axis
 /// follows the sign of the reciprocal (so -0.0 counts as negative), which only picks the octant of the mask table.

@@ -1,0 +1,72 @@
+using System.Buffers.Binary;
+using System.Globalization;
+using System.IO.Compression;
+using CsvHelper;
+using VoxProf.Core;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Pixels;
+
+namespace VoxProf.Tests.Reports;
+
+/// <summary>Per-pixel t is the traversal's double, written without loss in both per-pixel files (docs/reports.md).</summary>
+public class PixelFileTests
+{
+    // Distances a float cannot hold: at t = 3000 a float's step is 2.4e-4 voxel.
+    private static readonly double[] Distances = [3000.000123456789, 0.1 + 0.2, 1.0 / 3, 59999.99999999999, 0];
+
+    private static StrategyResult Result()
+    {
+        int n = Distances.Length;
+        var counters = new uint[CounterNames.Count][];
+        for (int c = 0; c < counters.Length; c++)
+            counters[c] = new uint[n];
+        var hits = new PixelHit[n];
+        for (int i = 0; i < n; i++)
+            hits[i] = new PixelHit { Hit = true, X = i, Y = 2 * i, Z = 3 * i, T = Distances[i], Material = 1, Face = HitFace.NegY };
+        return new StrategyResult(Strategy.Hdda, n, 1, counters, hits, TimeSpan.Zero);
+    }
+
+    [Fact]
+    public void The_binary_file_keeps_every_bit_of_t()
+    {
+        using var stream = new MemoryStream();
+        PixelDataFile.Write(PixelData.From(Result()), stream);
+        stream.Position = 0;
+        PixelData back = PixelDataFile.Read(stream, "mem");
+        back.Hits.Select(h => h.T).Should().Equal(Distances);
+        back.Hits.Should().Equal(Result().Hits);
+    }
+
+    [Fact]
+    public void A_version_1_file_is_refused_with_one_line_naming_the_file_and_both_versions()
+    {
+        using var file = new MemoryStream();
+        using (var gzip = new GZipStream(file, CompressionLevel.Fastest, leaveOpen: true))
+        {
+            Span<byte> header = stackalloc byte[6];
+            "VXPX"u8.CopyTo(header);
+            BinaryPrimitives.WriteUInt16LittleEndian(header[4..], 1);
+            gzip.Write(header);
+        }
+        file.Position = 0;
+        FluentActions.Invoking(() => PixelDataFile.Read(file, "old/pixels-dda.bin.gz")).Should().Throw<InputException>()
+            .Which.Message.Should().Be("old/pixels-dda.bin.gz: pixel data version 1 is not supported, expected 2 " +
+                "(run voxprof trace again to write it in this version)");
+    }
+
+    // RFC 4180 reader from outside the project (CsvHelper); the shortest round-trip form is .NET's "R" formatting
+    // contract: double.Parse gives back the same double.
+    [Fact]
+    public void The_csv_writes_the_shortest_text_that_reads_back_to_the_same_double()
+    {
+        var text = new StringWriter();
+        PixelCsvExporter.Write(Result(), text);
+        using var csv = CsvReader.FromText(text.ToString());
+        var written = new List<string>();
+        while (csv.Read())
+            written.Add(csv.GetString("t")!);
+        written.Should().Equal("3000.000123456789", "0.30000000000000004", "0.3333333333333333", "59999.99999999999", "0");
+        written.Select(s => double.Parse(s, CultureInfo.InvariantCulture)).Should().Equal(Distances);
+    }
+}
