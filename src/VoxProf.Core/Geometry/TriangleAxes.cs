@@ -10,11 +10,12 @@ namespace VoxProf.Core.Geometry;
 /// </summary>
 /// <remarks>
 /// <para>Boxes are closed: touching counts as overlap, so a triangle lying in the plane x = 5 overlaps both voxel 4 and
-/// voxel 5. Everything is computed in double from the float vertices; each axis keeps the triangle's projection
-/// interval [min, max] over its three corners, and a voxel with centre c overlaps on that axis when
-/// <c>a·c + r ≥ min</c> and <c>a·c − r ≤ max</c> (r = ½ Σ|aᵢ|). On vertices of 1/2ᵏ steps of moderate size every
-/// product and sum is exact, so touching cases are decided exactly; otherwise rounding can only move the decision for
-/// triangles within about 1e-12 voxel of touching.</para>
+/// voxel 5. Everything is computed in double from the float vertices, in the paper's form: the corners are first
+/// moved so the box centre c is the origin (dᵢ = vᵢ − c, exact for float corners and half-integer centres in the
+/// scene's range), then projected; on each axis a the box overlaps when <c>min a·dᵢ ≤ r</c> and
+/// <c>max a·dᵢ ≥ −r</c> (r = ½ Σ|aⱼ| for a voxel). A triangle in a voxel's face plane therefore touches exactly
+/// (the products are by ½), and on corners of 1/2ᵏ steps every touching case is decided exactly; otherwise rounding
+/// can only move the decision for triangles within about 1e-12 voxel of touching.</para>
 /// <para>The axes are stored in a frame whose first axis u is the world axis along which voxel runs are swept
 /// (<see cref="RowAxis"/>, the axis the triangle's normal leans least towards, so its runs are fewest); v and w
 /// follow cyclically. <see cref="RowSpan"/> returns exactly the voxels <see cref="OverlapsVoxel"/> accepts: each
@@ -34,7 +35,7 @@ internal struct TriangleAxes
 
     private struct Axis
     {
-        public double U, V, W, Min, Max, R;
+        public double U, V, W, R;
     }
 
     [InlineArray(10)]
@@ -46,6 +47,9 @@ internal struct TriangleAxes
     private AxisSet _axes;
     private int _count;
     private bool _hasNormal;
+
+    // Corners in frame coordinates.
+    private double _u0, _v0, _w0, _u1, _v1, _w1, _u2, _v2, _w2;
 
     /// <summary>World axis (0 x, 1 y, 2 z) that is the frame's u; v is the next axis cyclically, w the one after.</summary>
     public int RowAxis;
@@ -72,26 +76,26 @@ internal struct TriangleAxes
         Span<double> p = [ax, ay, az, bx, by, bz, cx, cy, cz];
         // Frame coordinates: u = world[k], v = world[k+1], w = world[k+2].
         int iu = rowAxis, iv = (rowAxis + 1) % 3, iw = (rowAxis + 2) % 3;
-        double u0 = p[iu], v0 = p[iv], w0 = p[iw];
-        double u1 = p[3 + iu], v1 = p[3 + iv], w1 = p[3 + iw];
-        double u2 = p[6 + iu], v2 = p[6 + iv], w2 = p[6 + iw];
-        t.MinU = Math.Min(u0, Math.Min(u1, u2));
-        t.MaxU = Math.Max(u0, Math.Max(u1, u2));
-        t.MinV = Math.Min(v0, Math.Min(v1, v2));
-        t.MaxV = Math.Max(v0, Math.Max(v1, v2));
-        t.MinW = Math.Min(w0, Math.Min(w1, w2));
-        t.MaxW = Math.Max(w0, Math.Max(w1, w2));
+        (t._u0, t._v0, t._w0) = (p[iu], p[iv], p[iw]);
+        (t._u1, t._v1, t._w1) = (p[3 + iu], p[3 + iv], p[3 + iw]);
+        (t._u2, t._v2, t._w2) = (p[6 + iu], p[6 + iv], p[6 + iw]);
+        t.MinU = Math.Min(t._u0, Math.Min(t._u1, t._u2));
+        t.MaxU = Math.Max(t._u0, Math.Max(t._u1, t._u2));
+        t.MinV = Math.Min(t._v0, Math.Min(t._v1, t._v2));
+        t.MaxV = Math.Max(t._v0, Math.Max(t._v1, t._v2));
+        t.MinW = Math.Min(t._w0, Math.Min(t._w1, t._w2));
+        t.MaxW = Math.Max(t._w0, Math.Max(t._w1, t._w2));
 
-        double f0u = u1 - u0, f0v = v1 - v0, f0w = w1 - w0;
-        double f1u = u2 - u1, f1v = v2 - v1, f1w = w2 - w1;
-        double f2u = u0 - u2, f2v = v0 - v2, f2w = w0 - w2;
+        double f0u = t._u1 - t._u0, f0v = t._v1 - t._v0, f0w = t._w1 - t._w0;
+        double f1u = t._u2 - t._u1, f1v = t._v2 - t._v1, f1w = t._w2 - t._w1;
+        double f2u = t._u0 - t._u2, f2v = t._v0 - t._v2, f2w = t._w0 - t._w2;
         // The triangle's normal first: it separates most often once the bounding boxes overlap.
-        t.Add(f0v * f1w - f0w * f1v, f0w * f1u - f0u * f1w, f0u * f1v - f0v * f1u, u0, v0, w0, u1, v1, w1, u2, v2, w2);
+        t.Add(f0v * f1w - f0w * f1v, f0w * f1u - f0u * f1w, f0u * f1v - f0v * f1u);
         t._hasNormal = t._count == 1;
         // Edge × box axis: e × û = (0, e_w, −e_v), e × v̂ = (−e_w, 0, e_u), e × ŵ = (e_v, −e_u, 0).
-        t.AddEdge(f0u, f0v, f0w, u0, v0, w0, u1, v1, w1, u2, v2, w2);
-        t.AddEdge(f1u, f1v, f1w, u0, v0, w0, u1, v1, w1, u2, v2, w2);
-        t.AddEdge(f2u, f2v, f2w, u0, v0, w0, u1, v1, w1, u2, v2, w2);
+        t.AddEdge(f0u, f0v, f0w);
+        t.AddEdge(f1u, f1v, f1w);
+        t.AddEdge(f2u, f2v, f2w);
         return t;
     }
 
@@ -101,12 +105,15 @@ internal struct TriangleAxes
         if (iu > MaxU || iu + 1 < MinU || iv > MaxV || iv + 1 < MinV || iw > MaxW || iw + 1 < MinW)
             return false;
         double cu = iu + 0.5, cv = iv + 0.5, cw = iw + 0.5;
+        double du0 = _u0 - cu, du1 = _u1 - cu, du2 = _u2 - cu;
+        double dv0 = _v0 - cv, dv1 = _v1 - cv, dv2 = _v2 - cv, dw0 = _w0 - cw, dw1 = _w1 - cw, dw2 = _w2 - cw;
         for (int i = 0; i < _count; i++)
         {
             ref readonly Axis a = ref _axes[i];
-            double rest = a.V * cv + a.W * cw;
-            double s = a.U * cu + rest;
-            if (s + a.R < a.Min || s - a.R > a.Max)
+            double p0 = a.U * du0 + (a.V * dv0 + a.W * dw0);
+            double p1 = a.U * du1 + (a.V * dv1 + a.W * dw1);
+            double p2 = a.U * du2 + (a.V * dv2 + a.W * dw2);
+            if (Math.Min(p0, Math.Min(p1, p2)) > a.R || Math.Max(p0, Math.Max(p1, p2)) < -a.R)
                 return false;
         }
         return true;
@@ -123,22 +130,34 @@ internal struct TriangleAxes
         lo = Math.Max(lo, (int)Math.Ceiling(MinU) - 1);
         hi = Math.Min(hi, (int)Math.Floor(MaxU));
         double cv = iv + 0.5, cw = iw + 0.5;
+        double dv0 = _v0 - cv, dv1 = _v1 - cv, dv2 = _v2 - cv, dw0 = _w0 - cw, dw1 = _w1 - cw, dw2 = _w2 - cw;
         for (int i = 0; i < _count && lo <= hi; i++)
         {
             ref readonly Axis a = ref _axes[i];
-            double rest = a.V * cv + a.W * cw;
+            var row = new Row(a, _u0, _u1, _u2, a.V * dv0 + a.W * dw0, a.V * dv1 + a.W * dw1, a.V * dv2 + a.W * dw2);
             if (a.U == 0)
             {
                 // The axis lies across the row: one answer for the whole row.
-                if (rest + a.R < a.Min || rest - a.R > a.Max)
+                if (!row.ReachesBelow(lo) || !row.ReachesAbove(lo))
                     return false;
                 continue;
             }
-            // "Reaches min" grows along +u when U > 0, "stays below max" shrinks; the reverse when U < 0.
-            bool up = a.U > 0;
-            double toMin = (a.Min - a.R - rest) / a.U, toMax = (a.Max + a.R - rest) / a.U;
-            lo = FirstFrom(a, rest, lo, hi, Guess(up ? toMin : toMax, lo, hi), reachMin: up);
-            hi = LastUpTo(a, rest, lo, hi, Guess(up ? toMax : toMin, lo, hi), reachMin: !up);
+            // Each corner's projection falls along +u when U > 0 (rises when U < 0), so "the lowest projection is at
+            // most r" holds from some index on and "the highest is at least −r" up to some index (the reverse for U < 0).
+            double toBelow = Math.Min(row.Crossing(0, a.R), Math.Min(row.Crossing(1, a.R), row.Crossing(2, a.R)));
+            double toAbove = Math.Max(row.Crossing(0, -a.R), Math.Max(row.Crossing(1, -a.R), row.Crossing(2, -a.R)));
+            if (a.U > 0)
+            {
+                lo = row.FirstFrom(lo, hi, Guess(toBelow, lo, hi), below: true);
+                hi = row.LastUpTo(lo, hi, Guess(toAbove, lo, hi), below: false);
+            }
+            else
+            {
+                double fromAbove = Math.Min(row.Crossing(0, -a.R), Math.Min(row.Crossing(1, -a.R), row.Crossing(2, -a.R)));
+                double toBelowMax = Math.Max(row.Crossing(0, a.R), Math.Max(row.Crossing(1, a.R), row.Crossing(2, a.R)));
+                lo = row.FirstFrom(lo, hi, Guess(fromAbove, lo, hi), below: false);
+                hi = row.LastUpTo(lo, hi, Guess(toBelowMax, lo, hi), below: true);
+            }
         }
         return lo <= hi;
     }
@@ -164,71 +183,94 @@ internal struct TriangleAxes
         for (int i = 0; i < _count; i++)
         {
             ref readonly Axis a = ref _axes[i];
-            double s = a.U * cu + a.V * cv + a.W * cw;
+            double p0 = a.U * (_u0 - cu) + (a.V * (_v0 - cv) + a.W * (_w0 - cw));
+            double p1 = a.U * (_u1 - cu) + (a.V * (_v1 - cv) + a.W * (_w1 - cw));
+            double p2 = a.U * (_u2 - cu) + (a.V * (_v2 - cv) + a.W * (_w2 - cw));
             double r = Math.Abs(a.U) * hu + Math.Abs(a.V) * hv + Math.Abs(a.W) * hw;
-            if (s + r < a.Min || s - r > a.Max)
+            if (Math.Min(p0, Math.Min(p1, p2)) > r || Math.Max(p0, Math.Max(p1, p2)) < -r)
                 return i == 0 && _hasNormal ? Separation.TriangleNormal : Separation.EdgeCross;
         }
         return Separation.None;
     }
 
-    private void AddEdge(double eu, double ev, double ew, double u0, double v0, double w0, double u1, double v1, double w1,
-        double u2, double v2, double w2)
+    private void AddEdge(double eu, double ev, double ew)
     {
-        Add(0, ew, -ev, u0, v0, w0, u1, v1, w1, u2, v2, w2);
-        Add(-ew, 0, eu, u0, v0, w0, u1, v1, w1, u2, v2, w2);
-        Add(ev, -eu, 0, u0, v0, w0, u1, v1, w1, u2, v2, w2);
+        Add(0, ew, -ev);
+        Add(-ew, 0, eu);
+        Add(ev, -eu, 0);
     }
 
-    private void Add(double au, double av, double aw, double u0, double v0, double w0, double u1, double v1, double w1,
-        double u2, double v2, double w2)
+    private void Add(double au, double av, double aw)
     {
         // A zero axis (an edge along a box axis, or a zero-area triangle's normal) cannot separate anything.
         if (au == 0 && av == 0 && aw == 0)
             return;
-        double p0 = au * u0 + av * v0 + aw * w0, p1 = au * u1 + av * v1 + aw * w1, p2 = au * u2 + av * v2 + aw * w2;
         ref Axis a = ref _axes[_count++];
         a.U = au;
         a.V = av;
         a.W = aw;
-        a.Min = Math.Min(p0, Math.Min(p1, p2));
-        a.Max = Math.Max(p0, Math.Max(p1, p2));
         a.R = 0.5 * (Math.Abs(au) + Math.Abs(av) + Math.Abs(aw));
     }
 
-    // A guessed index from a real-valued solution t of a·(i + ½) + rest = bound, kept within [lo − 1, hi + 1].
+    // A guessed index from a real-valued centre position t along u, kept within [lo − 1, hi + 1].
     private static int Guess(double t, int lo, int hi)
     {
         double i = Math.Round(t - 0.5);
         return i < lo - 1 ? lo - 1 : i > hi + 1 ? hi + 1 : (int)i;
     }
 
-    // The same expression as OverlapsVoxel: one half of an axis's test at index i of the row.
-    private static bool Passes(in Axis a, double rest, int i, bool reachMin)
+    /// <summary>One axis along one row: the corners' fixed parts, and the two halves of the axis test at an index.</summary>
+    private readonly struct Row(in Axis a, double u0, double u1, double u2, double rest0, double rest1, double rest2)
     {
-        double s = a.U * (i + 0.5) + rest;
-        return reachMin ? s + a.R >= a.Min : s - a.R <= a.Max;
-    }
+        private readonly double _au = a.U, _r = a.R;
 
-    // First index in [lo, hi + 1] from which the test holds, for a test that holds from some index on.
-    private static int FirstFrom(in Axis a, double rest, int lo, int hi, int guess, bool reachMin)
-    {
-        int i = Math.Clamp(guess, lo, hi + 1);
-        while (i > lo && Passes(a, rest, i - 1, reachMin))
-            i--;
-        while (i <= hi && !Passes(a, rest, i, reachMin))
-            i++;
-        return i;
-    }
+        // The same expressions as OverlapsVoxel: a.U · (uᵢ − c) + (a.V · dvᵢ + a.W · dwᵢ).
+        private double P(int corner, int i)
+        {
+            double c = i + 0.5;
+            return corner switch
+            {
+                0 => _au * (u0 - c) + rest0,
+                1 => _au * (u1 - c) + rest1,
+                _ => _au * (u2 - c) + rest2,
+            };
+        }
 
-    // Last index in [lo − 1, hi] up to which the test holds, for a test that holds up to some index.
-    private static int LastUpTo(in Axis a, double rest, int lo, int hi, int guess, bool reachMin)
-    {
-        int i = Math.Clamp(guess, lo - 1, hi);
-        while (i < hi && Passes(a, rest, i + 1, reachMin))
-            i++;
-        while (i >= lo && !Passes(a, rest, i, reachMin))
-            i--;
-        return i;
+        /// <summary>The lowest corner projection at index i is at most r.</summary>
+        public bool ReachesBelow(int i) => Math.Min(P(0, i), Math.Min(P(1, i), P(2, i))) <= _r;
+
+        /// <summary>The highest corner projection at index i is at least −r.</summary>
+        public bool ReachesAbove(int i) => Math.Max(P(0, i), Math.Max(P(1, i), P(2, i))) >= -_r;
+
+        /// <summary>The centre position along u where corner k's projection equals <paramref name="bound"/>.</summary>
+        public double Crossing(int corner, double bound)
+        {
+            double u = corner == 0 ? u0 : corner == 1 ? u1 : u2, rest = corner == 0 ? rest0 : corner == 1 ? rest1 : rest2;
+            return u + (rest - bound) / _au;
+        }
+
+        private bool Test(int i, bool below) => below ? ReachesBelow(i) : ReachesAbove(i);
+
+        // First index in [lo, hi + 1] from which a test that holds from some index on holds.
+        public int FirstFrom(int lo, int hi, int guess, bool below)
+        {
+            int i = Math.Clamp(guess, lo, hi + 1);
+            while (i > lo && Test(i - 1, below))
+                i--;
+            while (i <= hi && !Test(i, below))
+                i++;
+            return i;
+        }
+
+        // Last index in [lo − 1, hi] up to which a test that holds up to some index holds.
+        public int LastUpTo(int lo, int hi, int guess, bool below)
+        {
+            int i = Math.Clamp(guess, lo - 1, hi);
+            while (i < hi && Test(i + 1, below))
+                i++;
+            while (i >= lo && !Test(i, below))
+                i--;
+            return i;
+        }
     }
 }
