@@ -6,7 +6,7 @@ namespace VoxProf.Core.Scenes.Layers;
 public sealed partial class MeshLayer
 {
     /// <summary>Whether the centre of voxel (x, y, z) is inside the closed mesh, by a ray towards +x.</summary>
-    private bool InteriorAt(int x, int y, int z)
+    internal bool InteriorAt(int x, int y, int z)
     {
         Scratch scratch = Scratch.ForThread();
         int s = _bins.Shift;
@@ -25,6 +25,15 @@ public sealed partial class MeshLayer
             }
         }
         return Rule == InsideRule.Winding ? winding != 0 : (crossings & 1) != 0;
+    }
+
+    /// <summary>Only the interior part of <see cref="Fill"/> (voxels whose centre is inside), for checks of volume.</summary>
+    internal void FillInteriorOnly(in Box3i region, Span<bool> inside)
+    {
+        inside[..checked((int)region.Volume)].Clear();
+        Box3i r = region.Intersect(Bounds);
+        if (!r.IsEmpty && Rule != InsideRule.None)
+            FillInterior(region, r, inside[..checked((int)region.Volume)], Scratch.ForThread());
     }
 
     /// <summary>
