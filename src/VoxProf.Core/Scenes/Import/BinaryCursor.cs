@@ -64,7 +64,7 @@ internal sealed class BinaryCursor(Stream stream, string file, long startOffset,
         if (_end < count)
         {
             throw new ImportException(file, Where, string.Create(CultureInfo.InvariantCulture,
-                $"file ends {_end} bytes later; expected {what} ({count} bytes)"));
+                $"file ends with {_end} of the {count} bytes of {what}; expected the whole record"));
         }
     }
 }
