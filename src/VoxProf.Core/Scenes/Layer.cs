@@ -51,6 +51,9 @@ public abstract class Layer
     /// <summary>Time spent reading and preparing the layer when the scene was loaded (files, bins, heights).</summary>
     public TimeSpan LoadTime { get; internal set; }
 
+    /// <summary>A few words about what the layer holds (triangles, pixels, samples) for listings; null when nothing to add.</summary>
+    public virtual string? Details => null;
+
     /// <summary>Short kind name as written in the scene file, for messages.</summary>
     public abstract string Kind { get; }
 

@@ -37,6 +37,8 @@ public sealed class HeightmapLayer : Layer
 
     public override string Kind => "heightmap";
 
+    public override string Details => FormattableString.Invariant($"{Width} x {Depth} pixels, cell {CellSize}");
+
     public int Width { get; }
     public int Depth { get; }
     public int CellSize { get; }

@@ -50,6 +50,9 @@ public sealed partial class MeshLayer : Layer
 
     public override string Kind => "mesh";
 
+    public override string Details => FormattableString.Invariant(
+        $"{TriangleCount} triangles, {ZeroAreaTriangles} zero-area skipped, {(Rule == InsideRule.None ? "surface" : Rule == InsideRule.Winding ? "solid by winding number" : "solid by parity")}");
+
     public MeshFill FillMode { get; }
 
     public InsideRule Rule { get; }
