@@ -7,13 +7,28 @@ namespace VoxProf.Core.Scenes.Import;
 /// through an open-addressing table, so a triangle soup such as STL becomes an indexed mesh whose shared edges can be
 /// found, and refuses to grow past <see cref="TriangleMesh.MaxTriangles"/> or <see cref="TriangleMesh.MaxVertices"/>.
 /// </summary>
-internal sealed class MeshBuilder(string file)
+internal sealed class MeshBuilder
 {
-    private float[] _positions = new float[3 * 1024];
+    private readonly string _file;
+    private float[] _positions;
     private int _vertices;
-    private int[] _indices = new int[3 * 1024];
+    private int[] _indices;
     private int _indexCount;
-    private int[] _slots = NewSlots(4096);
+    private int[] _slots;
+
+    /// <param name="expectedTriangles">
+    /// The triangle count when the file states it: the index array is then allocated once at its final size, and
+    /// room for about half as many vertices (a closed mesh has about T/2), so a large file is not copied while it grows.
+    /// </param>
+    public MeshBuilder(string file, int expectedTriangles = 0)
+    {
+        _file = file;
+        int triangles = Math.Max(expectedTriangles, 1024);
+        int vertices = triangles / 2 + 64;
+        _indices = new int[3 * triangles];
+        _positions = new float[3 * vertices];
+        _slots = NewSlots((int)Math.Min(1L << 30, (long)System.Numerics.BitOperations.RoundUpToPowerOf2((uint)(2 * vertices))));
+    }
 
     public int VertexCount => _vertices;
     public int TriangleCount => _indexCount / 3;
@@ -23,7 +38,7 @@ internal sealed class MeshBuilder(string file)
     {
         if (!float.IsFinite(x) || !float.IsFinite(y) || !float.IsFinite(z))
         {
-            throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"vertex ({x}, {y}, {z}) is not finite; expected finite coordinates (no NaN or infinity)"));
         }
         // −0 and +0 are one position.
@@ -44,7 +59,7 @@ internal sealed class MeshBuilder(string file)
         }
         if (_vertices >= TriangleMesh.MaxVertices)
         {
-            throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"more than {TriangleMesh.MaxVertices} distinct vertices; expected at most that many"));
         }
         if (3 * _vertices + 3 > _positions.Length)
@@ -66,7 +81,7 @@ internal sealed class MeshBuilder(string file)
     {
         if (_indexCount / 3 >= TriangleMesh.MaxTriangles)
         {
-            throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"more than {TriangleMesh.MaxTriangles} triangles; expected at most that many"));
         }
         if (_indexCount + 3 > _indices.Length)
@@ -83,7 +98,14 @@ internal sealed class MeshBuilder(string file)
             AddTriangle(corners[0], corners[i], corners[i + 1], where);
     }
 
-    public TriangleMesh Build() => new(_positions[..(3 * _vertices)], _indices[.._indexCount]);
+    /// <summary>The mesh; arrays already at their final size are handed over without a copy.</summary>
+    public TriangleMesh Build()
+    {
+        _slots = [];
+        float[] positions = _positions.Length == 3 * _vertices ? _positions : _positions[..(3 * _vertices)];
+        int[] indices = _indices.Length == _indexCount ? _indices : _indices[.._indexCount];
+        return new TriangleMesh(positions, indices);
+    }
 
     private static int[] NewSlots(int size)
     {

@@ -46,7 +46,7 @@ internal static class StlReader
 
     private static TriangleMesh ReadBinary(Stream stream, int count, string file)
     {
-        var builder = new MeshBuilder(file);
+        var builder = new MeshBuilder(file, count);
         var cursor = new BinaryCursor(stream, file, HeaderBytes + 4);
         Span<int> corner = stackalloc int[3];
         for (int t = 0; t < count; t++)

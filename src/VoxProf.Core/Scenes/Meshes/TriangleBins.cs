@@ -191,33 +191,38 @@ internal sealed class TriangleBins
         int triangles = _tri.Length / 3;
         const int Chunk = 1 << 14;
         int chunks = (triangles + Chunk - 1) / Chunk;
-        var parts = new ulong[chunks][];
+        // Two passes, counting then writing, so the pairs are allocated once at their final size: the bins of a
+        // million triangles would otherwise pass through twice their size in growing lists.
+        var counts = new long[chunks + 1];
         Parallel.For(0, chunks, c =>
         {
-            var list = new List<ulong>(Chunk * 2);
-            int end = Math.Min(triangles, (c + 1) * Chunk);
-            for (int t = c * Chunk; t < end; t++)
-                AddTriangle(t, list);
-            parts[c] = [.. list];
+            long n = 0;
+            for (int t = c * Chunk, end = Math.Min(triangles, (c + 1) * Chunk); t < end; t++)
+                n += AddTriangle(t, default);
+            counts[c + 1] = n;
         });
-        // Concatenated in chunk order, then sorted: the same array for any thread count.
-        var all = new ulong[parts.Sum(p => (long)p.Length)];
-        long at = 0;
-        foreach (ulong[] p in parts)
+        for (int c = 0; c < chunks; c++)
+            counts[c + 1] += counts[c];
+        var all = new ulong[counts[chunks]];
+        // Written at fixed offsets per chunk, then sorted: the same array for any thread count.
+        Parallel.For(0, chunks, c =>
         {
-            p.CopyTo(all, at);
-            at += p.Length;
-        }
+            Span<ulong> part = all.AsSpan((int)counts[c], (int)(counts[c + 1] - counts[c]));
+            for (int t = c * Chunk, end = Math.Min(triangles, (c + 1) * Chunk); t < end; t++)
+                part = part[AddTriangle(t, part)..];
+        });
         return all;
     }
 
-    private void AddTriangle(int t, List<ulong> pairs)
+    /// <summary>Writes the triangle's pairs into <paramref name="pairs"/> (when not empty) and returns how many there are.</summary>
+    private int AddTriangle(int t, Span<ulong> pairs)
     {
+        int n = 0;
         var (lo, hi) = BinRange(t);
         int bx0 = Math.Max(lo.X, _bx0), by0 = Math.Max(lo.Y, _by0), bz0 = Math.Max(lo.Z, _bz0);
         int bx1 = Math.Min(hi.X, _bx1 + 1), by1 = Math.Min(hi.Y, _by1), bz1 = Math.Min(hi.Z, _bz1);
         if (bx0 > bx1 || by0 > by1 || bz0 > bz1)
-            return;
+            return 0;
         bool single = lo == hi;
         TriangleAxes axes = single ? default : Axes(t);
         int side = 1 << Shift;
@@ -230,10 +235,15 @@ internal sealed class TriangleBins
                     bool overflow = bx == _bx1 + 1;
                     if (single || overflow || axes.TouchesBox((double)bx * side, (double)by * side, (double)bz * side,
                         (double)(bx + 1) * side, (double)(by + 1) * side, (double)(bz + 1) * side, Pad))
-                        pairs.Add(Morton(bx, by, bz) << TriangleBits | (uint)t);
+                    {
+                        if (!pairs.IsEmpty)
+                            pairs[n] = Morton(bx, by, bz) << TriangleBits | (uint)t;
+                        n++;
+                    }
                 }
             }
         }
+        return n;
     }
 
     // Bins whose closed box meets the triangle's bounding box: b·S ≤ max and (b + 1)·S ≥ min.
