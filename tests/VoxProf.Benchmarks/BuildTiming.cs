@@ -28,6 +28,7 @@ public static class BuildTiming
         load.Stop();
         process.Refresh();
         double peakAfterLoad = process.PeakWorkingSet64 / 1048576.0;
+        TimeSpan loadCpu = process.TotalProcessorTime - cpu0;
         var sw = Stopwatch.StartNew();
         BrickTree tree = TreeBuilder.Build(scene, branching);
         sw.Stop();
@@ -37,7 +38,7 @@ public static class BuildTiming
         long triangles = scene.Layers.OfType<MeshLayer>().Sum(m => (long)m.TriangleCount);
         double peak = process.PeakWorkingSet64 / 1048576.0, tree0 = tree.Stats.TotalBytes / 1048576.0, mesh = meshBytes / 1048576.0;
         output.WriteLine(FormattableString.Invariant(
-            $"{scene.Name} {scene.ExtentX}x{scene.ExtentY}x{scene.ExtentZ} N={branching}: load {load.Elapsed.TotalSeconds:F2} s, build {sw.Elapsed.TotalSeconds:F2} s, cpu {cpu.TotalSeconds:F2} s, {tree.Stats.NodeCount} nodes, {tree.Stats.SolidVoxels} solid voxels, tree {tree0:F0} MiB, peak working set {peak:F0} MiB ({peakAfterLoad:F0} MiB after loading), {Environment.ProcessorCount} cores"));
+            $"{scene.Name} {scene.ExtentX}x{scene.ExtentY}x{scene.ExtentZ} N={branching}: load {load.Elapsed.TotalSeconds:F2} s (cpu {loadCpu.TotalSeconds:F2} s), build {sw.Elapsed.TotalSeconds:F2} s (cpu {(cpu - loadCpu).TotalSeconds:F2} s), {tree.Stats.NodeCount} nodes, {tree.Stats.SolidVoxels} solid voxels, tree {tree0:F0} MiB, peak working set {peak:F0} MiB ({peakAfterLoad:F0} MiB after loading), {Environment.ProcessorCount} cores"));
         if (triangles > 0)
         {
             output.WriteLine(FormattableString.Invariant(

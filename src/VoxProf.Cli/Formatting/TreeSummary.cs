@@ -37,7 +37,7 @@ internal static class TreeSummary
         sb.AppendLine(ic, $"solid voxels           {s.SolidVoxels}");
         sb.AppendLine(ic, $"bytes per solid voxel  {s.BytesPerSolidVoxel:0.0000}");
         sb.AppendLine(ic, $"build time             {s.BuildTime.TotalMilliseconds:0.0} ms");
-        sb.AppendLine(ic, $"voxelise time          {census.Sum(c => c.Voxelise.TotalMilliseconds):0.0} ms (processor time in the layers, summed over threads)");
+        sb.AppendLine(ic, $"voxelise time          {census.Sum(c => c.Voxelise.TotalMilliseconds):0.0} ms (time in the layers' Classify and Fill, summed over threads)");
         sb.AppendLine(ic, $"load time              {scene.Layers.Sum(l => l.LoadTime.TotalMilliseconds):0.0} ms (reading and preparing the layers)");
         sb.AppendLine();
         sb.AppendLine(ic, $"{"layer",5}  {"kind",-9}  {"label",-24}  {"file",-20}  {"op",-5}  {"voxels",14}  {"load ms",9}  {"voxelise ms",11}  details");

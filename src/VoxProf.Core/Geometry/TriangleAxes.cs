@@ -35,7 +35,7 @@ internal struct TriangleAxes
 
     private struct Axis
     {
-        public double U, V, W, R;
+        public double U, V, W, R, InverseU;
     }
 
     [InlineArray(10)]
@@ -144,20 +144,16 @@ internal struct TriangleAxes
             }
             // Each corner's projection falls along +u when U > 0 (rises when U < 0), so "the lowest projection is at
             // most r" holds from some index on and "the highest is at least −r" up to some index (the reverse for U < 0).
-            double toBelow = Math.Min(row.Crossing(0, a.R), Math.Min(row.Crossing(1, a.R), row.Crossing(2, a.R)));
-            double toAbove = Math.Max(row.Crossing(0, -a.R), Math.Max(row.Crossing(1, -a.R), row.Crossing(2, -a.R)));
-            if (a.U > 0)
-            {
-                lo = row.FirstFrom(lo, hi, Guess(toBelow, lo, hi), below: true);
-                hi = row.LastUpTo(lo, hi, Guess(toAbove, lo, hi), below: false);
-            }
-            else
-            {
-                double fromAbove = Math.Min(row.Crossing(0, -a.R), Math.Min(row.Crossing(1, -a.R), row.Crossing(2, -a.R)));
-                double toBelowMax = Math.Max(row.Crossing(0, a.R), Math.Max(row.Crossing(1, a.R), row.Crossing(2, a.R)));
-                lo = row.FirstFrom(lo, hi, Guess(fromAbove, lo, hi), below: false);
-                hi = row.LastUpTo(lo, hi, Guess(toBelowMax, lo, hi), below: true);
-            }
+            double r0 = row.Crossing(0, a.R), r1 = row.Crossing(1, a.R), r2 = row.Crossing(2, a.R);
+            double m0 = row.Crossing(0, -a.R), m1 = row.Crossing(1, -a.R), m2 = row.Crossing(2, -a.R);
+            double toBelow = a.U > 0 ? Math.Min(r0, Math.Min(r1, r2)) : Math.Min(m0, Math.Min(m1, m2));
+            double toAbove = a.U > 0 ? Math.Max(m0, Math.Max(m1, m2)) : Math.Max(r0, Math.Max(r1, r2));
+            // toBelow: the centre position from which the lower end's test holds; toAbove: up to which the upper end's
+            // does. A bound more than a voxel outside the run cannot be moved by rounding, so only near ends are settled.
+            if (toBelow > lo - 1)
+                lo = row.FirstFrom(lo, hi, Guess(toBelow, lo, hi), below: a.U > 0);
+            if (toAbove < hi + 2)
+                hi = row.LastUpTo(lo, hi, Guess(toAbove, lo, hi), below: a.U < 0);
         }
         return lo <= hi;
     }
@@ -210,6 +206,8 @@ internal struct TriangleAxes
         a.V = av;
         a.W = aw;
         a.R = 0.5 * (Math.Abs(au) + Math.Abs(av) + Math.Abs(aw));
+        // Only for guessing where a run ends (the end is then settled exactly), so a reciprocal is precise enough.
+        a.InverseU = au == 0 ? 0 : 1 / au;
     }
 
     // A guessed index from a real-valued centre position t along u, kept within [lo − 1, hi + 1].
@@ -222,7 +220,7 @@ internal struct TriangleAxes
     /// <summary>One axis along one row: the corners' fixed parts, and the two halves of the axis test at an index.</summary>
     private readonly struct Row(in Axis a, double u0, double u1, double u2, double rest0, double rest1, double rest2)
     {
-        private readonly double _au = a.U, _r = a.R;
+        private readonly double _au = a.U, _r = a.R, _inverse = a.InverseU;
 
         // The same expressions as OverlapsVoxel: a.U · (uᵢ − c) + (a.V · dvᵢ + a.W · dwᵢ).
         private double P(int corner, int i)
@@ -246,7 +244,7 @@ internal struct TriangleAxes
         public double Crossing(int corner, double bound)
         {
             double u = corner == 0 ? u0 : corner == 1 ? u1 : u2, rest = corner == 0 ? rest0 : corner == 1 ? rest1 : rest2;
-            return u + (rest - bound) / _au;
+            return u + (rest - bound) * _inverse;
         }
 
         private bool Test(int i, bool below) => below ? ReachesBelow(i) : ReachesAbove(i);

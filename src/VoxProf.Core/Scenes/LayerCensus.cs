@@ -8,7 +8,7 @@ namespace VoxProf.Core.Scenes;
 /// Voxels whose final state this layer set (no later layer contains them): solid voxels for an add layer, emptied
 /// ones for a carve layer.
 /// </param>
-/// <param name="Voxelise">Processor time spent in the layer's Classify and Fill, summed over threads.</param>
+/// <param name="Voxelise">Time spent in the layer's Classify and Fill, summed over threads (wall time per call, so a busy machine inflates it).</param>
 public sealed record LayerTally(long Voxels, TimeSpan Voxelise);
 
 /// <summary>

@@ -45,7 +45,7 @@ public class TreeSummaryTests
         solid voxels           2000
         bytes per solid voxel  0.5725
         build time             12.5 ms
-        voxelise time          3.5 ms (processor time in the layers, summed over threads)
+        voxelise time          3.5 ms (time in the layers' Classify and Fill, summed over threads)
         load time              0.0 ms (reading and preparing the layers)
 
         layer  kind       label                     file                  op             voxels    load ms  voxelise ms  details
