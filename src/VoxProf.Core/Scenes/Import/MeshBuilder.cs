@@ -102,9 +102,10 @@ internal sealed class MeshBuilder
     public TriangleMesh Build()
     {
         _slots = [];
-        float[] positions = _positions.Length == 3 * _vertices ? _positions : _positions[..(3 * _vertices)];
+        // A few spare vertices cost less than a copy of a large array (the estimate for closed meshes is close).
+        float[] positions = _positions.Length - 3 * _vertices <= _positions.Length / 8 ? _positions : _positions[..(3 * _vertices)];
         int[] indices = _indices.Length == _indexCount ? _indices : _indices[.._indexCount];
-        return new TriangleMesh(positions, indices);
+        return new TriangleMesh(positions, indices, _vertices);
     }
 
     private static int[] NewSlots(int size)

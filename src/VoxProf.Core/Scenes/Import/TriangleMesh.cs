@@ -12,21 +12,26 @@ public sealed class TriangleMesh
     /// <summary>Largest distinct-vertex count accepted from any file.</summary>
     public const int MaxVertices = 1 << 25;
 
-    public TriangleMesh(float[] positions, int[] indices)
+    /// <param name="vertexCount">
+    /// Vertices in use, when <paramref name="positions"/> has room for a few more (a reader's array is handed over
+    /// rather than copied); −1 when every position is used.
+    /// </param>
+    public TriangleMesh(float[] positions, int[] indices, int vertexCount = -1)
     {
-        if (positions.Length % 3 != 0 || indices.Length % 3 != 0)
+        if (positions.Length % 3 != 0 || indices.Length % 3 != 0 || vertexCount > positions.Length / 3)
             throw new ArgumentException("positions and indices come in threes");
         Positions = positions;
         Indices = indices;
+        VertexCount = vertexCount < 0 ? positions.Length / 3 : vertexCount;
     }
 
-    /// <summary>x, y, z of each vertex.</summary>
+    /// <summary>x, y, z of each vertex (the array may run past <see cref="VertexCount"/>; the tail is unused).</summary>
     public float[] Positions { get; private set; }
 
     /// <summary>Three vertex indices per triangle.</summary>
     public int[] Indices { get; private set; }
 
-    public int VertexCount => Positions.Length / 3;
+    public int VertexCount { get; }
     public int TriangleCount => Indices.Length / 3;
 
     /// <summary>

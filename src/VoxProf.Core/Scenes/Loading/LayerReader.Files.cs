@@ -36,7 +36,7 @@ internal sealed partial class LayerReader
             }
         }
         int zeroArea = mesh.DropZeroArea();
-        int bad = placement.Apply(mesh.Positions, mesh.Indices);
+        int bad = placement.Apply(mesh.Positions, mesh.Indices, mesh.VertexCount);
         if (bad >= 0)
         {
             JsonValue at = o.Optional("fit") ?? o.Optional("scale") ?? o.Optional("offset") ?? fileValue;

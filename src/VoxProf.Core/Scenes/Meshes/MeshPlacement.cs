@@ -22,10 +22,11 @@ public sealed class MeshPlacement
     /// Places the vertices in place (the triangles only choose which vertices count for a fit). Returns −1, or the
     /// first vertex that lands outside ±<see cref="MaxCoordinate"/> (or on a non-finite value).
     /// </summary>
-    public int Apply(float[] positions, ReadOnlySpan<int> triangles)
+    public int Apply(float[] positions, ReadOnlySpan<int> triangles, int vertices = -1)
     {
         double[] m = Rotation();
-        int vertices = positions.Length / 3;
+        if (vertices < 0)
+            vertices = positions.Length / 3;
         double[] scale = Scale, offset = Offset;
         if (FitSize is double size)
         {
