@@ -55,7 +55,7 @@ public static class CameraChecks
         // The view direction, computed as the tracer computes it.
         Vector3 view = target - eye;
         if (view == Vector3.Zero)
-            return new(CameraPart.Target, "equals the eye; expected a point away from the eye for the camera to look at");
+            return new(CameraPart.Target, "equals the eye; expected a point the camera looks at, away from the eye");
         if (!float.IsFinite(view.X) || !float.IsFinite(view.Y) || !float.IsFinite(view.Z))
             return new(CameraPart.Target, "is too far from the eye for single precision; expected a point nearer the eye");
         Vector3 forward = Vector3.Normalize(view);
@@ -66,7 +66,7 @@ public static class CameraChecks
         }
 
         if (up == Vector3.Zero)
-            return new(CameraPart.Up, "is a zero vector; expected an up direction across the view, such as (0, 1, 0)");
+            return new(CameraPart.Up, "zero vector; expected an up direction across the view, such as (0, 1, 0)");
         // The angle between view and up in double, from the float inputs: |a × b| / (|a| |b|) = sin θ.
         double sine = Length(CrossD(view, up)) / (Length(view) * Length(up));
         if (!(sine >= MinUpSine))
