@@ -19,7 +19,7 @@ public sealed record ReportDocument(
     EnvironmentInfo Environment,
     TimingInfo Timings)
 {
-    /// <summary>2: one metric list keyed by name (schema 1 had per-counter and per-wave records).</summary>
+    /// <summary>2: one metric list keyed by name (schema 1 had a record per counter and per lockstep group).</summary>
     public const int CurrentSchema = 2;
 
     /// <summary>Reasons the numbers may mislead (a Debug build, say); empty when there are none.</summary>

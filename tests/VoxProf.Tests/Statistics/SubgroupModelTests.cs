@@ -4,7 +4,9 @@ namespace VoxProf.Tests.Statistics;
 
 public class SubgroupModelTests
 {
-    // Worked example of the definition: 31 lanes × 10 + 40 = 350 lane iterations over 32 lanes × 40 = 1280 slots.
+    // SIMD efficiency as defined by Aila & Laine (2009), "Understanding the efficiency of ray traversal on GPUs": the
+    // share of lane slots doing useful work. Worked by hand: 31 lanes × 10 + 40 = 350 lane iterations over
+    // 32 lanes × 40 = 1280 slots.
     [Fact]
     public void A_32_lane_tile_with_one_slow_lane_has_efficiency_350_over_1280()
     {
@@ -83,5 +85,12 @@ public class SubgroupModelTests
         pixels[3 * 10 + 8].Should().Be(0);
         pixels[4 * 10 + 0].Should().Be(0);
         pixels[4 * 10 + 8].Should().Be(3);
+    }
+
+    [Fact]
+    public void Shapes_are_named_by_their_lane_count()
+    {
+        SubgroupShape.Standard.Select(s => (s.Name, s.Lanes, s.TileWidth, s.TileHeight))
+            .Should().Equal(("subgroup32", 32, 8, 4), ("subgroup64", 64, 8, 8));
     }
 }
