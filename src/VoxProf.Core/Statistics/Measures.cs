@@ -12,9 +12,6 @@ namespace VoxProf.Core.Statistics;
 /// <param name="Description">What is measured, per pixel.</param>
 public sealed record MeasureDefinition(string Name, string Unit, bool LowerIsBetter, IReadOnlyList<Counter> Parts, string Description)
 {
-    /// <summary>True for a sum of counters rather than one counter.</summary>
-    public bool IsDerived => Parts.Count > 1;
-
     /// <summary>
     /// The measure's per-pixel values: the counter's own buffer for a plain counter, else a new array holding the
     /// per-pixel sum (saturating at <see cref="uint.MaxValue"/>, which no real ray reaches).

@@ -29,9 +29,6 @@ public static class MetricCatalogue
         new("max", "largest pixel", "0", s => s.Max),
     ];
 
-    /// <summary>The statistics every measure has, in column order.</summary>
-    public static IReadOnlyList<string> MeasureStatisticNames { get; } = MeasureStatistics.Select(s => s.Name).ToArray();
-
     private sealed record Entry(MetricDescriptor Metric, Func<StrategyStatistics, double?> Value);
 
     /// <summary>"GROUP.STATISTIC".</summary>

@@ -65,13 +65,18 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--fov 179.5", "--fov: 179.5 is not valid, expected a vertical field of view from 1 to 179 degrees")]
     public void Bad_options_exit_2_with_one_line_before_the_scene_is_read(string options, string message)
     {
-        var (code, output, error) = Run($"trace scene.json {options}");
+        ExpectOneLineBadInput($"trace scene.json {options}", message);
+        _sceneLoaded.Should().BeFalse();
+    }
+
+    private void ExpectOneLineBadInput(string args, string message)
+    {
+        var (code, output, error) = Run(args);
 
         code.Should().Be(ExitCodes.BadInput);
         error.Should().StartWith("voxprof: error: " + message);
         error.TrimEnd('\n').Should().NotContain("\n", "one line");
         output.Should().BeEmpty();
-        _sceneLoaded.Should().BeFalse();
     }
 
     [Fact]
@@ -148,12 +153,7 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--up 0,0,0", "--up 0,0,0: zero vector")]
     public void A_command_line_camera_gets_the_scene_file_checks_and_exits_2_before_tracing(string options, string message)
     {
-        var (code, output, error) = Run($"trace scene.json --out {_dir} {options}");
-
-        code.Should().Be(ExitCodes.BadInput);
-        error.Should().StartWith("voxprof: error: " + message);
-        error.TrimEnd('\n').Should().NotContain("\n", "one line");
-        output.Should().BeEmpty();
+        ExpectOneLineBadInput($"trace scene.json --out {_dir} {options}", message);
         _requests.Should().BeEmpty("nothing is traced with a broken camera");
     }
 
