@@ -59,10 +59,10 @@ public sealed class HeatmapExporter : IReportExporter
     public static double Top(StrategyResult r, string map)
     {
         CounterSummary s;
-        if (HeatmapNames.IsWave(map, out WaveShape shape))
+        if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
         {
             var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-            WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+            SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
             s = CounterSummary.Compute(tiles);
         }
         else
@@ -74,12 +74,12 @@ public sealed class HeatmapExporter : IReportExporter
 
     public static uint[] Values(StrategyResult r, string map)
     {
-        if (!HeatmapNames.IsWave(map, out WaveShape shape))
+        if (!HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return r.Counters[(int)Parse(map)];
         var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-        WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
         var pixels = new uint[r.Width * r.Height];
-        WaveModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
         return pixels;
     }
 
@@ -116,13 +116,13 @@ public sealed class MismatchExporter : IReportExporter
             return;
         foreach (StrategyStatistics s in context.Statistics)
         {
-            if (s.MismatchPixels == 0)
+            if (s.MismatchPixels is not { } mismatched || mismatched == 0)
                 continue;
             StrategyResult r = context.Run.Results.First(x => x.Strategy == s.Strategy);
             using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height);
             Png.AddText(image, "Strategy", s.Strategy.Name());
             Png.AddText(image, "Reference", reference.Strategy.Name());
-            Png.AddText(image, "Mismatched pixels", s.MismatchPixels.ToString(System.Globalization.CultureInfo.InvariantCulture));
+            Png.AddText(image, "Mismatched pixels", mismatched.ToString(System.Globalization.CultureInfo.InvariantCulture));
             output.Write(OutputNames.Mismatch(s.Strategy.Name()), st => Png.Save(image, st));
         }
     }

@@ -82,7 +82,10 @@ public class InspectCommandTests
         Scene scene = SceneLoader.Load(path);
         string[] lines = output.Split('\n');
         foreach (Layer layer in scene.Layers)
-            lines.Should().Contain(l => l.Contains(layer.Label![..Math.Min(20, layer.Label!.Length)], StringComparison.Ordinal) && l.Contains(layer.Kind, StringComparison.Ordinal));
+        {
+            string label = layer.Label![..Math.Min(20, layer.Label!.Length)];
+            lines.Should().Contain(l => l.Contains(label, StringComparison.Ordinal) && l.Contains(layer.Kind, StringComparison.Ordinal));
+        }
         foreach (CameraSpec camera in scene.Cameras)
             lines.Should().Contain(l => l.StartsWith(camera.Name + " ", StringComparison.Ordinal));
         output.Should().Contain("voxelise time").And.Contain("build time");
