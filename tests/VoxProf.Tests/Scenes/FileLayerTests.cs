@@ -6,7 +6,6 @@ using SixLabors.ImageSharp.PixelFormats;
 using VoxProf.Core;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
-using VoxProf.Core.Scenes.Import;
 using VoxProf.Core.Scenes.Layers;
 using VoxProf.Tests.Scenes.Meshes;
 
@@ -78,7 +77,7 @@ public class FileLayerTests
         using (TempScene scene = TempScene.With("{'kind': 'mesh', 'material': 2, 'file': 'm.obj'}"))
         {
             scene.WriteSideFile("m.obj", Encoding.ASCII.GetBytes("v 0 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 7\n"));
-            var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<ImportException>().Which;
+            var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<SceneFormatException>().Which;
             (ex.File, ex.Where).Should().Be((Path.Combine(scene.Folder, "m.obj"), "line 4"));
         }
     }
@@ -141,7 +140,7 @@ public class FileLayerTests
             image.SaveAsPng(ms);
             scene.WriteSideFile("h.png", ms.ToArray());
         }
-        var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<ImportException>().Which;
+        var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<SceneFormatException>().Which;
         ex.Problem.Should().EndWith("expected greyscale with 8 or 16 bits");
     }
 
@@ -207,7 +206,7 @@ public class FileLayerTests
     {
         using TempScene scene = TempScene.With("{'kind': 'raw', 'material': 5, 'file': 'v.nrrd'}");
         scene.WriteSideFile("v.nrrd", Encoding.ASCII.GetBytes(file));
-        var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<ImportException>().Which;
+        var ex = FluentActions.Invoking(() => Load(scene)).Should().Throw<SceneFormatException>().Which;
         ex.Where.Should().Be(where);
         ex.Problem.Should().Contain(problem);
         ex.Should().BeAssignableTo<InputException>();

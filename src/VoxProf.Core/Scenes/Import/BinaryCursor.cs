@@ -7,15 +7,14 @@ namespace VoxProf.Core.Scenes.Import;
 /// Reads fixed-size records from a stream through a buffer, tracking the byte offset so a short file is reported at
 /// the exact record that is missing.
 /// </summary>
-internal sealed class BinaryCursor(Stream stream, string file, long startOffset, ReadOnlyMemory<byte> prefix = default)
+internal sealed class BinaryCursor(Stream stream, string file, long startOffset)
 {
     private readonly byte[] _buffer = new byte[1 << 16];
     private int _start, _end;
-    private ReadOnlyMemory<byte> _prefix = prefix;
 
     public long Offset { get; private set; } = startOffset;
 
-    public string Where => ImportException.Offset(Offset);
+    public string Where => FilePlace.Offset(Offset);
 
     /// <summary>The next <paramref name="count"/> bytes (at most 64 KiB), or an error naming what was cut short.</summary>
     public ReadOnlySpan<byte> Take(int count, string what)
@@ -46,24 +45,14 @@ internal sealed class BinaryCursor(Stream stream, string file, long startOffset,
         _start = 0;
         while (_end < _buffer.Length)
         {
-            int n;
-            if (!_prefix.IsEmpty)
-            {
-                n = Math.Min(_prefix.Length, _buffer.Length - _end);
-                _prefix.Span[..n].CopyTo(_buffer.AsSpan(_end));
-                _prefix = _prefix[n..];
-            }
-            else
-            {
-                n = stream.Read(_buffer, _end, _buffer.Length - _end);
-            }
+            int n = stream.Read(_buffer, _end, _buffer.Length - _end);
             if (n == 0)
                 break;
             _end += n;
         }
         if (_end < count)
         {
-            throw new ImportException(file, Where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, Where, string.Create(CultureInfo.InvariantCulture,
                 $"file ends with {_end} of the {count} bytes of {what}; expected the whole record"));
         }
     }

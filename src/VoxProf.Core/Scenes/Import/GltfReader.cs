@@ -32,13 +32,13 @@ internal static class GltfReader
         catch (Exception ex) when (ex is ModelException or InvalidDataException or FormatException or ArgumentException
             or InvalidOperationException or System.Text.Json.JsonException or EndOfStreamException or NotSupportedException)
         {
-            throw new ImportException(file, "$", "not a valid glTF 2.0 file: " + OneLine(ex.Message));
+            throw new SceneFormatException(file, "$", "not a valid glTF 2.0 file: " + OneLine(ex.Message));
         }
 
         var builder = new MeshBuilder(file);
         SharpGLTF.Schema2.Scene? scene = model.DefaultScene ?? model.LogicalScenes.FirstOrDefault();
         if (scene is null)
-            throw new ImportException(file, "$.scenes", "no scene; expected a scene whose nodes hold meshes");
+            throw new SceneFormatException(file, "$.scenes", "no scene; expected a scene whose nodes hold meshes");
         foreach (Node node in Node.Flatten(scene))
         {
             if (node.Mesh is null)
@@ -52,7 +52,7 @@ internal static class GltfReader
                     $"$.meshes[{node.Mesh.LogicalIndex}].primitives[{primitive.LogicalIndex}]");
                 Accessor? positions = primitive.GetVertexAccessor("POSITION");
                 if (positions is null)
-                    throw new ImportException(file, where, "no POSITION attribute; expected vertex positions");
+                    throw new SceneFormatException(file, where, "no POSITION attribute; expected vertex positions");
                 var ids = new int[positions.Count];
                 int v = 0;
                 foreach (Vector3 p in positions.AsVector3Array())
@@ -65,7 +65,7 @@ internal static class GltfReader
                 {
                     if ((uint)a >= ids.Length || (uint)b >= ids.Length || (uint)c >= ids.Length)
                     {
-                        throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+                        throw new SceneFormatException(file, where, string.Create(CultureInfo.InvariantCulture,
                             $"index out of range ({a}, {b}, {c}); expected 0 to {ids.Length - 1}"));
                     }
                     builder.AddTriangle(ids[a], ids[b], ids[c], where);
@@ -73,7 +73,7 @@ internal static class GltfReader
             }
         }
         if (builder.TriangleCount == 0)
-            throw new ImportException(file, "$", "no triangles in the default scene; expected a mesh with triangle primitives");
+            throw new SceneFormatException(file, "$", "no triangles in the default scene; expected a mesh with triangle primitives");
         return builder.Build();
     }
 
@@ -81,16 +81,16 @@ internal static class GltfReader
     {
         string where = "uri \"" + uri + "\"";
         if (uri.Contains(':', StringComparison.Ordinal) || uri.StartsWith('/') || uri.StartsWith('\\'))
-            throw new ImportException(file, where, "absolute or external URI; expected a path relative to the glTF file, inside the scene's folder");
+            throw new SceneFormatException(file, where, "absolute or external URI; expected a path relative to the glTF file, inside the scene's folder");
         string path = Path.GetFullPath(Path.Combine(folder, Uri.UnescapeDataString(uri)));
         if (!path.StartsWith(root, StringComparison.Ordinal))
-            throw new ImportException(file, where, $"resolves to {path}, outside the scene's folder {root}; expected a file inside it");
+            throw new SceneFormatException(file, where, $"resolves to {path}, outside the scene's folder {root}; expected a file inside it");
         if (!File.Exists(path))
-            throw new ImportException(file, where, $"file not found: {path}");
+            throw new SceneFormatException(file, where, $"file not found: {path}");
         total.Value += new FileInfo(path).Length;
         if (total.Value > MaxBytes)
         {
-            throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, where, string.Create(CultureInfo.InvariantCulture,
                 $"the glTF and its files exceed {MaxBytes} bytes; expected at most that"));
         }
         byte[] data = File.ReadAllBytes(path);

@@ -38,7 +38,7 @@ internal sealed class MeshBuilder
     {
         if (!float.IsFinite(x) || !float.IsFinite(y) || !float.IsFinite(z))
         {
-            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"vertex ({x}, {y}, {z}) is not finite; expected finite coordinates (no NaN or infinity)"));
         }
         // −0 and +0 are one position.
@@ -59,7 +59,7 @@ internal sealed class MeshBuilder
         }
         if (_vertices >= TriangleMesh.MaxVertices)
         {
-            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"more than {TriangleMesh.MaxVertices} distinct vertices; expected at most that many"));
         }
         if (3 * _vertices + 3 > _positions.Length)
@@ -81,7 +81,7 @@ internal sealed class MeshBuilder
     {
         if (_indexCount / 3 >= TriangleMesh.MaxTriangles)
         {
-            throw new ImportException(_file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(_file, where, string.Create(CultureInfo.InvariantCulture,
                 $"more than {TriangleMesh.MaxTriangles} triangles; expected at most that many"));
         }
         if (_indexCount + 3 > _indices.Length)

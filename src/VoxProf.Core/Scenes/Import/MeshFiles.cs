@@ -18,7 +18,7 @@ public static class MeshFiles
 
     /// <summary>
     /// Reads a mesh file. Every byte read (and, for glTF, every external buffer) is appended to <paramref name="hash"/>
-    /// when given. Problems inside the file throw <see cref="ImportException"/> naming the line or byte offset.
+    /// when given. Problems inside the file throw <see cref="SceneFormatException"/> naming the line or byte offset.
     /// </summary>
     /// <param name="sceneDirectory">Folder glTF external URIs must stay inside.</param>
     public static TriangleMesh Read(string path, string format, string sceneDirectory, IncrementalHash? hash = null)
@@ -28,7 +28,7 @@ public static class MeshFiles
         {
             if (length > GltfReader.MaxBytes)
             {
-                throw new ImportException(path, "$", string.Create(CultureInfo.InvariantCulture,
+                throw new SceneFormatException(path, "$", string.Create(CultureInfo.InvariantCulture,
                     $"file holds {length} bytes; expected at most {GltfReader.MaxBytes}"));
             }
             byte[] bytes = File.ReadAllBytes(path);

@@ -31,7 +31,7 @@ internal sealed class NrrdHeader
         while (true)
         {
             if (!lines.Next(out ReadOnlySpan<byte> line))
-                throw new ImportException(file, ImportException.Line(lines.LineNumber + 1), "file ends in the header; expected a blank line and then the data");
+                throw new SceneFormatException(file, FilePlace.Line(lines.LineNumber + 1), "file ends in the header; expected a blank line and then the data");
             if (line.IsEmpty)
                 break;
             if (line[0] == '#')
@@ -89,13 +89,13 @@ internal sealed class NrrdHeader
         }
         else if (header.Type != VoxelType.U8)
         {
-            throw new ImportException(file, "header", "no endian field; expected \"endian: little\" or \"endian: big\" for samples wider than a byte");
+            throw new SceneFormatException(file, "header", "no endian field; expected \"endian: little\" or \"endian: big\" for samples wider than a byte");
         }
         return header;
     }
 
     private static (string Value, long Line) Field(Dictionary<string, (string Value, long Line)> fields, string name, string file) =>
-        fields.TryGetValue(name, out var f) ? f : throw new ImportException(file, "header", $"no \"{name}\" field; expected one");
+        fields.TryGetValue(name, out var f) ? f : throw new SceneFormatException(file, "header", $"no \"{name}\" field; expected one");
 
-    private static ImportException Error(string file, long line, string problem) => new(file, ImportException.Line(line), problem);
+    private static SceneFormatException Error(string file, long line, string problem) => new(file, FilePlace.Line(line), problem);
 }

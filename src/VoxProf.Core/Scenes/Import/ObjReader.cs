@@ -51,7 +51,7 @@ internal static class ObjReader
             }
         }
         if (builder.TriangleCount == 0)
-            throw new ImportException(file, "$", "no faces; expected \"f\" statements");
+            throw new SceneFormatException(file, "$", "no faces; expected \"f\" statements");
         return builder.Build();
     }
 

@@ -52,7 +52,7 @@ internal sealed class PlyHeader
         while (true)
         {
             if (!lines.Next(out ReadOnlySpan<byte> line))
-                throw new ImportException(lines.File, ImportException.Line(lines.LineNumber + 1), "file ends in the header; expected \"end_header\"");
+                throw new SceneFormatException(lines.File, FilePlace.Line(lines.LineNumber + 1), "file ends in the header; expected \"end_header\"");
             var words = new Words(line);
             if (!words.Next(out ReadOnlySpan<byte> key))
                 continue;

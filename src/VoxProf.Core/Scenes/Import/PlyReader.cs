@@ -22,7 +22,7 @@ internal static class PlyReader
             long least = header.Length + header.Elements.Sum(e => e.Count * PlyHeader.MinRecordBytes(e));
             if (length < least)
             {
-                throw new ImportException(file, ImportException.Offset(length), string.Create(CultureInfo.InvariantCulture,
+                throw new SceneFormatException(file, FilePlace.Offset(length), string.Create(CultureInfo.InvariantCulture,
                     $"file ends after {length} bytes; expected at least {least} for the element counts in the header"));
             }
         }
@@ -30,7 +30,7 @@ internal static class PlyReader
         var builder = new MeshBuilder(file);
         var ids = new int[vertex.Count];
         var source = header.Binary
-            ? new Source(file, new BinaryCursor(stream, file, header.Length, lines.Leftover), header.BigEndian)
+            ? new Source(file, new BinaryCursor(new PrefixedStream(lines.Leftover, stream), file, header.Length), header.BigEndian)
             : new Source(file, lines);
         foreach (PlyElement element in header.Elements)
         {
@@ -55,25 +55,25 @@ internal static class PlyReader
         PlyElement? vertex = header.Elements.FirstOrDefault(e => e.Name == "vertex");
         PlyElement? face = header.Elements.FirstOrDefault(e => e.Name == "face");
         if (vertex is null || face is null)
-            throw new ImportException(file, "header", "expected a \"vertex\" element and a \"face\" element");
-        string where = ImportException.Line(vertex.Line);
+            throw new SceneFormatException(file, "header", "expected a \"vertex\" element and a \"face\" element");
+        string where = FilePlace.Line(vertex.Line);
         foreach (string axis in (string[])["x", "y", "z"])
         {
             if (!vertex.Properties.Any(p => p.Name == axis && !p.IsList))
-                throw new ImportException(file, where, $"vertex element has no scalar property \"{axis}\"; expected x, y and z");
+                throw new SceneFormatException(file, where, $"vertex element has no scalar property \"{axis}\"; expected x, y and z");
         }
         if (header.Elements.IndexOf(face) < header.Elements.IndexOf(vertex))
-            throw new ImportException(file, ImportException.Line(face.Line), "face element before the vertex element; expected vertices first");
+            throw new SceneFormatException(file, FilePlace.Line(face.Line), "face element before the vertex element; expected vertices first");
         if (!face.Properties.Any(p => p.IsList && p.Name is "vertex_indices" or "vertex_index"))
-            throw new ImportException(file, ImportException.Line(face.Line), "face element has no list property \"vertex_indices\" (or \"vertex_index\")");
+            throw new SceneFormatException(file, FilePlace.Line(face.Line), "face element has no list property \"vertex_indices\" (or \"vertex_index\")");
         if (vertex.Count > TriangleMesh.MaxVertices)
         {
-            throw new ImportException(file, where, string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, where, string.Create(CultureInfo.InvariantCulture,
                 $"{vertex.Count} vertices; expected at most {TriangleMesh.MaxVertices}"));
         }
         if (face.Count > TriangleMesh.MaxTriangles)
         {
-            throw new ImportException(file, ImportException.Line(face.Line), string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, FilePlace.Line(face.Line), string.Create(CultureInfo.InvariantCulture,
                 $"{face.Count} faces; expected at most {TriangleMesh.MaxTriangles}"));
         }
         return (vertex, face);
@@ -119,7 +119,7 @@ internal static class PlyReader
             long count = (long)source.Scalar(p.CountType, "a face's corner count");
             if (count < 3 || count > PlyHeader.MaxCorners)
             {
-                throw new ImportException(source.File, where, string.Create(CultureInfo.InvariantCulture,
+                throw new SceneFormatException(source.File, where, string.Create(CultureInfo.InvariantCulture,
                     $"face {record} has {count} corners; expected 3 to {PlyHeader.MaxCorners}"));
             }
             for (int k = 0; k < count; k++)
@@ -127,7 +127,7 @@ internal static class PlyReader
                 double index = source.Scalar(p.Type, "a face's vertex index");
                 if (index < 0 || index >= ids.Length || index != Math.Floor(index))
                 {
-                    throw new ImportException(source.File, where, string.Create(CultureInfo.InvariantCulture,
+                    throw new SceneFormatException(source.File, where, string.Create(CultureInfo.InvariantCulture,
                         $"face {record} vertex index {index} is out of range; expected 0 to {ids.Length - 1}"));
                 }
                 corners[k] = ids[(long)index];
@@ -172,7 +172,7 @@ internal static class PlyReader
             {
                 if (!_lines.Next(out line))
                 {
-                    throw new ImportException(_lines.File, ImportException.Line(_lines.LineNumber + 1),
+                    throw new SceneFormatException(_lines.File, FilePlace.Line(_lines.LineNumber + 1),
                         $"file ends; expected a line holding a \"{element.Name}\" record");
                 }
             }
@@ -218,7 +218,7 @@ internal static class PlyReader
             long count = (long)Scalar(p.CountType, $"the count of list {p.Name}");
             if (count < 0 || count > PlyHeader.MaxCorners)
             {
-                throw new ImportException(File, Where, string.Create(CultureInfo.InvariantCulture,
+                throw new SceneFormatException(File, Where, string.Create(CultureInfo.InvariantCulture,
                     $"list {p.Name} holds {count} items; expected 0 to {PlyHeader.MaxCorners}"));
             }
             for (long k = 0; k < count; k++)

@@ -19,19 +19,19 @@ internal sealed record PngHeights(ushort[] Values, int Width, int Height, int Ma
         }
         catch (Exception ex) when (ex is ImageFormatException or InvalidDataException)
         {
-            throw new ImportException(file, "$", "not a readable PNG (" + ex.Message + "); expected an 8- or 16-bit greyscale PNG");
+            throw new SceneFormatException(file, "$", "not a readable PNG (" + ex.Message + "); expected an 8- or 16-bit greyscale PNG");
         }
         if (info is null || format is not PngFormat)
-            throw new ImportException(file, "$", $"not a PNG (found {format?.Name ?? "an unknown format"}); expected an 8- or 16-bit greyscale PNG");
+            throw new SceneFormatException(file, "$", $"not a PNG (found {format?.Name ?? "an unknown format"}); expected an 8- or 16-bit greyscale PNG");
         PngMetadata png = info.Metadata.GetPngMetadata();
         if (png.ColorType != PngColorType.Grayscale || png.BitDepth is not (PngBitDepth.Bit8 or PngBitDepth.Bit16))
         {
-            throw new ImportException(file, "$", string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, "$", string.Create(CultureInfo.InvariantCulture,
                 $"colour type {png.ColorType}, {BitsOf(png.BitDepth)} bits; expected greyscale with 8 or 16 bits"));
         }
         if ((long)info.Width * info.Height > maxPixels)
         {
-            throw new ImportException(file, "$", string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, "$", string.Create(CultureInfo.InvariantCulture,
                 $"{info.Width} × {info.Height} pixels; expected at most {maxPixels}"));
         }
         int max = png.BitDepth == PngBitDepth.Bit8 ? 255 : 65535;

@@ -23,7 +23,7 @@ internal static class StlReader
         {
             if (solid)
                 return ReadAscii(stream, head, file);
-            throw new ImportException(file, ImportException.Offset(length), string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(file, FilePlace.Offset(length), string.Create(CultureInfo.InvariantCulture,
                 $"file ends after {length} bytes; expected an 80-byte header and a 4-byte triangle count"));
         }
         uint count = BinaryPrimitives.ReadUInt32LittleEndian(head.AsSpan(HeaderBytes));
@@ -32,7 +32,7 @@ internal static class StlReader
         {
             if (count > TriangleMesh.MaxTriangles)
             {
-                throw new ImportException(file, ImportException.Offset(HeaderBytes), string.Create(CultureInfo.InvariantCulture,
+                throw new SceneFormatException(file, FilePlace.Offset(HeaderBytes), string.Create(CultureInfo.InvariantCulture,
                     $"triangle count {count}; expected at most {TriangleMesh.MaxTriangles}"));
             }
             return ReadBinary(stream, (int)count, file);
@@ -40,7 +40,7 @@ internal static class StlReader
         if (solid)
             return ReadAscii(stream, head, file);
         long firstShort = HeaderBytes + 4 + RecordBytes * Math.Min(count, (length - HeaderBytes - 4) / RecordBytes);
-        throw new ImportException(file, ImportException.Offset(Math.Min(firstShort, length)), string.Create(CultureInfo.InvariantCulture,
+        throw new SceneFormatException(file, FilePlace.Offset(Math.Min(firstShort, length)), string.Create(CultureInfo.InvariantCulture,
             $"file holds {length} bytes; expected 84 + 50 × {count} = {expected} for the {count} triangles counted at byte offset 80 (a binary STL; an ASCII one starts with \"solid\")"));
     }
 
@@ -58,9 +58,9 @@ internal static class StlReader
                 ReadOnlySpan<byte> v = r.Slice(12 + 12 * k, 12);
                 corner[k] = builder.AddVertex(BinaryPrimitives.ReadSingleLittleEndian(v),
                     BinaryPrimitives.ReadSingleLittleEndian(v[4..]), BinaryPrimitives.ReadSingleLittleEndian(v[8..]),
-                    ImportException.Offset(record + 12 + 12 * k));
+                    FilePlace.Offset(record + 12 + 12 * k));
             }
-            builder.AddTriangle(corner[0], corner[1], corner[2], ImportException.Offset(record));
+            builder.AddTriangle(corner[0], corner[1], corner[2], FilePlace.Offset(record));
         }
         return builder.Build();
     }
@@ -69,7 +69,7 @@ internal static class StlReader
     private static TriangleMesh ReadAscii(Stream stream, byte[] head, string file)
     {
         var builder = new MeshBuilder(file);
-        var lines = new TextLines(stream, file, head);
+        var lines = new TextLines(new PrefixedStream(head, stream), file);
         Span<int> corner = stackalloc int[3];
         int state = 0; // 0 outside a solid, 1 in a solid, 2 after facet, 3 in a loop, 4 after endloop
         int vertices = 0;
@@ -112,7 +112,7 @@ internal static class StlReader
         if (!any)
             throw lines.Error("empty file; expected an ASCII STL starting with \"solid\"");
         if (state != 0)
-            throw new ImportException(file, ImportException.Line(lines.LineNumber + 1), $"file ends; expected {Expected(state, vertices)}");
+            throw new SceneFormatException(file, FilePlace.Line(lines.LineNumber + 1), $"file ends; expected {Expected(state, vertices)}");
         return builder.Build();
     }
 

@@ -8,19 +8,18 @@ namespace VoxProf.Core.Scenes.Import;
 /// name them. Lines longer than 1 MiB are refused: no text mesh format needs them and a binary file read as text
 /// would otherwise be buffered whole.
 /// </summary>
-internal sealed class TextLines(Stream stream, string file, ReadOnlyMemory<byte> prefix = default)
+internal sealed class TextLines(Stream stream, string file)
 {
     private const int MaxLine = 1 << 20;
 
     private byte[] _buffer = new byte[1 << 16];
     private int _start, _end;
     private bool _eof;
-    private ReadOnlyMemory<byte> _prefix = prefix;
 
     /// <summary>Number of the line last returned by <see cref="Next"/>.</summary>
     public long LineNumber { get; private set; }
 
-    public string Where => ImportException.Line(LineNumber);
+    public string Where => FilePlace.Line(LineNumber);
 
     public string File => file;
 
@@ -60,7 +59,7 @@ internal sealed class TextLines(Stream stream, string file, ReadOnlyMemory<byte>
     /// <summary>The bytes read past the last line returned (binary data after a text header) and the stream itself.</summary>
     public ReadOnlyMemory<byte> Leftover => _buffer.AsMemory(_start, _end - _start);
 
-    public ImportException Error(string problem) => new(file, Where, problem);
+    public SceneFormatException Error(string problem) => new(file, Where, problem);
 
     private void Fill()
     {
@@ -73,20 +72,10 @@ internal sealed class TextLines(Stream stream, string file, ReadOnlyMemory<byte>
         if (_end == _buffer.Length)
         {
             if (_buffer.Length >= MaxLine)
-                throw new ImportException(file, ImportException.Line(LineNumber + 1), "line longer than 1 MiB; expected a text file of short lines");
+                throw new SceneFormatException(file, FilePlace.Line(LineNumber + 1), "line longer than 1 MiB; expected a text file of short lines");
             Array.Resize(ref _buffer, _buffer.Length * 2);
         }
-        int n;
-        if (!_prefix.IsEmpty)
-        {
-            n = Math.Min(_prefix.Length, _buffer.Length - _end);
-            _prefix.Span[..n].CopyTo(_buffer.AsSpan(_end));
-            _prefix = _prefix[n..];
-        }
-        else
-        {
-            n = stream.Read(_buffer, _end, _buffer.Length - _end);
-        }
+        int n = stream.Read(_buffer, _end, _buffer.Length - _end);
         if (n == 0)
             _eof = true;
         _end += n;

@@ -43,7 +43,7 @@ public static class VolumeFiles
                 if (n == 0)
                 {
                     long at = dataOffset + done * size + got;
-                    throw new ImportException(file, ImportException.Offset(at), string.Create(CultureInfo.InvariantCulture,
+                    throw new SceneFormatException(file, FilePlace.Offset(at), string.Create(CultureInfo.InvariantCulture,
                         $"voxel data ends after {done * size + got} bytes; expected {voxels * size} ({voxels} samples of {size} bytes)"));
                 }
                 got += n;

@@ -152,13 +152,13 @@ internal sealed partial class LayerReader
         long voxels = (long)size[0] * size[1] * size[2];
         if (voxels > RawLayer.MaxVoxels)
         {
-            throw new ImportException(full, "header", string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(full, "header", string.Create(CultureInfo.InvariantCulture,
                 $"sizes {size[0]} × {size[1]} × {size[2]} make {voxels} voxels; expected at most {RawLayer.MaxVoxels}"));
         }
         long dataBytes = voxels * VolumeFiles.SizeOf(header.Type);
         if (!header.Gzip && length - header.Length != dataBytes)
         {
-            throw new ImportException(full, ImportException.Offset(header.Length), string.Create(CultureInfo.InvariantCulture,
+            throw new SceneFormatException(full, FilePlace.Offset(header.Length), string.Create(CultureInfo.InvariantCulture,
                 $"raw data holds {length - header.Length} bytes; expected {dataBytes} ({size[0]} × {size[1]} × {size[2]} samples of {VolumeFiles.SizeOf(header.Type)} bytes)"));
         }
         Stream data = new PrefixedStream(lines.Leftover, stream);
@@ -171,7 +171,7 @@ internal sealed partial class LayerReader
         }
         catch (InvalidDataException ex)
         {
-            throw new ImportException(full, ImportException.Offset(header.Length), "gzip data is corrupt (" + ex.Message + "); expected a gzip stream of the samples");
+            throw new SceneFormatException(full, FilePlace.Offset(header.Length), "gzip data is corrupt (" + ex.Message + "); expected a gzip stream of the samples");
         }
         stream.Drain();
         return new RawLayer(op, material, mask, size[0], size[1], size[2], origin[0], origin[1], origin[2], extent);

@@ -3,6 +3,7 @@ using System.Numerics;
 using System.Runtime.InteropServices;
 using System.Text;
 using SharpGLTF.Schema2;
+using VoxProf.Core;
 using VoxProf.Core.Scenes.Import;
 using VoxProf.Tests.Scenes.Meshes;
 
@@ -29,9 +30,9 @@ public sealed class MeshImportTests : IDisposable
     private TriangleMesh Read(string path, string? format = null) =>
         MeshFiles.Read(path, format ?? MeshFiles.FormatOf(path)!, _dir);
 
-    private ImportException Reject(string path, string? format = null)
+    private SceneFormatException Reject(string path, string? format = null)
     {
-        var ex = FluentActions.Invoking(() => Read(path, format)).Should().Throw<ImportException>().Which;
+        var ex = FluentActions.Invoking(() => Read(path, format)).Should().Throw<SceneFormatException>().Which;
         ex.File.Should().Be(path);
         ex.Message.Should().StartWith($"{path}: {ex.Where}: ").And.NotContain("\n");
         return ex;
@@ -112,7 +113,7 @@ public sealed class MeshImportTests : IDisposable
                 .Replace("\"box.bin\"", $"\"../{Path.GetFileName(outside)}/box.bin\"", StringComparison.Ordinal);
             string path = Write("scene/inner.gltf", text);
             var ex = FluentActions.Invoking(() => MeshFiles.Read(path, "gltf", Path.Combine(_dir, "scene")))
-                .Should().Throw<ImportException>().Which;
+                .Should().Throw<SceneFormatException>().Which;
             ex.Where.Should().Contain("box.bin");
             ex.Problem.Should().Contain("outside the scene's folder");
         }
@@ -238,14 +239,7 @@ public sealed class MeshImportTests : IDisposable
                 BinaryPrimitives.WriteInt32LittleEndian(b, v);
             ms.Write(b);
         }
-        void Float(float v)
-        {
-            if (big)
-                BinaryPrimitives.WriteSingleBigEndian(b, v);
-            else
-                BinaryPrimitives.WriteSingleLittleEndian(b, v);
-            ms.Write(b);
-        }
+        void Float(float v) => Int(BitConverter.SingleToInt32Bits(v));
         var text = new StringBuilder();
         for (int v = 0; v < vertices; v++)
         {
