@@ -45,8 +45,9 @@ public sealed class MeshImportTests : IDisposable
 
     private static readonly MeshShapes.Mesh Box = MeshShapes.Box(0.5, 1, 2, 3, 4.25, 6);
 
-    // Binary STL as its format description defines it: an 80-byte header, a little-endian uint32 triangle count, and
-    // per triangle a 50-byte record of twelve float32 (normal, three corners) and a uint16 attribute count.
+    // Binary STL as its format description defines it (3D Systems, "StereoLithography Interface Specification", 1988;
+    // cited from memory): an 80-byte header, a little-endian uint32 triangle count, and per triangle a 50-byte record of
+    // twelve float32 (normal, three corners) and a uint16 attribute byte count.
     [Fact]
     public void Binary_stl_reads_the_documented_layout_and_welds_shared_corners()
     {
