@@ -25,7 +25,7 @@ public static class DifferenceImage
             throw new ArgumentException($"expected {width}x{height} = {width * height} pixels, got {differences.Length} differences and {checkered.Length} marks");
         double range = maxAbs > 0 ? maxAbs : 1;
         var clip = Count(differences, range);
-        var (image, layout) = ImageLayout.Create(width, height, title.WithDetails(ScaleText(range, rangeNote, clip)), (_, s) => Legend.Height(s));
+        var (image, layout) = ImageLayout.Create(width, height, title.WithDetails(ScaleFields(range, rangeNote, clip)), (_, s) => Legend.Height(s));
         double toFraction = 1 / range;
         for (int y = 0; y < height; y++)
         {
@@ -46,14 +46,13 @@ public static class DifferenceImage
         return image;
     }
 
-    public static string ScaleText(double maxAbs, string rangeNote, ScaleClip clip)
+    /// <summary>Title fields: "scale -17 to +17 (how it was chosen)", and the share of pixels beyond it when there are any.</summary>
+    public static string[] ScaleFields(double maxAbs, string rangeNote, ScaleClip clip)
     {
-        string text = $"scale {TickFormat.Precise(-maxAbs)} to +{TickFormat.Precise(maxAbs)}";
+        string scale = $"scale {TickFormat.Precise(-maxAbs)} to +{TickFormat.Precise(maxAbs)}";
         if (rangeNote.Length > 0)
-            text += $" ({rangeNote})";
-        if (clip.Below + clip.Above > 0)
-            text += $"{TitleBand.Separator}{clip.BeyondShare} of pixels beyond it";
-        return text;
+            scale += $" ({rangeNote})";
+        return clip.Below + clip.Above > 0 ? [scale, $"{clip.BeyondShare} of pixels beyond it"] : [scale];
     }
 
     /// <summary>The two ends (marked ≤ / ≥ when differences go beyond them), 0, and round steps between.</summary>

@@ -1,4 +1,3 @@
-using System.Globalization;
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 using VoxProf.Reports.Colour;
@@ -20,22 +19,22 @@ public static class HeatmapImage
         if (values.Length != width * height)
             throw new ArgumentException("value image size does not match width × height", nameof(values));
         var clip = ScaleClip.Count(values, scale.Min, scale.Max);
-        var (image, layout) = ImageLayout.Create(width, height, title.WithDetails(ScaleText(scale, clip)), (_, s) => Legend.Height(s));
+        var (image, layout) = ImageLayout.Create(width, height, title.WithDetails(ScaleFields(scale, clip)), (_, s) => Legend.Height(s));
         Fill(image, layout, values, scale);
         Legend.Draw(image, layout.LegendTop, layout.FontScale, SequentialRamp.Map, LegendTicks(scale, clip, Legend.TickRoom(layout.Width, layout.FontScale)));
         return image;
     }
 
-    /// <summary>"linear scale 0 to 116", and the share of pixels above (or below) it when there are any.</summary>
-    public static string ScaleText(HeatmapScale scale, ScaleClip clip)
+    /// <summary>Title fields: "linear scale 0 to 116", and the share of pixels below or above it when there are any.</summary>
+    public static string[] ScaleFields(HeatmapScale scale, ScaleClip clip)
     {
         string kind = scale.Kind == ScaleKind.Log ? "log" : "linear";
-        string text = $"{kind} scale {TickFormat.Precise(scale.Min)} to {TickFormat.Precise(scale.Max)}";
+        var fields = new List<string> { $"{kind} scale {TickFormat.Precise(scale.Min)} to {TickFormat.Precise(scale.Max)}" };
         if (clip.Below > 0)
-            text += $"{TitleBand.Separator}{clip.BelowShare} of pixels below {TickFormat.Precise(scale.Min)}";
+            fields.Add($"{clip.BelowShare} of pixels below {TickFormat.Precise(scale.Min)}");
         if (clip.Above > 0)
-            text += $"{TitleBand.Separator}{clip.AboveShare} of pixels above {TickFormat.Precise(scale.Max)}";
-        return text;
+            fields.Add($"{clip.AboveShare} of pixels above {TickFormat.Precise(scale.Max)}");
+        return [.. fields];
     }
 
     /// <summary>
@@ -79,42 +78,5 @@ public static class HeatmapImage
                 row[x] = byValue is null ? SequentialRamp.Map(scale.Fraction(v)) : v < (uint)byValue.Length ? byValue[v] : top;
             }
         }
-    }
-}
-
-/// <summary>How many values of an image fall below and above a scale, and so take its end colours.</summary>
-public readonly record struct ScaleClip(long Below, long Above, long Total)
-{
-    public string BelowShare => ShareOf(Below);
-
-    public string AboveShare => ShareOf(Above);
-
-    /// <summary>Below and above together.</summary>
-    public string BeyondShare => ShareOf(Below + Above);
-
-    public static ScaleClip Count(ReadOnlySpan<uint> values, double min, double max)
-    {
-        long below = 0, above = 0;
-        foreach (uint v in values)
-        {
-            if (v < min)
-                below++;
-            else if (v > max)
-                above++;
-        }
-        return new ScaleClip(below, above, values.Length);
-    }
-
-    /// <summary>A share of the pixels as a percentage that never rounds a nonzero count to "0%".</summary>
-    public string ShareOf(long count)
-    {
-        double p = Total == 0 ? 0 : 100.0 * count / Total;
-        return p switch
-        {
-            0 => "0%",
-            < 0.1 => "<0.1%",
-            < 10 => p.ToString("0.0", CultureInfo.InvariantCulture) + "%",
-            _ => p.ToString("0", CultureInfo.InvariantCulture) + "%",
-        };
     }
 }
