@@ -42,9 +42,7 @@ public class PreviewImageTests
     public void Mismatch_image_marks_differing_pixels_rings_them_and_shows_the_rest_in_dim_grey()
     {
         const int w = 12, h = 6;
-        var reference = new PixelHit[w * h];
-        for (int i = 0; i < reference.Length; i++)
-            reference[i] = new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY };
+        var reference = Wall(w * h);
         var hits = (PixelHit[])reference.Clone();
         hits[2 * w + 3].X = 999;
 
@@ -72,4 +70,8 @@ public class PreviewImageTests
         png.Pixel(40 + radius - 1, 20).Should().Be(PreviewImage.Marker, "the ring passes one radius from the pixel");
         png.Pixel(40 + radius / 2, 20).Should().NotBe(PreviewImage.Marker, "inside the ring the preview shows");
     }
+
+    /// <summary>Every pixel hits its own voxel of material 2 through the top face.</summary>
+    internal static PixelHit[] Wall(int pixels) =>
+        Enumerable.Range(0, pixels).Select(i => new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY }).ToArray();
 }

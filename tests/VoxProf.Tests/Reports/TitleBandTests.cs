@@ -28,9 +28,7 @@ public class TitleBandTests
     public void A_mismatch_image_says_how_many_pixels_differ_and_from_which_strategy()
     {
         const int w = 300, h = 6;
-        var reference = new PixelHit[w * h];
-        for (int i = 0; i < reference.Length; i++)
-            reference[i] = new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY };
+        var reference = PreviewImageTests.Wall(w * h);
         var hits = (PixelHit[])reference.Clone();
         hits[2 * w + 3].X = 999;
         hits[4 * w + 100].Hit = false;
