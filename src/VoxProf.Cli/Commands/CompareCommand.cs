@@ -21,7 +21,7 @@ public static class CompareCommand
         };
         var failOnOpt = new Option<string[]>("--fail-on")
         {
-            Description = "A gate rule STRATEGY.COUNTER.STATISTIC:LIMIT, e.g. all.iterations.mean:5% (repeat for several). " +
+            Description = "A gate rule STRATEGY.METRIC:LIMIT, METRIC as summary.csv names it, e.g. all.iterations.mean:5% (repeat for several). " +
                 $"Default: {string.Join(" ", GateRules.Default)}.",
         };
         var quietOpt = new Option<bool>("--quiet", "-q") { Description = "Print only broken rules and the verdict." };

@@ -8,6 +8,7 @@ using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
+using VoxProf.Reports.Tables;
 
 namespace VoxProf.Cli.Commands;
 
@@ -38,12 +39,12 @@ public static class TraceCommand
         var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
         var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
-        var fov = new Option<float?>("--fov") { Description = "Vertical field of view in degrees (custom camera default 60)." };
+        var fov = new Option<float?>("--fov") { Description = $"Vertical field of view in degrees, {CameraChecks.MinFovDegrees} to {CameraChecks.MaxFovDegrees} (custom camera default 60)." };
         var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
         var strategy = new Option<string?>("--strategy") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
         var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
-        var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default iterations,wave32,wave64): {HeatmapNames.ValidList}." };
+        var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
         var scale = new Option<string>("--scale") { Description = "Heatmap scale: linear or log.", DefaultValueFactory = _ => "linear" };
         var range = new Option<string?>("--range") { Description = "Fixed heatmap range MIN:MAX, so two runs compare." };
         var outDir = new Option<string?>("--out") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
@@ -120,7 +121,7 @@ public static class TraceCommand
                 if (ToolInfo.IsDebug(options.Environment))
                     error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
                 ReportResult result = ReportWriter.WriteAll(run, options, dir);
-                PrintTable(output, result);
+                SummaryConsole.Write(output, result.Document);
                 output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
                 foreach (ExportFailure f in result.Failures)
                     error.WriteLine($"voxprof: error: could not write {f.Message}");
@@ -132,20 +133,6 @@ public static class TraceCommand
             });
         });
         return cmd;
-    }
-
-    /// <summary>Per-strategy totals, mean iterations per pixel and the wave figures, as fixed-width text.</summary>
-    internal static void PrintTable(TextWriter output, ReportResult result)
-    {
-        output.WriteLine($"{"strategy",-10} {"iter total",14} {"mean/px",9} {"w32 max",9} {"w32 eff",8} {"w64 max",9} {"w64 eff",8} {"mismatch",9} {"time s",8}");
-        foreach (StrategyStatistics s in result.Statistics)
-        {
-            CounterSummary it = s[Counter.Iterations];
-            WaveSummary w32 = s.Waves[0], w64 = s.Waves[1];
-            double seconds = result.Document.Timings.TraceSeconds.TryGetValue(s.Strategy.Name(), out double t) ? t : 0;
-            output.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{s.Strategy.Name(),-10} {it.Total,14} {it.Mean,9:0.00} {w32.MeanTileMax,9:0.00} {w32.SimdEfficiency,8:0.000} {w64.MeanTileMax,9:0.00} {w64.SimdEfficiency,8:0.000} {s.MismatchPixels,9} {seconds,8:0.000}"));
-        }
     }
 
     private static string SafeName(string name)
@@ -164,14 +151,14 @@ public static class TraceCommand
                 throw new InputException("--camera: give either --camera NAME or --eye and --target, not both");
             if ((Eye is null) != (Target is null))
                 throw new InputException($"{(Eye is null ? "--eye" : "--target")}: missing; a custom camera needs both --eye and --target");
-            if (Fov is { } f && !(f > 0 && f < 180))
-                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected degrees between 0 and 180");
+            if (Fov is { } f && !(f >= CameraChecks.MinFovDegrees && f <= CameraChecks.MaxFovDegrees))
+                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected {CameraChecks.FovRange}");
             if (Eye is not null)
                 OptionParsing.Vector(Eye, "--eye");
             if (Target is not null)
                 OptionParsing.Vector(Target, "--target");
-            if (Up is not null && OptionParsing.Vector(Up, "--up") == Vector3.Zero)
-                throw new InputException("--up: 0,0,0 is not a direction");
+            if (Up is not null)
+                OptionParsing.Vector(Up, "--up");
         }
 
         public CameraSpec Resolve(Scene scene)
@@ -181,8 +168,7 @@ public static class TraceCommand
             {
                 var custom = new CameraSpec("custom", OptionParsing.Vector(Eye, "--eye"), OptionParsing.Vector(Target, "--target"),
                     up ?? Vector3.UnitY, Fov ?? DefaultFov);
-                if (custom.Eye == custom.Target)
-                    throw new InputException("--target: equals --eye, so the camera has no direction");
+                Check(custom, up is null, "");
                 return custom;
             }
             string valid = scene.Cameras.Count == 0 ? "none" : string.Join(", ", scene.Cameras.Select(c => c.Name));
@@ -198,7 +184,24 @@ public static class TraceCommand
                 chosen = scene.Cameras.FirstOrDefault(c => string.Equals(c.Name, Name, StringComparison.OrdinalIgnoreCase))
                     ?? throw new InputException($"--camera: no camera '{Name}' in {scene.SourcePath ?? scene.Name}; cameras: {valid}");
             }
-            return chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
+            CameraSpec adjusted = chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
+            // The scene loader checked the camera as written; --up can still turn it into one that looks along up.
+            Check(adjusted, upIsDefault: false, $" (camera '{chosen.Name}' of {scene.SourcePath ?? scene.Name})");
+            return adjusted;
+        }
+
+        /// <summary>The scene files' camera checks (<see cref="CameraChecks"/>), naming the option at fault.</summary>
+        private void Check(CameraSpec camera, bool upIsDefault, string which)
+        {
+            if (CameraChecks.Check(camera.Eye, camera.Target, camera.Up, camera.FovYDegrees, upIsDefault) is not { } problem)
+                return;
+            string option = problem.Part switch
+            {
+                CameraPart.Up => $"--up {Up}",
+                CameraPart.Fov => $"--fov {Fov?.ToString(CultureInfo.InvariantCulture)}",
+                _ => Target is null ? "--camera" : $"--target {Target}",
+            };
+            throw new InputException($"{option}: {problem.Message}{which}");
         }
     }
 }

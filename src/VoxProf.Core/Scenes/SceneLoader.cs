@@ -115,22 +115,24 @@ public static class SceneLoader
         Vector3 eye = eyeValue.Vector("[x, y, z] eye position");
         Vector3 target = targetValue.Vector("[x, y, z] point looked at");
         Vector3 up = Vector3.UnitY;
-        if (c.Optional("up") is { } upValue)
-        {
-            up = upValue.Vector("[x, y, z] up direction");
-            if (up == Vector3.Zero)
-                throw upValue.Error("zero vector; expected a non-zero up direction such as [0, 1, 0]");
-        }
+        JsonValue? upValue = c.Optional("up");
+        if (upValue is { } u)
+            up = u.Vector("[x, y, z] up direction");
         float fov = 60;
-        if (c.Optional("fovY") is { } fovValue)
-            fov = (float)fovValue.Number("a vertical field of view in degrees, from 1 to 179", 1, 179);
+        JsonValue? fovValue = c.Optional("fovY");
+        if (fovValue is { } f)
+            fov = (float)f.Number(CameraChecks.FovRange, CameraChecks.MinFovDegrees, CameraChecks.MaxFovDegrees);
 
-        if (eye == target)
-            throw targetValue.Error("equals the eye; expected a point the camera looks at, away from the eye");
-        // Up must not lie along the view direction, or the image plane's orientation is undefined.
-        Vector3 dir = Vector3.Normalize(target - eye), upDir = Vector3.Normalize(up);
-        if (Vector3.Cross(dir, upDir).Length() < 1e-4f)
-            throw (c.Optional("up") ?? targetValue).Error("up is parallel to the view direction; expected an up direction across the view");
+        if (CameraChecks.Check(eye, target, up, fov, upIsDefault: upValue is null) is { } problem)
+        {
+            JsonValue at = problem.Part switch
+            {
+                CameraPart.Up => upValue!.Value,
+                CameraPart.Fov => fovValue!.Value,
+                _ => targetValue,
+            };
+            throw at.Error(problem.Message);
+        }
         return new CameraSpec(name, eye, target, up, fov);
     }
 }

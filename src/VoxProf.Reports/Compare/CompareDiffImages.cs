@@ -23,7 +23,7 @@ public static class CompareDiffImages
 {
     public static string FileName(string strategy, string map) => $"diff-{strategy}-{map}.png";
 
-    /// <summary>Maps both reports drew (counter names, wave32, wave64); iterations for reports that list none.</summary>
+    /// <summary>Maps both reports drew (counter and subgroup names); iterations for reports that list none.</summary>
     public static IReadOnlyList<string> Maps(ReportComparison cmp)
     {
         var b = cmp.Base.Document.Run.Heatmaps;
@@ -124,18 +124,18 @@ public static class CompareDiffImages
         return data;
     }
 
-    /// <summary>A counter's per-pixel values, or for a wave map each pixel's tile maximum of loop iterations.</summary>
+    /// <summary>A counter's per-pixel values, or for a subgroup map each pixel's tile maximum of loop iterations.</summary>
     private static uint[]? Values(PixelData data, string map)
     {
-        if (!HeatmapNames.IsWave(map, out var shape))
+        if (!HeatmapNames.IsSubgroup(map, out var shape))
             return data.Find(map);
         var iterations = data.Find(Counter.Iterations.Name());
         if (iterations is null)
             return null;
         var tiles = new uint[shape.TilesX(data.Width) * shape.TilesY(data.Height)];
-        WaveModel.TileMax(iterations, data.Width, data.Height, shape, tiles);
+        SubgroupModel.TileMax(iterations, data.Width, data.Height, shape, tiles);
         var pixels = new uint[data.Width * data.Height];
-        WaveModel.ExpandTiles(tiles, data.Width, data.Height, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, data.Width, data.Height, shape, pixels);
         return pixels;
     }
 }

@@ -53,14 +53,14 @@ public sealed class CompareMarkdownExporter : ICompareExporter
 
         w.WriteLine("## Changes, largest regressions first");
         w.WriteLine();
-        w.WriteLine("Worse means higher for costs and lower for SIMD efficiency; relative change is over the base value.");
+        w.WriteLine("Worse means higher for costs and lower for SIMD efficiency; a change of hit rate is neither; relative change is over the base value.");
         w.WriteLine();
         w.WriteLine("| strategy | metric | unit | base | candidate | change | relative |");
         w.WriteLine("|---|---|---|---:|---:|---:|---:|");
         foreach (var c in cmp.Changes)
         {
-            var mark = c.IsRegression ? " ▲" : c.AbsoluteWorsening < 0 ? " ▼" : "";
-            w.WriteLine($"| {Cell(c.Strategy)} | {Cell(c.Metric.Key)} | {c.Metric.Unit} | {c.Metric.Format(c.Base)} | " +
+            var mark = c.IsRegression ? " ▲" : c.IsImprovement ? " ▼" : "";
+            w.WriteLine($"| {Cell(c.Strategy)} | {Cell(c.Metric.Name)} | {c.Metric.Unit} | {c.Metric.Format(c.Base)} | " +
                 $"{c.Metric.Format(c.Candidate)} | {c.Metric.FormatChange(c.Change)} | {CompareText.Relative(c)}{mark} |");
         }
         if (result.DiffImages.Count > 0 || result.DiffNotes.Count > 0)

@@ -1,4 +1,5 @@
 using System.Globalization;
+using VoxProf.Reports.Metrics;
 
 namespace VoxProf.Reports.Compare;
 
@@ -22,8 +23,23 @@ public static class CompareText
 
     public static string Verdict(GateVerdict verdict) => verdict.Passed ? "pass" : "fail";
 
-    /// <summary>One line per broken check: "dda iterations.mean: 12 -> 13.5 (+1.5, +12.5%), limit 5%".</summary>
+    /// <summary>One line per broken check: "dda iterations.mean: 12 -> 13.5 (+1.5, +12.5%), may rise at most 5%".</summary>
     public static string Broken(GateRule rule, MetricChange c) =>
-        $"{c.Strategy} {c.Metric.Key}: {c.Metric.Format(c.Base)} -> {c.Metric.Format(c.Candidate)} " +
-        $"({c.Metric.FormatChange(c.Change)}, {Relative(c)}), {(c.Metric.LowerIsBetter ? "may rise" : "may fall")} at most {rule.LimitText}";
+        $"{c.Strategy} {c.Metric.Name}: {c.Metric.Format(c.Base)} -> {c.Metric.Format(c.Candidate)} " +
+        $"({c.Metric.FormatChange(c.Change)}, {Relative(c)}), {Allowed(c.Metric.Better)} at most {rule.LimitText}";
+
+    private static string Allowed(Better better) => better switch
+    {
+        Better.Lower => "may rise",
+        Better.Higher => "may fall",
+        _ => "may change",
+    };
+
+    /// <summary>"lower", "higher" or "neutral", as report.json writes it.</summary>
+    public static string BetterText(Better better) => better switch
+    {
+        Better.Lower => "lower",
+        Better.Higher => "higher",
+        _ => "neutral",
+    };
 }

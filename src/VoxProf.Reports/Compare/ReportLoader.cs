@@ -1,6 +1,7 @@
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using VoxProf.Core;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
@@ -12,7 +13,10 @@ public sealed record LoadedReport(string File, ReportDocument Document)
     public string Directory => Path.GetDirectoryName(Path.GetFullPath(File)) ?? ".";
 }
 
-/// <summary>Reads report.json for <c>compare</c>; every problem becomes one <see cref="InputException"/> line.</summary>
+/// <summary>
+/// Reads report.json (the one reader of it); every problem becomes one <see cref="InputException"/> line. Reads the
+/// current schema only: a report of another schema is refused naming both versions.
+/// </summary>
 public static partial class ReportLoader
 {
     public const string FileName = OutputNames.ReportJson;
@@ -45,7 +49,8 @@ public static partial class ReportLoader
         }
         catch (JsonException ex)
         {
-            throw new InputException($"{file}: {Where(ex)}: {Problem(ex)}", ex);
+            var problem = ex.Path?.EndsWith(".better", StringComparison.Ordinal) == true ? "expected lower, higher or neutral" : Problem(ex);
+            throw new InputException($"{file}: {Where(ex)}: {problem}", ex);
         }
         if (doc is null)
             throw new InputException($"{file}: expected a report object, found null");
@@ -72,8 +77,12 @@ public static partial class ReportLoader
                 throw new InputException($"{file}: $.schemaVersion: missing; expected the report schema version ({ReportDocument.CurrentSchema})");
             if (version.ValueKind != JsonValueKind.Number || !version.TryGetInt32(out var v))
                 throw new InputException($"{file}: $.schemaVersion: expected an integer, found {version.GetRawText()}");
-            if (v < 1 || v > ReportDocument.CurrentSchema)
-                throw new InputException($"{file}: $.schemaVersion: report schema {v} is not read by this voxprof (it reads schema 1..{ReportDocument.CurrentSchema}); trace both runs with one voxprof version");
+            if (v != ReportDocument.CurrentSchema)
+            {
+                var age = v < ReportDocument.CurrentSchema ? "an older" : "a newer";
+                throw new InputException($"{file}: $.schemaVersion: report schema {v} (written by {age} voxprof) is not read by this voxprof, " +
+                    $"which reads schema {ReportDocument.CurrentSchema} only; trace both runs with one voxprof version");
+            }
         }
         catch (JsonException ex)
         {
@@ -100,23 +109,27 @@ public static partial class ReportLoader
             throw new InputException($"{file}: $.run: image size {doc.Run.Width}x{doc.Run.Height} is not a positive WxH");
         if (doc.Camera.Eye.Length != 3 || doc.Camera.Target.Length != 3 || doc.Camera.Up.Length != 3)
             throw new InputException($"{file}: $.camera: eye, target and up must each have 3 numbers");
+        var metrics = new HashSet<string>(StringComparer.Ordinal);
+        for (var i = 0; i < doc.Metrics.Count; i++)
+        {
+            var m = doc.Metrics[i];
+            if (!MetricDescriptor.IsValidName(m.Name))
+                throw new InputException($"{file}: $.metrics[{i}].name: '{m.Name}' is not a metric name; expected lower-case words joined by '-', one or two of them joined by '.'");
+            if (!metrics.Add(m.Name))
+                throw new InputException($"{file}: $.metrics[{i}].name: metric '{m.Name}' appears twice");
+            if (!MetricDescriptor.IsValidFormat(m.NumberFormat))
+                throw new InputException($"{file}: $.metrics[{i}].numberFormat: '{m.NumberFormat}' is not a number format; expected 0, or 0. followed by 0s or #s");
+        }
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < doc.Strategies.Count; i++)
         {
             var s = doc.Strategies[i];
             if (!names.Add(s.Name))
                 throw new InputException($"{file}: $.strategies[{i}].name: strategy '{s.Name}' appears twice");
-            var counters = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
-            for (var c = 0; c < s.Counters.Count; c++)
+            foreach (var key in s.Values.Keys)
             {
-                if (!counters.Add(s.Counters[c].Counter))
-                    throw new InputException($"{file}: $.strategies[{i}].counters[{c}].counter: counter '{s.Counters[c].Counter}' appears twice");
-            }
-            var lanes = new HashSet<int>();
-            for (var w = 0; w < s.Waves.Count; w++)
-            {
-                if (s.Waves[w].Lanes <= 0 || !lanes.Add(s.Waves[w].Lanes))
-                    throw new InputException($"{file}: $.strategies[{i}].waves[{w}].lanes: expected a positive lane count once per strategy, found {s.Waves[w].Lanes}");
+                if (!metrics.Contains(key))
+                    throw new InputException($"{file}: $.strategies[{i}].values: '{key}' is not in $.metrics; expected values keyed by the metric names listed there");
             }
         }
     }

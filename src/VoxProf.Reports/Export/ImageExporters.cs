@@ -39,7 +39,7 @@ public sealed class HeatmapExporter : IReportExporter
     /// <summary>What one pixel of a map counts: "iterations per pixel", or for a lockstep-group map the tile maximum.</summary>
     public static string UnitOf(string map)
     {
-        if (HeatmapNames.IsWave(map, out WaveShape shape))
+        if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return $"{Counter.Iterations.Name()} per pixel: the largest in its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes)";
         Counter c = Parse(map);
         return c.Unit() == "count" ? $"{c.Name()} per pixel" : $"{c.Unit()} per pixel ({c.Name()})";
@@ -72,10 +72,10 @@ public sealed class HeatmapExporter : IReportExporter
     public static double Top(StrategyResult r, string map)
     {
         CounterSummary s;
-        if (HeatmapNames.IsWave(map, out WaveShape shape))
+        if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
         {
             var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-            WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+            SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
             s = CounterSummary.Compute(tiles);
         }
         else
@@ -87,12 +87,12 @@ public sealed class HeatmapExporter : IReportExporter
 
     public static uint[] Values(StrategyResult r, string map)
     {
-        if (!HeatmapNames.IsWave(map, out WaveShape shape))
+        if (!HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return r.Counters[(int)Parse(map)];
         var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-        WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
         var pixels = new uint[r.Width * r.Height];
-        WaveModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
         return pixels;
     }
 
@@ -132,7 +132,7 @@ public sealed class MismatchExporter : IReportExporter
             return;
         foreach (StrategyStatistics s in context.Statistics)
         {
-            if (s.MismatchPixels == 0)
+            if (s.MismatchPixels is not { } mismatched || mismatched == 0)
                 continue;
             StrategyResult r = context.Run.Results.First(x => x.Strategy == s.Strategy);
             var title = new ImageTitle(
@@ -141,7 +141,7 @@ public sealed class MismatchExporter : IReportExporter
             using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height, reference.Strategy.Name(), title);
             Png.AddText(image, "Strategy", s.Strategy.Name());
             Png.AddText(image, "Reference", reference.Strategy.Name());
-            Png.AddText(image, "Mismatched pixels", s.MismatchPixels.ToString(System.Globalization.CultureInfo.InvariantCulture));
+            Png.AddText(image, "Mismatched pixels", mismatched.ToString(System.Globalization.CultureInfo.InvariantCulture));
             output.Write(OutputNames.Mismatch(s.Strategy.Name()), st => Png.Save(image, st));
         }
     }

@@ -17,7 +17,7 @@ public sealed record ReportOptions
 
     public double? RangeMax { get; init; }
 
-    /// <summary>Heatmaps per strategy: counter names and/or "wave32", "wave64" (see <see cref="HeatmapNames"/>).</summary>
+    /// <summary>Heatmaps per strategy: counter and subgroup names (see <see cref="HeatmapNames"/>).</summary>
     public IReadOnlyList<string> Heatmaps { get; init; } = HeatmapNames.Default;
 
     /// <summary>Also write pixels-STRATEGY.csv.</summary>
@@ -33,17 +33,15 @@ public sealed record ReportOptions
     public EnvironmentInfo Environment { get; init; } = ToolInfo.CurrentEnvironment();
 }
 
-/// <summary>Heatmap names accepted by --counters: every counter, plus the per-tile wave maxima.</summary>
+/// <summary>Heatmap names accepted by --counters: every counter, plus the per-tile maxima of each subgroup size.</summary>
 public static class HeatmapNames
 {
-    public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), "wave32", "wave64"];
+    public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static IReadOnlyList<string> All { get; } =
-        [.. CounterNames.All.Select(c => c.Name()), .. WaveShape.Standard.Select(WaveName)];
+        [.. CounterNames.All.Select(c => c.Name()), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static string ValidList => string.Join(", ", All);
-
-    public static string WaveName(WaveShape s) => $"wave{s.Lanes}";
 
     public static bool TryParse(string text, out string name)
     {
@@ -51,11 +49,12 @@ public static class HeatmapNames
         return name.Length > 0;
     }
 
-    public static bool IsWave(string name, out WaveShape shape)
+    /// <summary>True for a subgroup map (each pixel shows its tile's largest loop iterations).</summary>
+    public static bool IsSubgroup(string name, out SubgroupShape shape)
     {
-        foreach (WaveShape s in WaveShape.Standard)
+        foreach (SubgroupShape s in SubgroupShape.Standard)
         {
-            if (WaveName(s) == name)
+            if (s.Name == name)
             {
                 shape = s;
                 return true;

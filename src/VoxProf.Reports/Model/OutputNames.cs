@@ -10,7 +10,7 @@ public static class OutputNames
     public const string SummaryMarkdown = "summary.md";
     public const string Preview = "preview.png";
 
-    /// <summary><paramref name="map"/> is a counter name or "wave32"/"wave64".</summary>
+    /// <summary><paramref name="map"/> is a counter or subgroup name ("iterations", "subgroup32").</summary>
     public static string Heatmap(string strategy, string map) => $"heatmap-{strategy}-{map}.png";
 
     public static string Mismatch(string strategy) => $"mismatch-{strategy}.png";

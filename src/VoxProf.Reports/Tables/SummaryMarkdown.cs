@@ -1,25 +1,17 @@
 using System.Globalization;
 using System.Text;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Tables;
 
 /// <summary>
-/// Renders summary.md: strategies as rows, key metrics of the <see cref="MetricTable"/> as columns, each cost shown
-/// with its ratio to the baseline strategy, and relative links to every strategy's images.
+/// Renders summary.md: strategies as rows, the <see cref="MetricColumns.Summary"/> metrics of the
+/// <see cref="MetricTable"/> as columns named as in summary.csv and gate rules, each cost with its ratio to the
+/// baseline strategy, relative links to every strategy's images, and what each column means.
 /// </summary>
 public static class SummaryMarkdown
 {
-    /// <summary>Columns shown, by metric id; ids missing from the table are skipped.</summary>
-    public static IReadOnlyList<string> KeyMetrics { get; } =
-    [
-        "iterations.mean", "iterations.p90_hf7",
-        "wave32.mean_tile_max", "wave32.simd_efficiency",
-        "wave64.mean_tile_max", "wave64.simd_efficiency",
-        "node-fetches.mean", "slab-tests.mean", "cell-steps.mean",
-        "strategy.hit_rate", "strategy.mismatch_pixels",
-    ];
-
     public static string Render(ReportDocument report, MetricTable table)
     {
         var sb = new StringBuilder();
@@ -33,15 +25,16 @@ public static class SummaryMarkdown
         foreach (string w in report.Warnings)
             sb.Append(CultureInfo.InvariantCulture, $"> **Warning:** {Escape(w)}\n\n");
         sb.Append(CultureInfo.InvariantCulture,
-            $"Figures are per pixel; `×` is the ratio to **{Escape(baseline)}** (below 1 is less work; for SIMD efficiency, above 1 is better). ");
-        sb.Append("Percentiles: Hyndman & Fan (1996) definition 7. wave32 = 8×4 pixel tiles, wave64 = 8×8.\n\n");
+            $"`×` is the ratio to **{Escape(baseline)}** (below 1 is less work; for SIMD efficiency, above 1 is better). ");
+        sb.Append("Column names are the metric names of summary.csv, report.json and `voxprof compare` rules; summary.csv has every metric.\n\n");
 
-        var columns = KeyMetrics.Select(table.IndexOf).Where(i => i >= 0).ToList();
+        var columns = MetricColumns.For(MetricColumns.Summary, run.PrepassBlock > 0)
+            .Select(c => (Column: c, Index: table.IndexOf(c.Metric))).Where(c => c.Index >= 0).ToList();
         sb.Append("| strategy |");
-        foreach (int m in columns)
-            sb.Append(' ').Append(Escape(table.Metrics[m].Title)).Append(" |");
+        foreach (var (c, _) in columns)
+            sb.Append(" `").Append(c.Metric).Append("` |");
         sb.Append(" images |\n|---|");
-        foreach (int _ in columns)
+        foreach (var _ in columns)
             sb.Append("---:|");
         sb.Append("---|\n");
 
@@ -49,27 +42,20 @@ public static class SummaryMarkdown
         {
             string name = table.Rows[r];
             sb.Append("| ").Append(Escape(name)).Append(r == baseRow ? " (baseline)" : "").Append(" |");
-            foreach (int m in columns)
-                sb.Append(' ').Append(Cell(table, r, m, baseRow)).Append(" |");
+            foreach (var (c, m) in columns)
+                sb.Append(' ').Append(table.Text(r, m, baseRow, c.Ratio)).Append(" |");
             var strategy = report.Strategies.FirstOrDefault(s => s.Name == name);
             sb.Append(' ').Append(strategy is null ? "" : Links(strategy)).Append(" |\n");
         }
-        return sb.ToString();
-    }
 
-    private static string Cell(MetricTable table, int row, int metric, int baseRow)
-    {
-        MetricDescriptor d = table.Metrics[metric];
-        double v = table[row, metric];
-        if (double.IsNaN(v))
-            return "";
-        string text = v.ToString(d.Format, CultureInfo.InvariantCulture);
-        if (d.LowerIsBetter is null || baseRow < 0)
-            return text;
-        double b = table[baseRow, metric];
-        if (!(b > 0))
-            return text;
-        return text + " ×" + (v / b).ToString("0.00", CultureInfo.InvariantCulture);
+        sb.Append('\n');
+        foreach (var (c, m) in columns)
+        {
+            MetricDescriptor d = table.Metrics[m];
+            sb.Append(CultureInfo.InvariantCulture, $"- `{d.Name}`: {Escape(d.Title)} ({Escape(d.Unit)}).\n");
+        }
+        sb.Append("- Percentiles: Hyndman & Fan (1996) definition 7. SIMD efficiency: Aila & Laine (2009).\n");
+        return sb.ToString();
     }
 
     private static string Links(StrategyReport s)

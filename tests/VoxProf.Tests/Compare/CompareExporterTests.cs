@@ -31,10 +31,10 @@ public class CompareExporterTests
 
         // Independent check: CsvHelper's RFC 4180 reader parses what we wrote, header and every row.
         using var csv = CsvReader.FromText(text);
-        var rows = new List<(string Strategy, string Group, string Stat, double Base, double Candidate, string Relative)>();
+        var rows = new List<(string Strategy, string Metric, string Better, double Base, double Candidate, string Relative)>();
         while (csv.Read())
         {
-            rows.Add((csv.GetString("strategy"), csv.GetString("group"), csv.GetString("statistic"),
+            rows.Add((csv.GetString("strategy"), csv.GetString("metric"), csv.GetString("better"),
                 double.Parse(csv.GetString("base"), CultureInfo.InvariantCulture),
                 double.Parse(csv.GetString("candidate"), CultureInfo.InvariantCulture),
                 csv.GetString("relative_change")));
@@ -46,8 +46,8 @@ public class CompareExporterTests
         {
             var c = result.Comparison.Changes[i];
             rows[i].Strategy.Should().Be(c.Strategy);
-            rows[i].Group.Should().Be(c.Metric.Group);
-            rows[i].Stat.Should().Be(c.Metric.Statistic);
+            rows[i].Metric.Should().Be(c.Metric.Name);
+            rows[i].Better.Should().Be(CompareText.BetterText(c.Metric.Better));
             rows[i].Base.Should().Be(c.Base);
             rows[i].Candidate.Should().Be(c.Candidate);
             double.Parse(rows[i].Relative, CultureInfo.InvariantCulture).Should().Be(c.RelativeChange!.Value);
@@ -93,13 +93,13 @@ public class CompareExporterTests
         {
             CultureInfo.CurrentCulture = saved;
         }
-        invariant[0].Should().Contain("| 12 | 13.2 | +1.2 | +10% ▲ |");
+        invariant[0].Should().Contain("| 12.00 | 13.20 | +1.20 | +10% ▲ |");
     }
 
     [Fact]
     public void Compare_json_holds_the_verdict_the_broken_rule_and_every_change()
     {
-        var result = Result(1.1, "dda.iterations.mean:5%", "all.wave32.tile-max:20%");
+        var result = Result(1.1, "dda.iterations.mean:5%", "all.subgroup32.tile-max-mean:20%");
         var text = Render(new CompareJsonExporter(), result);
 
         using var doc = JsonDocument.Parse(text);
@@ -123,10 +123,10 @@ public class CompareExporterTests
 
         lines[2].Should().Contain("Scene content differs").And.Contain("99ff");
         text.Should().Contain("## Verdict: FAIL");
-        text.Should().Contain("`dda.iterations.mean:5%`: dda iterations.mean: 12 -> 13.2 (+1.2, +10%), may rise at most 5%");
+        text.Should().Contain("`dda.iterations.mean:5%`: dda iterations.mean: 12.00 -> 13.20 (+1.20, +10%), may rise at most 5%");
         var table = lines.SkipWhile(l => !l.StartsWith("| strategy")).Skip(2).TakeWhile(l => l.StartsWith('|')).ToArray();
-        table.Should().HaveCount(3 * 16);
-        table.Should().Contain(l => l.Contains("wave32.efficiency"));
+        table.Should().HaveCount(3 * 20);
+        table.Should().Contain(l => l.Contains("subgroup32.simd-efficiency"));
     }
 
     [Fact]

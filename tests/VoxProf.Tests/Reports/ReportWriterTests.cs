@@ -33,8 +33,8 @@ public sealed class ReportWriterTests : IDisposable
         string[] names = Directory.GetFiles(_dir).Select(Path.GetFileName).ToArray()!;
         names.Should().BeEquivalentTo(
             "report.json", "summary.csv", "summary.md", "preview.png", "mismatch-dda.png",
-            "heatmap-grid-iterations.png", "heatmap-grid-wave32.png", "heatmap-grid-wave64.png",
-            "heatmap-dda-iterations.png", "heatmap-dda-wave32.png", "heatmap-dda-wave64.png",
+            "heatmap-grid-iterations.png", "heatmap-grid-subgroup32.png", "heatmap-grid-subgroup64.png",
+            "heatmap-dda-iterations.png", "heatmap-dda-subgroup32.png", "heatmap-dda-subgroup64.png",
             "pixels-grid.bin.gz", "pixels-dda.bin.gz");
         foreach (StrategyReport s in result.Document.Strategies)
             s.Files.Should().OnlyContain(f => names.Contains(f), "every file the report lists exists");
@@ -51,7 +51,7 @@ public sealed class ReportWriterTests : IDisposable
         WriteSmall();
 
         File.ReadAllText(Path.Combine(_dir, "notes.txt")).Should().Be("mine");
-        File.ReadAllText(Path.Combine(_dir, "summary.csv")).Should().StartWith("strategy,measure");
+        File.ReadAllText(Path.Combine(_dir, "summary.csv")).Should().StartWith("strategy,iterations.total");
         Directory.GetFiles(_dir, "*.tmp").Should().BeEmpty();
     }
 
@@ -94,8 +94,8 @@ public sealed class ReportWriterTests : IDisposable
     public void Tree_strategies_share_a_scale_to_their_largest_99th_percentile_and_grid_has_its_own()
     {
         ReportResult result = WriteSmall();
-        double gridTop = result.Document.Strategies.Single(s => s.Name == "grid").Counters.Single(c => c.Counter == "iterations").P99;
-        double ddaTop = result.Document.Strategies.Single(s => s.Name == "dda").Counters.Single(c => c.Counter == "iterations").P99;
+        double gridTop = result.Document.Strategies.Single(s => s.Name == "grid").Value("iterations.p99")!.Value;
+        double ddaTop = result.Document.Strategies.Single(s => s.Name == "dda").Value("iterations.p99")!.Value;
         // Grid's p99 (values x + y + 1 up to 23) is above dda's (about half): the two scales must differ for this test.
         gridTop.Should().BeGreaterThan(ddaTop);
 
@@ -111,10 +111,10 @@ public sealed class ReportWriterTests : IDisposable
     }
 
     [Fact]
-    public void Wave_heatmap_paints_each_tile_with_its_slowest_lane()
+    public void Subgroup_heatmap_paints_each_tile_with_its_slowest_lane()
     {
         WriteSmall(TestRuns.Options with { Scale = ScaleKind.Linear, RangeMin = 0, RangeMax = 50 });
-        var img = PngPicture.Read(Path.Combine(_dir, "heatmap-dda-wave32.png")).CropRgb();
+        var img = PngPicture.Read(Path.Combine(_dir, "heatmap-dda-subgroup32.png")).CropRgb();
         // dda's top-left 8×4 tile holds the spike of 40 at (3, 2); every pixel of the tile shows it.
         Pixel(img, 0, 0).Should().Be(Rgb(SequentialRamp.Map(40 / 50.0)));
         Pixel(img, 7, 3).Should().Be(Rgb(SequentialRamp.Map(40 / 50.0)));

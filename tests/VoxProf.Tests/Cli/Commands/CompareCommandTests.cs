@@ -27,7 +27,7 @@ public class CompareCommandTests : IDisposable
 
         code.Should().Be(ExitCodes.Ok);
         _err.ToString().Should().BeEmpty();
-        _out.ToString().Should().Contain("no change in any of 48 metrics").And.Contain("verdict: pass");
+        _out.ToString().Should().Contain("no change in any of 60 metrics").And.Contain("verdict: pass");
         Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json"]);
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(OutDir, "compare.json")));
         json.RootElement.GetProperty("changes").EnumerateArray().Should().OnlyContain(c => c.GetProperty("change").GetDouble() == 0);
@@ -39,10 +39,10 @@ public class CompareCommandTests : IDisposable
         var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
         var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Standard(1.1));
 
-        var code = Run(a, b, "--fail-on", "dda-mask.iterations.mean:5%", "--fail-on", "all.wave32.tile-max:20%");
+        var code = Run(a, b, "--fail-on", "dda-mask.iterations.mean:5%", "--fail-on", "all.subgroup32.tile-max-mean:20%");
 
         code.Should().Be(ExitCodes.RuleBroken);
-        _out.ToString().Should().Contain("broken: dda-mask.iterations.mean:5%: dda-mask iterations.mean: 8 -> 8.8 (+0.8, +10%)")
+        _out.ToString().Should().Contain("broken: dda-mask.iterations.mean:5%: dda-mask iterations.mean: 8.00 -> 8.80 (+0.80, +10%)")
             .And.Contain("verdict: fail (1 of 2 rules broken)");
     }
 
@@ -130,7 +130,7 @@ public class CompareCommandTests : IDisposable
         var code = Run(a, a, "--fail-on", "dda.steps.mean:5%");
 
         code.Should().Be(ExitCodes.BadInput);
-        ErrorLines.Should().NotContain("\n").And.Contain("unknown counter or wave group 'steps'").And.Contain("iterations, node-fetches, wave32, wave64");
+        ErrorLines.Should().NotContain("\n").And.Contain("unknown metric group 'steps'").And.Contain("iterations, node-fetches, subgroup32, subgroup64");
     }
 
     [Fact]
