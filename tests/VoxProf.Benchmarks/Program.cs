@@ -29,5 +29,10 @@ if (args.Length > 0 && args[0] == "quick")
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
     return 0;
 }
+if (args.Length > 1 && args[0] == "png")
+{
+    PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);
+    return 0;
+}
 BenchmarkSwitcher.FromAssembly(typeof(QuickTiming).Assembly).Run(args);
 return 0;
