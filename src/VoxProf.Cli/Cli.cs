@@ -20,11 +20,10 @@ public static class Cli
         var root = BuildRoot(output, error);
         var parse = root.Parse(args);
         // The parser's own exit code for a bad option is 1, which compare uses for "a rule is broken";
-        // bad usage is 2 everywhere (ExitCodes).
+        // bad usage is 2 everywhere (ExitCodes). Several problems share one line, so a CI log shows one error.
         if (parse.Errors.Count > 0)
         {
-            foreach (var e in parse.Errors)
-                error.WriteLine($"voxprof: error: {e.Message}");
+            Guard.WriteError(error, string.Join("; ", parse.Errors.Select(e => e.Message).Distinct()));
             return ExitCodes.BadInput;
         }
         return parse.Invoke(new InvocationConfiguration { Output = output, Error = error });

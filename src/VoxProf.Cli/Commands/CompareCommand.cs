@@ -42,13 +42,14 @@ public static class CompareCommand
     private static int Execute(string basePath, string candidatePath, string outDir, string[] ruleTexts, bool quiet,
         TextWriter output, TextWriter error)
     {
-        // Rule syntax first: a typo should not wait for two reports to load.
+        // Rule syntax and the output path first: a typo should not wait for two reports to load.
         var rules = GateRules.Parse(ruleTexts);
+        OutputDirectory.CheckPath(outDir, "--out");
         var comparison = ReportComparison.Create(ReportLoader.Load(basePath), ReportLoader.Load(candidatePath));
         var verdict = GateRules.Evaluate(comparison, rules);
         var result = new CompareResult(comparison, verdict);
 
-        var directory = OutputDirectory.Open(outDir);
+        using var directory = OutputDirectory.Open(outDir);
         var failures = new List<string>();
         try
         {
@@ -61,6 +62,7 @@ public static class CompareCommand
             failures.Add($"difference heatmaps: {ex.Message}");
         }
         failures.AddRange(CompareOutputs.WriteAll(directory, result, CompareOutputs.All));
+        directory.Commit();
 
         if (!quiet)
         {
@@ -74,10 +76,11 @@ public static class CompareCommand
             output.WriteLine($"wrote {string.Join(", ", CompareOutputs.All.Select(e => e.FileName))}{images} to {outDir}");
         }
 
-        foreach (var failure in failures)
-            error.WriteLine($"voxprof: error: {failure}");
         if (failures.Count > 0)
+        {
+            Guard.WriteError(error, string.Join("; ", failures));
             return ExitCodes.BadInput;
+        }
         return verdict.Passed ? ExitCodes.Ok : ExitCodes.RuleBroken;
     }
 }

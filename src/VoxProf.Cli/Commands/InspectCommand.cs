@@ -1,6 +1,6 @@
 using System.CommandLine;
 using VoxProf.Cli.Formatting;
-using VoxProf.Core;
+using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Trees;
 
@@ -47,14 +47,16 @@ public static class InspectCommand
         {
             sceneArg, branching, format, threads,
         };
+        var sceneOptions = new SceneOptions();
+        sceneOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
             {
                 string path = parse.GetValue(sceneArg)!;
-                if (!File.Exists(path))
-                    throw new InputException($"{path}: scene file not found");
-                Scene scene = SceneLoader.Load(path);
+                double maxWork = sceneOptions.MaxWork(parse);
+                Scene scene = SceneLoader.Load(path, sceneOptions.LoadOptions(parse));
+                RunChecks.BeforeBuild(scene, parse.GetValue(branching), maxWork, MemoryLimit.Probe());
                 BrickTree tree = TreeBuilder.Build(scene, parse.GetValue(branching), parse.GetValue(threads));
                 // A second walk, apart from the builder, credits each voxel to the layer that set it last and times each layer.
                 LayerTally[] census = LayerCensus.Run(scene, parse.GetValue(threads));

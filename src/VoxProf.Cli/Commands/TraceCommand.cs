@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using System.Numerics;
 using VoxProf.Core;
+using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -14,10 +15,11 @@ namespace VoxProf.Cli.Commands;
 
 /// <summary>The steps of a trace that are not the command's own, replaceable in tests.</summary>
 internal sealed record TracePipeline(
-    Func<string, Scene> LoadScene,
+    Func<string, SceneLoadOptions, Scene> LoadScene,
     Func<Scene, int, int, BrickTree> BuildTree,
     Func<TraceRequest, IProgress<int>?, TraceRun> Trace,
-    Func<bool> StderrIsTerminal)
+    Func<bool> StderrIsTerminal,
+    Func<MemoryLimit>? AvailableMemory = null)
 {
     public static TracePipeline Default { get; } = new(
         SceneLoader.Load, (scene, branching, threads) => TreeBuilder.Build(scene, branching, threads),
@@ -58,6 +60,8 @@ public static class TraceCommand
             scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
             quiet, perPixel, baseline,
         };
+        var sceneOptions = new SceneOptions();
+        sceneOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
@@ -93,14 +97,16 @@ public static class TraceCommand
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
                 view.Validate();
                 string? outOption = parse.GetValue(outDir);
-                if (outOption is not null && File.Exists(outOption))
-                    throw new InputException($"{outOption}: is a file, expected an output directory");
+                OutputDirectory.CheckPath(outOption, "--out");
+                double maxWork = sceneOptions.MaxWork(parse);
 
-                // Scene, camera, output directory (proved writable before the trace), tree, trace.
-                Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!);
+                // Scene, camera, estimates, output directory (proved writable before the trace), tree, trace.
+                Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
                 CameraSpec cam = view.Resolve(loaded);
+                RunChecks.BeforeTrace(loaded, cam, branch, width, height, strategies, heatmaps, maxWork,
+                    (pipeline.AvailableMemory ?? MemoryLimit.Probe)());
                 string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
-                OutputDirectory.Open(dir);
+                using OutputDirectory folder = OutputDirectory.Open(dir);
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
                 var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
@@ -120,11 +126,11 @@ public static class TraceCommand
                 };
                 if (ToolInfo.IsDebug(options.Environment))
                     error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
-                ReportResult result = ReportWriter.WriteAll(run, options, dir);
+                ReportResult result = ReportWriter.WriteAll(run, options, folder);
                 SummaryConsole.Write(output, result.Document);
                 output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
-                foreach (ExportFailure f in result.Failures)
-                    error.WriteLine($"voxprof: error: could not write {f.Message}");
+                if (result.Failures.Count > 0)
+                    Guard.WriteError(error, "could not write " + string.Join("; ", result.Failures.Select(f => f.Message)));
                 if (result.Failures.Count == 0)
                     return ExitCodes.Ok;
                 return result.Failures.All(f => f.Error is IOException or UnauthorizedAccessException or InputException)

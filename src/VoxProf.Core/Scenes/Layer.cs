@@ -68,6 +68,13 @@ public abstract class Layer
     public abstract bool Contains(int x, int y, int z);
 
     /// <summary>
+    /// What building this layer into a tree inside <paramref name="extent"/> is expected to cost (see
+    /// <see cref="LayerCost"/>). The default counts the faces of the layer's bounds as its surface; layers override it
+    /// with their own shape.
+    /// </summary>
+    public virtual LayerCost Cost(in Box3i extent) => LayerCost.OfSurface(LayerCost.InnerFaceArea(Bounds, extent), "a bounding surface");
+
+    /// <summary>
     /// Writes the inside test of every voxel of <paramref name="region"/> into <paramref name="inside"/>,
     /// x fastest, then y, then z. Layers override this where a whole block is cheaper than voxel by voxel
     /// (a heightfield evaluates each column once).

@@ -26,13 +26,25 @@ public sealed class ReportWriter
         new PreviewExporter(), new MismatchExporter(), new PixelDataExporter(), new PixelCsvExporter(),
     ];
 
-    /// <summary>The trace command's entry point: statistics, report document, then every file into <paramref name="directory"/>.</summary>
+    /// <summary>Statistics, report document, then every file into <paramref name="directory"/>, swapped in whole.</summary>
     public static ReportResult WriteAll(TraceRun run, ReportOptions options, string directory)
     {
-        OutputDirectory output = OutputDirectory.Open(directory);
+        using OutputDirectory output = OutputDirectory.Open(directory);
+        return WriteAll(run, options, output);
+    }
+
+    /// <summary>
+    /// The trace command's entry point: statistics, report document, every file, then <see cref="OutputDirectory.Commit"/>.
+    /// The folder is committed with the files that were written even when an exporter failed: it then holds one
+    /// run's files, and the failures are reported.
+    /// </summary>
+    public static ReportResult WriteAll(TraceRun run, ReportOptions options, OutputDirectory output)
+    {
         IReadOnlyList<StrategyStatistics> stats = StrategyStatistics.Compute(run);
         var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
-        return new ReportWriter(DefaultExporters()).Write(context, output);
+        ReportResult result = new ReportWriter(DefaultExporters()).Write(context, output);
+        output.Commit();
+        return result;
     }
 
     public ReportResult Write(ReportContext context, OutputDirectory output)

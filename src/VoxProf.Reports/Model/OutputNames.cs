@@ -3,7 +3,7 @@ using VoxProf.Core.Traversal;
 namespace VoxProf.Reports.Model;
 
 /// <summary>File names inside a report directory (documented in docs/reports.md).</summary>
-public static class OutputNames
+public static partial class OutputNames
 {
     public const string ReportJson = "report.json";
     public const string SummaryCsv = "summary.csv";
@@ -20,4 +20,14 @@ public static class OutputNames
     public static string PixelCsv(string strategy) => $"pixels-{strategy}.csv";
 
     public static string Heatmap(Strategy s, string map) => Heatmap(s.Name(), map);
+
+    /// <summary>
+    /// Whether a file name is one voxprof writes into an output folder (report, compare and HTML files, images, pixel
+    /// data, the manifest, a hidden temporary file): a folder holding only such names may be replaced whole.
+    /// </summary>
+    public static bool IsOwn(string name) => OwnName().IsMatch(name);
+
+    [System.Text.RegularExpressions.GeneratedRegex(
+        @"^(?:(?:report|compare|manifest)\.json|(?:summary|compare)\.(?:csv|md)|(?:report|compare)\.html|preview\.png|(?:heatmap|mismatch|diff)-[^/\\]+\.png|pixels-[^/\\]+\.(?:bin\.gz|csv)|\..+\.tmp)$")]
+    private static partial System.Text.RegularExpressions.Regex OwnName();
 }

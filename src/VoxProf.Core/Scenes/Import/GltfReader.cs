@@ -3,6 +3,7 @@ using System.Numerics;
 using System.Runtime.CompilerServices;
 using SharpGLTF.Schema2;
 using SharpGLTF.Validation;
+using VoxProf.Core.Scenes.Loading;
 
 namespace VoxProf.Core.Scenes.Import;
 
@@ -17,15 +18,16 @@ internal static class GltfReader
     /// <summary>Largest total of the glTF file and the external files it names.</summary>
     public const long MaxBytes = 1L << 31;
 
-    public static TriangleMesh Read(byte[] bytes, string file, string sceneDirectory, Action<byte[]> hash)
+    public static TriangleMesh Read(byte[] bytes, string file, string sceneDirectory, Action<byte[]> hash, bool realPaths = false)
     {
         string folder = Path.GetDirectoryName(Path.GetFullPath(file)) ?? ".";
-        string root = Path.TrimEndingDirectorySeparator(Path.GetFullPath(sceneDirectory)) + Path.DirectorySeparatorChar;
+        string sceneFolder = realPaths ? ScenePaths.Real(sceneDirectory) : Path.GetFullPath(sceneDirectory);
+        string root = Path.TrimEndingDirectorySeparator(sceneFolder) + Path.DirectorySeparatorChar;
         var total = new StrongBox<long>(bytes.LongLength);
         ModelRoot model;
         try
         {
-            var context = ReadContext.Create(uri => new ArraySegment<byte>(ReadExternal(uri, file, folder, root, total, hash)));
+            var context = ReadContext.Create(uri => new ArraySegment<byte>(ReadExternal(uri, file, folder, root, total, hash, realPaths)));
             context.Validation = ValidationMode.Strict;
             model = context.ReadSchema2(new MemoryStream(bytes, writable: false));
         }
@@ -77,12 +79,18 @@ internal static class GltfReader
         return builder.Build();
     }
 
-    private static byte[] ReadExternal(string uri, string file, string folder, string root, StrongBox<long> total, Action<byte[]> hash)
+    private static byte[] ReadExternal(string uri, string file, string folder, string root, StrongBox<long> total,
+        Action<byte[]> hash, bool realPaths)
     {
         string where = "uri \"" + uri + "\"";
         if (uri.Contains(':', StringComparison.Ordinal) || uri.StartsWith('/') || uri.StartsWith('\\'))
             throw new SceneFormatException(file, where, "absolute or external URI; expected a path relative to the glTF file, inside the scene's folder");
-        string path = Path.GetFullPath(Path.Combine(folder, Uri.UnescapeDataString(uri)));
+        string decoded = Uri.UnescapeDataString(uri);
+        if (decoded.Contains('\0', StringComparison.Ordinal))
+            throw new SceneFormatException(file, where, "contains a NUL character; expected a path relative to the glTF file");
+        string path = Path.GetFullPath(Path.Combine(folder, decoded));
+        if (realPaths)
+            path = ScenePaths.Real(path);
         if (!path.StartsWith(root, StringComparison.Ordinal))
             throw new SceneFormatException(file, where, $"resolves to {path}, outside the scene's folder {root}; expected a file inside it");
         if (!File.Exists(path))

@@ -21,7 +21,9 @@ public static class MeshFiles
     /// when given. Problems inside the file throw <see cref="SceneFormatException"/> naming the line or byte offset.
     /// </summary>
     /// <param name="sceneDirectory">Folder glTF external URIs must stay inside.</param>
-    public static TriangleMesh Read(string path, string format, string sceneDirectory, IncrementalHash? hash = null)
+    /// <param name="realPaths">Check glTF external files by their real paths (symbolic links followed), as
+    /// <see cref="SceneLoadOptions.ConfineFiles"/> asks.</param>
+    public static TriangleMesh Read(string path, string format, string sceneDirectory, IncrementalHash? hash = null, bool realPaths = false)
     {
         long length = new FileInfo(path).Length;
         if (format is "gltf" or "glb")
@@ -33,7 +35,7 @@ public static class MeshFiles
             }
             byte[] bytes = File.ReadAllBytes(path);
             hash?.AppendData(bytes);
-            return GltfReader.Read(bytes, path, sceneDirectory, b => hash?.AppendData(b));
+            return GltfReader.Read(bytes, path, sceneDirectory, b => hash?.AppendData(b), realPaths);
         }
 
         using Stream file = new FileStream(path, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16);

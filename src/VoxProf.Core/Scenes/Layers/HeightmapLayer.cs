@@ -37,6 +37,10 @@ public sealed class HeightmapLayer : Layer
 
     public override string Kind => "heightmap";
 
+    /// <summary>The columns' tops, and as much again for the walls between them (the heights are already in memory).</summary>
+    public override LayerCost Cost(in Box3i extent) =>
+        LayerCost.OfSurface(2.0 * Bounds.SizeX * Bounds.SizeZ, "a heightfield surface");
+
     public override string Details => FormattableString.Invariant($"{Width} x {Depth} pixels, cell {CellSize}");
 
     public int Width { get; }

@@ -50,6 +50,28 @@ public sealed partial class MeshLayer : Layer
 
     public override string Kind => "mesh";
 
+    /// <summary>
+    /// The triangles' total area in voxels, crossed in dense blocks like any surface, plus their bins. Not capped by
+    /// the bounds' area as a convex shape's is: a mesh may fold many times inside its box.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        if (Bounds.IsEmpty)
+            return LayerCost.None;
+        double area = 0;
+        for (int t = 0; t < _tri.Length; t += 3)
+        {
+            var a = new System.Numerics.Vector3(_v[3 * _tri[t]], _v[3 * _tri[t] + 1], _v[3 * _tri[t] + 2]);
+            var b = new System.Numerics.Vector3(_v[3 * _tri[t + 1]], _v[3 * _tri[t + 1] + 1], _v[3 * _tri[t + 1] + 2]);
+            var c = new System.Numerics.Vector3(_v[3 * _tri[t + 2]], _v[3 * _tri[t + 2] + 1], _v[3 * _tri[t + 2] + 2]);
+            area += 0.5 * System.Numerics.Vector3.Cross(b - a, c - a).Length();
+        }
+        // A triangle smaller than a voxel still costs at least one voxel of surface.
+        double surface = Math.Max(area, TriangleCount);
+        return new LayerCost(surface * LayerCost.DenseSide + TriangleCount * 64.0, surface, 0,
+            $"{LayerCost.Figure(TriangleCount)} triangles with a surface of about {LayerCost.Figure(surface)} voxels");
+    }
+
     public override string Details => FormattableString.Invariant(
         $"{TriangleCount} triangles, {ZeroAreaTriangles} zero-area skipped, {(Rule == InsideRule.None ? "surface" : Rule == InsideRule.Winding ? "solid by winding number" : "solid by parity")}");
 

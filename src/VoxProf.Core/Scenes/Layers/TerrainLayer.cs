@@ -32,6 +32,33 @@ public sealed class TerrainLayer : Layer
 
     public override string Kind => "terrain";
 
+    /// <summary>
+    /// Every column's height (one 2D noise sample per octave, about two voxel tests each) and the surface: the
+    /// columns, plus the walls the relief raises between neighbours, at most the terrain's height range.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        if (Bounds.IsEmpty)
+            return LayerCost.None;
+        double columns = (double)Bounds.SizeX * Bounds.SizeZ;
+        var s = Settings;
+        // Slope of the normalised fractal sum: each octave's weight times its frequency (gradient noise changes by
+        // about its bound per lattice cell, common practice for a rough bound).
+        double slope = 0, weight = 1, frequency = s.Frequency, weights = 0;
+        for (int o = 0; o < s.Octaves; o++)
+        {
+            slope += weight * frequency;
+            weights += weight;
+            weight *= s.Gain;
+            frequency *= s.Lacunarity;
+        }
+        double relief = Math.Min(Bounds.SizeY, Math.Abs(s.Amplitude) * GradientNoise.Bound * slope / weights);
+        double surface = columns * (1 + relief);
+        double heights = columns * s.Octaves * 2;
+        return new LayerCost(surface * LayerCost.DenseSide + heights, surface, columns * sizeof(ushort) * 4 / 3,
+            $"{LayerCost.Figure(columns)} columns × {s.Octaves} octaves and a surface of about {LayerCost.Figure(surface)} voxels");
+    }
+
     /// <summary>Height of column (x, z) straight from the noise (the definition the stored heights must equal).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int ComputeHeight(int x, int z)

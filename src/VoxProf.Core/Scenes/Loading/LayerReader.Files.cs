@@ -10,6 +10,9 @@ namespace VoxProf.Core.Scenes.Loading;
 /// <summary>The layer kinds that read a file: mesh, heightmap and raw (typed samples or NRRD).</summary>
 internal sealed partial class LayerReader
 {
+    /// <summary>Largest heightmap image file read (a PNG of the largest footprint is far smaller).</summary>
+    public const long MaxImageBytes = 1L << 30;
+
     private MeshLayer ReadMesh(JsonObjectReader o, LayerOp op, byte material)
     {
         (JsonValue fileValue, string file, string full) = FilePath(o, "a mesh file path");
@@ -24,7 +27,7 @@ internal sealed partial class LayerReader
         MeshPlacement placement = ReadPlacement(o);
         RequireFile(fileValue, full, "mesh file");
 
-        TriangleMesh mesh = MeshFiles.Read(full, format, sceneDirectory, hash);
+        TriangleMesh mesh = MeshFiles.Read(full, format, sceneDirectory, hash, confineFiles);
         InsideRule rule = InsideRule.None;
         if (fill == MeshFill.Solid)
         {
@@ -83,7 +86,7 @@ internal sealed partial class LayerReader
         int cell = o.Optional("cellSize")?.Int($"an integer from 1 to {Scene.MaxExtent.ToString(CultureInfo.InvariantCulture)}", 1, Scene.MaxExtent) ?? 1;
         double[] height = o.Required("height", "[low, high] heights in voxels for black and white").Numbers("[low, high] heights in voxels for black and white", 2);
         RequireFile(fileValue, full, "heightmap file");
-        byte[] bytes = SceneLoader.ReadFile(sceneFile, full, fileValue.Path, "heightmap file");
+        byte[] bytes = SceneLoader.ReadFile(sceneFile, full, fileValue.Path, "heightmap file", MaxImageBytes);
         hash.AppendData(bytes);
         PngHeights png = PngHeights.Read(bytes, full, LayerReader.MaxTerrainColumns);
         long columns = new Box3i(origin[0], 0, origin[2], (int)Math.Min(origin[0] + (long)png.Width * cell, int.MaxValue), 1,
@@ -177,17 +180,42 @@ internal sealed partial class LayerReader
         return new RawLayer(op, material, mask, size[0], size[1], size[2], origin[0], origin[1], origin[2], extent);
     }
 
+    /// <summary>
+    /// The <c>file</c> key: relative to the scene file's folder (or absolute), resolved to its real path with every
+    /// symbolic link followed, and with <see cref="SceneLoadOptions.ConfineFiles"/> kept inside that folder.
+    /// </summary>
     private (JsonValue Value, string File, string Full) FilePath(JsonObjectReader o, string what)
     {
         JsonValue value = o.Required("file", what);
-        string file = value.String(what + " (relative to the scene file)");
-        return (value, file, Path.GetFullPath(Path.Combine(sceneDirectory, file)));
+        string file = value.String(what + " (relative to the scene file's folder)");
+        if (file.Length == 0)
+            throw value.Error($"empty; expected {what} relative to the scene file's folder");
+        if (file.Contains('\0', StringComparison.Ordinal))
+            throw value.Error($"contains a NUL character; expected {what} relative to the scene file's folder");
+        string real;
+        try
+        {
+            real = ScenePaths.Real(Path.Combine(sceneDirectory, file));
+        }
+        catch (IOException ex)
+        {
+            throw value.Error($"{MessageText.Excerpt(file)} cannot be resolved ({ex.Message}); expected {what}");
+        }
+        if (confineFiles)
+        {
+            string folder = ScenePaths.Real(sceneDirectory);
+            if (!ScenePaths.IsInside(real, folder))
+                throw value.Error($"{MessageText.Excerpt(file)} resolves to {real}, outside the scene file's folder {folder}; files are confined to that folder");
+        }
+        return (value, file, real);
     }
 
     private static void RequireFile(JsonValue value, string full, string what)
     {
+        if (Directory.Exists(full))
+            throw value.Error($"{what} {full} is a folder; expected a file");
         if (!File.Exists(full))
-            throw value.Error($"{what} not found: {full}");
+            throw value.Error($"{what} not found: {full} (paths are relative to the scene file's folder)");
     }
 
     private Stream OpenRead(string full, JsonValue where)

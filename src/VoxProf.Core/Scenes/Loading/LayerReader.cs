@@ -7,7 +7,8 @@ using VoxProf.Core.Scenes.Layers;
 namespace VoxProf.Core.Scenes.Loading;
 
 /// <summary>Turns one entry of <c>"layers"</c> into a <see cref="Layer"/>, checking every key.</summary>
-internal sealed partial class LayerReader(string sceneFile, string sceneDirectory, Box3i extent, IncrementalHash hash)
+internal sealed partial class LayerReader(string sceneFile, string sceneDirectory, Box3i extent, IncrementalHash hash,
+    bool confineFiles = false)
 {
     public static readonly string[] Kinds = ["box", "sphere", "cylinder", "terrain", "caves", "scatter", "raw", "mesh", "heightmap"];
 

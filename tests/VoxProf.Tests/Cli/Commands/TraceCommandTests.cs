@@ -22,7 +22,7 @@ public sealed class TraceCommandTests : IDisposable
 
     /// <summary>Stands in for scene loading, tree building and tracing with hand-made results.</summary>
     private TracePipeline Fake(bool terminal = false) => new(
-        _ =>
+        (_, _) =>
         {
             _sceneLoaded = true;
             return TestRuns.Small().Scene;
