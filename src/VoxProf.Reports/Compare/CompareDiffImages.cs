@@ -117,11 +117,29 @@ public static class CompareDiffImages
             missing.Add(strategy);
             return null;
         }
-        var data = PixelDataFile.Read(path);
+        var data = report.Manifest is { } manifest ? ReadListed(report.Directory, manifest, strategy) : PixelDataFile.Read(path);
         var run = report.Document.Run;
         if (data.Width != run.Width || data.Height != run.Height)
             throw new InputException($"{path}: image size {data.Width}x{data.Height} differs from its report.json ({run.Width}x{run.Height})");
         return data;
+    }
+
+    // A folder with a manifest: the pixel file must be the one its run wrote, or it would be compared as if it were.
+    private static PixelData ReadListed(string folder, ReportManifest manifest, string strategy)
+    {
+        var name = OutputNames.PixelData(strategy);
+        var path = Path.Combine(folder, name);
+        byte[] bytes;
+        try
+        {
+            bytes = File.ReadAllBytes(path);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            throw new InputException($"{path}: cannot read pixel data ({ex.Message})", ex);
+        }
+        manifest.Verify(folder, name, bytes);
+        return PixelDataFile.Read(new MemoryStream(bytes, writable: false), path);
     }
 
     /// <summary>A counter's per-pixel values, or for a subgroup map each pixel's tile maximum of loop iterations.</summary>

@@ -23,6 +23,9 @@ public sealed partial record GateRule(string Text, string Strategy, string Metri
 {
     public const string Wildcard = "all";
 
+    /// <summary>Largest limit accepted, in percent or in the metric's unit.</summary>
+    public const double MaxLimit = 1e15;
+
     public const string Syntax = "STRATEGY.METRIC:LIMIT, e.g. all.iterations.mean:5% or dda.subgroup32.tile-max-mean:2";
 
     // Relative limits are compared with a little slack so that a change of exactly the limit, which floating-point
@@ -33,10 +36,13 @@ public sealed partial record GateRule(string Text, string Strategy, string Metri
     {
         var m = Shape().Match(text.Trim());
         if (!m.Success)
-            throw new InputException($"rule '{text}': expected {Syntax}");
+            throw new InputException($"rule '{MessageText.Excerpt(text, 80)}': expected {Syntax}");
         var number = m.Groups["number"].Value;
         if (!double.TryParse(number, NumberStyles.AllowDecimalPoint, CultureInfo.InvariantCulture, out var limit))
-            throw new InputException($"rule '{text}': limit '{m.Groups["limit"].Value}' is not a number");
+            throw new InputException($"rule '{MessageText.Excerpt(text, 80)}': limit '{MessageText.Excerpt(m.Groups["limit"].Value)}' is not a number");
+        // A limit that does not fit a double (400 nines) would be infinite: no rule needs more than a report can hold.
+        if (!double.IsFinite(limit) || limit > MaxLimit)
+            throw new InputException($"rule '{MessageText.Excerpt(text, 80)}': limit '{MessageText.Excerpt(m.Groups["limit"].Value)}' is too large; expected at most {MaxLimit:0e0}");
         if (m.Groups["sign"].Value == "-")
             limit = -limit;
         string metric = string.Join('.', m.Groups["metric"].Value.Split('.').Select(Name));

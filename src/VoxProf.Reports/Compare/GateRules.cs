@@ -56,8 +56,18 @@ public static class GateRules
 
     private static string Unmatched(GateRule rule, ReportComparison comparison)
     {
+        var b = comparison.Base.Document;
+        var c = comparison.Candidate.Document;
         if (!GateRule.IsWildcard(rule.Strategy) && !comparison.Strategies.Contains(rule.Strategy, StringComparer.OrdinalIgnoreCase))
+        {
+            bool inBase = b.Strategies.Any(s => Same(s.Name, rule.Strategy));
+            if (inBase || c.Strategies.Any(s => Same(s.Name, rule.Strategy)))
+            {
+                var (side, other, otherNames) = inBase ? ("base", "candidate", c.Strategies) : ("candidate", "base", b.Strategies);
+                return $"rule '{rule.Text}': strategy '{rule.Strategy}' is in the {side} report only (the {other} holds {List(otherNames.Select(s => s.Name))}), so the rule cannot be checked";
+            }
             return $"rule '{rule.Text}': unknown strategy '{rule.Strategy}'; strategies in both reports: {List(comparison.Strategies)}";
+        }
 
         bool InStrategy(string strategy) => GateRule.IsWildcard(rule.Strategy) || Same(strategy, rule.Strategy);
         var uncompared = comparison.NotComparedMetrics.Where(n => InStrategy(n.Strategy) && rule.MatchesMetric(n.Metric)).ToArray();
@@ -67,7 +77,12 @@ public static class GateRules
             return $"rule '{rule.Text}': {n.Strategy}.{n.Metric} is not compared ({n.Reason}), so the rule cannot be checked";
         }
 
-        var metrics = comparison.Changes.Where(c => InStrategy(c.Strategy)).Select(c => c.Metric).DistinctBy(m => m.Name).ToArray();
+        string? oneSide = OneSide(rule, b.Metrics.Select(m => m.Name), c.Metrics.Select(m => m.Name), "base")
+            ?? OneSide(rule, c.Metrics.Select(m => m.Name), b.Metrics.Select(m => m.Name), "candidate");
+        if (oneSide is not null)
+            return oneSide;
+
+        var metrics = comparison.Changes.Where(x => InStrategy(x.Strategy)).Select(x => x.Metric).DistinctBy(m => m.Name).ToArray();
         var single = metrics.Where(m => m.Group is null).Select(m => m.Name).ToArray();
         var groups = metrics.Where(m => m.Group is not null).Select(m => m.Group!).Distinct(StringComparer.Ordinal).ToArray();
         string valid = $"valid: {List(single)}, or GROUP.STATISTIC with GROUP one of {List(groups)}";
@@ -80,6 +95,15 @@ public static class GateRules
             .Select(m => m.Statistic).Distinct(StringComparer.Ordinal).ToArray();
         var of = GateRule.IsWildcard(parts[0]) ? "" : $" of '{parts[0]}'";
         return $"rule '{rule.Text}': unknown statistic '{parts[1]}'{of}; valid: {List(stats)}";
+    }
+
+    // A metric the rule names that one report lists and the other does not: say so, rather than call it unknown.
+    private static string? OneSide(GateRule rule, IEnumerable<string> side, IEnumerable<string> other, string sideName)
+    {
+        var missing = side.Where(rule.MatchesMetric).Except(other, StringComparer.Ordinal).ToArray();
+        return missing.Length == 0
+            ? null
+            : $"rule '{rule.Text}': metric {List(missing)} is in the {sideName} report only, so the rule cannot be checked";
     }
 
     private static bool Same(string a, string b) => string.Equals(a, b, StringComparison.OrdinalIgnoreCase);

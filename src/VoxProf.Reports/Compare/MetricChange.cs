@@ -7,8 +7,9 @@ public sealed record MetricChange(string Strategy, MetricDescriptor Metric, doub
 {
     public double Change => Candidate - Base;
 
-    /// <summary>Change over |base|; 0 when both are 0; null when only the base is 0 (no finite ratio).</summary>
-    public double? RelativeChange => Base != 0 ? Change / Math.Abs(Base) : Change == 0 ? 0 : null;
+    /// <summary>Change over |base|; 0 when both are 0; null when there is no finite ratio (the base is 0, or so
+    /// near it that the ratio overflows).</summary>
+    public double? RelativeChange => Change == 0 ? 0 : Base != 0 && Change / Math.Abs(Base) is var r && double.IsFinite(r) ? r : null;
 
     /// <summary>
     /// The change in the metric's "worse" direction: positive is worse whatever the metric. A neutral metric (hit

@@ -100,7 +100,26 @@ public sealed class ReportComparison
         if (b.Environment.Configuration != "Release" || c.Environment.Configuration != "Release")
             notes.Add($"build configuration: base {b.Environment.Configuration}, candidate {c.Environment.Configuration} (counts do not depend on it; timings do)");
 
+        if (changes.Count == 0)
+            throw new InputException(NothingToCompare(@base, candidate, common, comparable));
         return new ReportComparison(@base, candidate, notes, common, RegressionOrder.Sort(changes), notCompared);
+    }
+
+    // A comparison of nothing would pass every rule: refuse it, naming what each side holds.
+    private static string NothingToCompare(LoadedReport @base, LoadedReport candidate, IReadOnlyList<string> common,
+        IReadOnlyList<MetricDescriptor> comparable)
+    {
+        static string Names(IEnumerable<string> names) => names.Any() ? string.Join(", ", names) : "none";
+        var b = @base.Document;
+        var c = candidate.Document;
+        if (common.Count == 0)
+        {
+            return $"nothing to compare: no strategy is in both reports (base {@base.File} holds {Names(b.Strategies.Select(s => s.Name))}; " +
+                $"candidate {candidate.File} holds {Names(c.Strategies.Select(s => s.Name))}); trace both with a strategy in common";
+        }
+        return comparable.Count == 0
+            ? $"nothing to compare: no metric is in both reports (base {@base.File} lists {b.Metrics.Count}, candidate {candidate.File} lists {c.Metrics.Count}, none with the same name, unit and direction)"
+            : $"nothing to compare: no metric of {Names(common)} has a value in both reports ({@base.File}, {candidate.File})";
     }
 
     private static string? Missing(StrategyReport s, MetricDescriptor m, string side) =>

@@ -1,6 +1,7 @@
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using VoxProf.Core;
+using VoxProf.Reports.Export;
 using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
@@ -11,6 +12,9 @@ public sealed record LoadedReport(string File, ReportDocument Document)
 {
     /// <summary>The report directory (the directory of report.json): heatmaps and per-pixel files live beside it.</summary>
     public string Directory => Path.GetDirectoryName(Path.GetFullPath(File)) ?? ".";
+
+    /// <summary>The folder's manifest.json when it has one: files read beside report.json are checked against it.</summary>
+    public ReportManifest? Manifest { get; init; }
 }
 
 /// <summary>
@@ -20,6 +24,9 @@ public sealed record LoadedReport(string File, ReportDocument Document)
 public static partial class ReportLoader
 {
     public const string FileName = OutputNames.ReportJson;
+
+    /// <summary>Largest report.json read: a report is tens of kilobytes; anything this large is not one.</summary>
+    public const long MaxBytes = 64L << 20;
 
     // The writer's options, made strict: a missing constructor field or a null where the model has none becomes
     // an error with its JSON path instead of a null that fails somewhere in the comparison.
@@ -40,12 +47,23 @@ public static partial class ReportLoader
                 : $"{path}: not found (expected a report directory or its {FileName})");
         }
 
-        var bytes = File.ReadAllBytes(file);
+        if (System.IO.Directory.Exists(file))
+            throw new InputException($"{file}: is a folder; expected a report.json written by `voxprof trace`");
+        var length = new FileInfo(file).Length;
+        if (length > MaxBytes)
+            throw new InputException($"{file}: holds {length} bytes; expected a report.json of at most {MaxBytes}");
+        var raw = File.ReadAllBytes(file);
+        var folder = Path.GetDirectoryName(Path.GetFullPath(file)) ?? ".";
+        var manifest = ReportManifest.Read(folder);
+        manifest?.Verify(folder, FileName, raw);
+        var bytes = JsonText.WithoutBom(raw);
+        if (JsonText.FindInvalidUtf8(bytes.Span) is { } notUtf8)
+            throw new InputException($"{file}: {notUtf8.Where}: {notUtf8.Problem}");
         CheckSchema(file, bytes);
         ReportDocument? doc;
         try
         {
-            doc = JsonSerializer.Deserialize<ReportDocument>(bytes, Options);
+            doc = JsonSerializer.Deserialize<ReportDocument>(bytes.Span, Options);
         }
         catch (JsonException ex)
         {
@@ -55,16 +73,19 @@ public static partial class ReportLoader
         if (doc is null)
             throw new InputException($"{file}: expected a report object, found null");
         Validate(file, doc);
-        return new LoadedReport(file, doc);
+        ReportValues.Validate(file, doc);
+        return new LoadedReport(file, doc) { Manifest = manifest };
     }
 
     // Read the schema version alone first, so a report from a later schema gets "version N not read" rather than
     // a confusing complaint about some field that schema renamed.
-    private static void CheckSchema(string file, byte[] bytes)
+    private static void CheckSchema(string file, ReadOnlyMemory<byte> bytes)
     {
         try
         {
             using var json = JsonDocument.Parse(bytes);
+            if (JsonText.FindLoneSurrogate(json.RootElement) is { } lone)
+                throw new InputException($"{file}: {lone.Where}: {lone.Problem}");
             if (json.RootElement.ValueKind != JsonValueKind.Object)
                 throw new InputException($"{file}: expected a JSON object at the top, found {json.RootElement.ValueKind.ToString().ToLowerInvariant()}");
             JsonElement? found = null;
@@ -76,7 +97,7 @@ public static partial class ReportLoader
             if (found is not { } version)
                 throw new InputException($"{file}: $.schemaVersion: missing; expected the report schema version ({ReportDocument.CurrentSchema})");
             if (version.ValueKind != JsonValueKind.Number || !version.TryGetInt32(out var v))
-                throw new InputException($"{file}: $.schemaVersion: expected an integer, found {version.GetRawText()}");
+                throw new InputException($"{file}: $.schemaVersion: expected an integer, found {MessageText.Excerpt(version.GetRawText())}");
             if (v != ReportDocument.CurrentSchema)
             {
                 var age = v < ReportDocument.CurrentSchema ? "an older" : "a newer";
@@ -95,10 +116,11 @@ public static partial class ReportLoader
 
     // The parser stopped at the last byte: the text ended before the JSON did (a truncated or empty file), which
     // deserves a plainer message than the parser's complaint about what it expected next.
-    private static bool AtEnd(byte[] bytes, JsonException ex)
+    private static bool AtEnd(ReadOnlyMemory<byte> memory, JsonException ex)
     {
-        var lastBreak = Array.LastIndexOf(bytes, (byte)'\n');
-        var lines = bytes.Count(b => b == (byte)'\n');
+        var bytes = memory.Span;
+        var lastBreak = bytes.LastIndexOf((byte)'\n');
+        var lines = bytes.Count((byte)'\n');
         var lastLineLength = bytes.Length - (lastBreak + 1);
         return ex.LineNumber == lines && ex.BytePositionInLine >= lastLineLength;
     }
@@ -168,7 +190,7 @@ public static partial class ReportLoader
         if (message.StartsWith("The JSON value could not be converted", StringComparison.Ordinal))
             return "the value has the wrong type for this field (a number, text, list or object as report.json defines it)";
         message = TypeName().Replace(message, m => $"'{m.Groups[1].Value}'");
-        return message.ReplaceLineEndings(" ").TrimEnd('.', ' ');
+        return MessageText.CutEchoes(message).ReplaceLineEndings(" ").TrimEnd('.', ' ');
     }
 
     [GeneratedRegex("missing required properties including: (.*?)\\.?$")]

@@ -68,7 +68,9 @@ public sealed class OutputDirectory : IDisposable
     {
         CheckPath(path, "output folder");
         string full = Path.TrimEndingDirectorySeparator(Path.GetFullPath(path));
-        if (new DirectoryInfo(full).ResolveLinkTarget(returnFinalTarget: true) is DirectoryInfo target)
+        // A link to a folder: replace the folder it points to, not the link.
+        if (Directory.Exists(full) && new DirectoryInfo(full).LinkTarget is not null
+            && new DirectoryInfo(full).ResolveLinkTarget(returnFinalTarget: true) is DirectoryInfo target)
             full = Path.TrimEndingDirectorySeparator(target.FullName);
         string? parent = Path.GetDirectoryName(full);
         string name = Path.GetFileName(full);

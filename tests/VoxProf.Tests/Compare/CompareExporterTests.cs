@@ -135,12 +135,16 @@ public class CompareExporterTests
         using var tmp = new TempDir();
         var result = Result(1.0);
 
-        var failures = CompareOutputs.WriteAll(OutputDirectory.Open(tmp.Path), result, [new ThrowingExporter(), new CompareCsvExporter()]);
+        using (var output = OutputDirectory.Open(tmp.Path))
+        {
+            var failures = CompareOutputs.WriteAll(output, result, [new ThrowingExporter(), new CompareCsvExporter()]);
+            output.Commit();
+            failures.Should().ContainSingle().Which.Should().Contain("broken.txt").And.Contain("disk full");
+        }
 
-        failures.Should().ContainSingle().Which.Should().Contain("broken.txt").And.Contain("disk full");
         File.Exists(Path.Combine(tmp.Path, "compare.csv")).Should().BeTrue();
         File.Exists(Path.Combine(tmp.Path, "broken.txt")).Should().BeFalse();
-        Directory.GetFiles(tmp.Path).Should().ContainSingle("no temporary file is left behind");
+        Directory.GetFiles(tmp.Path).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.csv", "manifest.json"], "no temporary file is left behind");
     }
 
     private sealed class ThrowingExporter : ICompareExporter

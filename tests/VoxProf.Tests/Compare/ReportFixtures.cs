@@ -6,15 +6,16 @@ namespace VoxProf.Tests.Compare;
 /// <summary>Hand-made reports: small, with numbers chosen so the expected changes are known by hand.</summary>
 internal static class ReportFixtures
 {
-    /// <summary>The six statistics of a measure: total = 1000 × mean, p50 = mean, p90 = 1.5 × mean, p99 = 2 × mean.</summary>
-    public static Dictionary<string, double?> Counter(string name, double mean, long max = 100) => new()
+    /// <summary>The six statistics of a measure: total = 1000 × mean (the fixtures' 40 × 25 pixels), p50 = mean, p90 = 1.5 × mean, p99 = 2 × mean.</summary>
+    /// <remarks>The maximum defaults to 100, or 2 × mean when that is larger (a maximum below p99 is a damaged report).</remarks>
+    public static Dictionary<string, double?> Counter(string name, double mean, long? max = null) => new()
     {
         [$"{name}.total"] = (long)(mean * 1000),
         [$"{name}.mean"] = mean,
         [$"{name}.p50"] = mean,
         [$"{name}.p90"] = mean * 1.5,
         [$"{name}.p99"] = mean * 2,
-        [$"{name}.max"] = max,
+        [$"{name}.max"] = max ?? Math.Max(100, (long)Math.Ceiling(mean * 2)),
     };
 
     /// <summary>A subgroup size's three metrics; the costliest tile stays at 100.</summary>
@@ -33,7 +34,7 @@ internal static class ReportFixtures
     };
 
     public static StrategyReport Strategy(string name, double iterationsMean, double tileMax32 = 20, double efficiency32 = 0.5) =>
-        Make(name, Counter("iterations", iterationsMean), Counter("node-fetches", iterationsMean * 2),
+        Make(name, Counter("iterations", iterationsMean), Counter("node-fetches", iterationsMean * 2, max: 200),
             Subgroup(32, tileMax32, efficiency32), Subgroup(64, tileMax32 * 1.2, efficiency32 * 0.9), Facts());
 
     /// <summary>A strategy holding exactly the given values.</summary>
@@ -69,6 +70,17 @@ internal static class ReportFixtures
             new TimingInfo(0.5, strategies.ToDictionary(s => s.Name, _ => 0.25)));
     }
 
+    /// <summary>The report traced at another image size: every total is its mean times the new pixel count.</summary>
+    public static ReportDocument Resized(ReportDocument doc, int width, int height) => doc with
+    {
+        Run = doc.Run with { Width = width, Height = height },
+        Strategies = doc.Strategies.Select(s => Make(s.Name, s.Values.ToDictionary(
+            kv => kv.Key,
+            kv => kv.Key.EndsWith(".total", StringComparison.Ordinal) && s.Value(kv.Key[..^".total".Length] + ".mean") is { } mean
+                ? mean * width * height
+                : kv.Value))).ToArray(),
+    };
+
     public static ReportDocument Standard(double scale = 1.0) => Report(
         Strategy("grid", 40 * scale, 60 * scale, 0.6),
         Strategy("dda", 12 * scale, 20 * scale, 0.5),
@@ -96,6 +108,8 @@ internal sealed class TempDir : IDisposable
         try
         {
             Directory.Delete(Path, recursive: true);
+            // The lock an output folder written straight into this directory leaves beside it.
+            File.Delete(System.IO.Path.Combine(System.IO.Path.GetTempPath(), $".{System.IO.Path.GetFileName(Path)}.voxprof-lock"));
         }
         catch (IOException)
         {

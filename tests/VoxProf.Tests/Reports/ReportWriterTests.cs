@@ -35,24 +35,25 @@ public sealed class ReportWriterTests : IDisposable
             "report.json", "summary.csv", "summary.md", "preview.png", "mismatch-dda.png",
             "heatmap-grid-iterations.png", "heatmap-grid-subgroup32.png", "heatmap-grid-subgroup64.png",
             "heatmap-dda-iterations.png", "heatmap-dda-subgroup32.png", "heatmap-dda-subgroup64.png",
-            "pixels-grid.bin.gz", "pixels-dda.bin.gz");
+            "pixels-grid.bin.gz", "pixels-dda.bin.gz", "manifest.json");
         foreach (StrategyReport s in result.Document.Strategies)
             s.Files.Should().OnlyContain(f => names.Contains(f), "every file the report lists exists");
     }
 
     [Fact]
-    public void A_second_run_replaces_its_own_files_and_leaves_unrelated_files_alone()
+    public void A_second_run_replaces_the_whole_folder_so_no_file_of_the_first_run_stays()
     {
         Directory.CreateDirectory(_dir);
-        File.WriteAllText(Path.Combine(_dir, "notes.txt"), "mine");
         File.WriteAllText(Path.Combine(_dir, "summary.csv"), "stale");
+        File.WriteAllText(Path.Combine(_dir, "heatmap-slab-iterations.png"), "from a run with another strategy");
 
         WriteSmall();
         WriteSmall();
 
-        File.ReadAllText(Path.Combine(_dir, "notes.txt")).Should().Be("mine");
         File.ReadAllText(Path.Combine(_dir, "summary.csv")).Should().StartWith("strategy,iterations.total");
-        Directory.GetFiles(_dir, "*.tmp").Should().BeEmpty();
+        File.Exists(Path.Combine(_dir, "heatmap-slab-iterations.png")).Should().BeFalse("a file this run did not write belongs to an older run");
+        Directory.GetFileSystemEntries(Path.GetDirectoryName(_dir)!, $".{Path.GetFileName(_dir)}.voxprof-*")
+            .Should().OnlyContain(p => p.EndsWith(".voxprof-lock", StringComparison.Ordinal), "no stage or old folder stays behind");
     }
 
     private sealed class FailingExporter : IReportExporter
@@ -71,7 +72,9 @@ public sealed class ReportWriterTests : IDisposable
         var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, TestRuns.Options), TestRuns.Options);
         var writer = new ReportWriter([new FailingExporter(), new SummaryCsvExporter(), new ReportJsonExporter()]);
 
-        ReportResult result = writer.Write(context, OutputDirectory.Open(_dir));
+        using OutputDirectory output = OutputDirectory.Open(_dir);
+        ReportResult result = writer.Write(context, output);
+        output.Commit();
 
         result.Failures.Should().ContainSingle().Which.Message.Should().Be("broken: disk full");
         File.Exists(Path.Combine(_dir, "summary.csv")).Should().BeTrue();

@@ -120,7 +120,7 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("{'kind': 'raw', 'material': 1, 'file': 'absent.raw', 'size': [2, 2, 2]}"));
         ex.Where.Should().Be("$.layers[0].file");
-        ex.Problem.Should().StartWith("raw volume file not found: ").And.EndWith("absent.raw");
+        ex.Problem.Should().StartWith("raw volume file not found: ").And.EndWith("absent.raw (paths are relative to the scene file's folder)");
     }
 
     [Fact]

@@ -28,7 +28,7 @@ public class CompareCommandTests : IDisposable
         code.Should().Be(ExitCodes.Ok);
         _err.ToString().Should().BeEmpty();
         _out.ToString().Should().Contain("no change in any of 60 metrics").And.Contain("verdict: pass");
-        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json"]);
+        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json", "manifest.json"]);
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(OutDir, "compare.json")));
         json.RootElement.GetProperty("changes").EnumerateArray().Should().OnlyContain(c => c.GetProperty("change").GetDouble() == 0);
     }
@@ -101,7 +101,7 @@ public class CompareCommandTests : IDisposable
     {
         var doc = ReportFixtures.Standard();
         var a = ReportFixtures.Write(_tmp, "base", doc);
-        var b = ReportFixtures.Write(_tmp, "cand", doc with { Run = doc.Run with { Width = 64 } });
+        var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Resized(doc, 64, 25));
 
         var code = Run(a, b);
 
@@ -165,18 +165,28 @@ public class CompareCommandTests : IDisposable
     }
 
     [Fact]
-    public void A_second_run_replaces_the_compare_files_and_leaves_other_files_alone()
+    public void A_second_run_replaces_the_compare_files()
     {
         var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
         var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Standard(1.1));
-        Directory.CreateDirectory(OutDir);
-        File.WriteAllText(Path.Combine(OutDir, "notes.txt"), "mine");
 
         Run(a, a).Should().Be(ExitCodes.Ok);
         Run(a, b, "--fail-on", "all.iterations.mean:50%").Should().Be(ExitCodes.Ok);
 
-        File.ReadAllText(Path.Combine(OutDir, "notes.txt")).Should().Be("mine");
         File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain("+10%");
-        Directory.GetFiles(OutDir).Should().HaveCount(4, "no temporary file is left behind");
+        Directory.GetFiles(OutDir).Should().HaveCount(4, "three tables and the manifest; no temporary file is left behind");
+    }
+
+    [Fact]
+    public void An_out_folder_holding_files_voxprof_did_not_write_is_refused_and_left_alone()
+    {
+        var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
+        Directory.CreateDirectory(OutDir);
+        File.WriteAllText(Path.Combine(OutDir, "notes.txt"), "mine");
+
+        Run(a, a).Should().Be(ExitCodes.BadInput);
+
+        ErrorLines.Should().Be($"voxprof: error: {OutDir}: holds a file voxprof did not write ('notes.txt'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
+        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["notes.txt"]);
     }
 }
