@@ -4,7 +4,7 @@ using VoxProf.Cli.Commands;
 namespace VoxProf.Cli;
 
 /// <summary>Builds the command tree; tests call <see cref="Run"/> with their own writers.</summary>
-public static class Cli
+public static partial class Cli
 {
     public static RootCommand BuildRoot(TextWriter output, TextWriter error)
     {
@@ -23,9 +23,22 @@ public static class Cli
         // bad usage is 2 everywhere (ExitCodes). Several problems share one line, so a CI log shows one error.
         if (parse.Errors.Count > 0)
         {
-            Guard.WriteError(error, string.Join("; ", parse.Errors.Select(e => e.Message).Distinct()));
+            Guard.WriteError(error, string.Join("; ", parse.Errors.Select(e => Plain(e.Message).TrimEnd('.')).Distinct()));
             return ExitCodes.BadInput;
         }
         return parse.Invoke(new InvocationConfiguration { Output = output, Error = error });
     }
+
+    // The parser names .NET types ("as expected type 'System.Nullable`1[System.Int32]'"); say what to type instead.
+    private static string Plain(string message) => TypeName().Replace(message, m => m.Groups[1].Value switch
+    {
+        "Int32" => "; expected a whole number up to 2147483647",
+        "Int64" => "; expected a whole number",
+        "Single" or "Double" => "; expected a number",
+        "Boolean" => "; expected true or false",
+        _ => "",
+    });
+
+    [System.Text.RegularExpressions.GeneratedRegex(@" as expected type '(?:System\.Nullable`1\[)?System\.(\w+)\]?'")]
+    private static partial System.Text.RegularExpressions.Regex TypeName();
 }

@@ -72,6 +72,7 @@ public static partial class ReportLoader
         }
         if (doc is null)
             throw new InputException($"{file}: expected a report object, found null");
+        ReportValues.RequireItems(file, doc);
         Validate(file, doc);
         ReportValues.Validate(file, doc);
         return new LoadedReport(file, doc) { Manifest = manifest };

@@ -20,6 +20,33 @@ internal static class ReportValues
     // Statistics of one measure, in the order they must rise.
     private static readonly string[] Ascending = ["p50", "p90", "p99", "max"];
 
+    /// <summary>
+    /// Refuses a null inside a list (the serializer checks fields, not the items of their lists): the rest of the
+    /// comparison may then read every item.
+    /// </summary>
+    public static void RequireItems(string file, ReportDocument doc)
+    {
+        static void Items<T>(string file, string path, IEnumerable<T?>? items, string what)
+        {
+            int i = 0;
+            foreach (var item in items ?? [])
+            {
+                if (item is null)
+                    throw new InputException($"{file}: {path}[{i}]: expected {what}, found null");
+                i++;
+            }
+        }
+        Items(file, "$.metrics", doc.Metrics, "a metric");
+        Items(file, "$.strategies", doc.Strategies, "a strategy");
+        for (var i = 0; i < doc.Strategies.Count; i++)
+            Items(file, $"$.strategies[{i}].files", doc.Strategies[i].Files, "a file name");
+        Items(file, "$.run.strategies", doc.Run.Strategies, "a strategy name");
+        Items(file, "$.run.counters", doc.Run.Counters, "a counter name");
+        Items(file, "$.run.heatmaps", doc.Run.Heatmaps, "a heatmap name");
+        Items(file, "$.run.subgroups", doc.Run.Subgroups, "a subgroup");
+        Items(file, "$.warnings", doc.Warnings, "a warning");
+    }
+
     public static void Validate(string file, ReportDocument doc)
     {
         if (doc.Run.Width > PixelDataFile.MaxSide || doc.Run.Height > PixelDataFile.MaxSide)

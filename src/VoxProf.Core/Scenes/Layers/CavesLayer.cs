@@ -63,7 +63,7 @@ public sealed class CavesLayer : Layer
         double perVoxel = 9.0 * Settings.Octaves * (Settings.Shape == CaveShape.Tunnels ? 1.3 : 1);
         // Caves leave the region full of mixed bricks; trees of the sample caves hold about 0.12 bytes per voxel.
         return new LayerCost(volume * perVoxel, volume * 0.03, 0,
-            $"a region of {LayerCost.Figure(volume)} voxels × {Settings.Octaves} octaves of 3D noise");
+            $"a region of {LayerCost.Figure(volume)} voxels × {Settings.Octaves} octave{(Settings.Octaves == 1 ? "" : "s")} of 3D noise");
     }
 
     public override Coverage Classify(in Box3i region)

@@ -56,7 +56,7 @@ public sealed class TerrainLayer : Layer
         double surface = columns * (1 + relief);
         double heights = columns * s.Octaves * 2;
         return new LayerCost(surface * LayerCost.DenseSide + heights, surface, columns * sizeof(ushort) * 4 / 3,
-            $"{LayerCost.Figure(columns)} columns × {s.Octaves} octaves and a surface of about {LayerCost.Figure(surface)} voxels");
+            $"{LayerCost.Figure(columns)} columns × {s.Octaves} octave{(s.Octaves == 1 ? "" : "s")} and a surface of about {LayerCost.Figure(surface)} voxels");
     }
 
     /// <summary>Height of column (x, z) straight from the noise (the definition the stored heights must equal).</summary>
