@@ -1,6 +1,5 @@
 using System.Globalization;
 using System.Text;
-using System.Text.RegularExpressions;
 
 namespace VoxProf.Core;
 
@@ -8,7 +7,7 @@ namespace VoxProf.Core;
 /// Keeps error messages to one readable line: control characters (a newline in a path, a NUL, an escape sequence)
 /// are written as escapes, and long echoes of the input are cut to a short excerpt.
 /// </summary>
-public static partial class MessageText
+public static class MessageText
 {
     /// <summary>Longest quoted echo of the input a message keeps (a JSON parser quotes the rest of the file).</summary>
     public const int MaxEcho = 40;
@@ -61,11 +60,16 @@ public static partial class MessageText
     }
 
     /// <summary>
-    /// A parser's message with its single-quoted echoes of the input (System.Text.Json quotes a bad literal up to
-    /// the end of the file) cut to <see cref="MaxEcho"/> characters.
+    /// A parser's message with its echo of the input cut to <see cref="MaxEcho"/> characters: System.Text.Json
+    /// starts "'ECHO' is an invalid JSON literal", quoting a bad literal up to the end of the file, quotes and all.
     /// </summary>
-    public static string CutEchoes(string message) =>
-        Quoted().Replace(message, m => m.Length - 2 <= MaxEcho ? m.Value : $"'{m.Value[1..(MaxEcho + 1)]}…'");
+    public static string CutEchoes(string message)
+    {
+        int end = message.StartsWith('\'') ? message.LastIndexOf("' is ", StringComparison.Ordinal) : -1;
+        if (end <= MaxEcho + 1)
+            return message;
+        return $"'{message[1..(MaxEcho + 1)]}…{message[end..]}";
+    }
 
     /// <summary>A message as printed: control characters escaped, the whole kept under <see cref="MaxLength"/>.</summary>
     public static string ForDisplay(string message)
@@ -88,8 +92,4 @@ public static partial class MessageText
         }
         return char.IsControl(c) || c is '\u2028' or '\u2029';
     }
-
-    // A single-quoted span; the parser's echoes run to the end of the input, across lines.
-    [GeneratedRegex("'[^']*'", RegexOptions.Singleline)]
-    private static partial Regex Quoted();
 }

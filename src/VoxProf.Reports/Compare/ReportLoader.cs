@@ -177,7 +177,7 @@ public static partial class ReportLoader
     // .NET types; keep the part a user can act on.
     private static string Problem(JsonException ex)
     {
-        var message = ex.Message;
+        var message = MessageText.CutEchoes(ex.Message);
         var cut = message.IndexOf(" Path: ", StringComparison.Ordinal);
         if (cut < 0)
             cut = message.IndexOf(" LineNumber: ", StringComparison.Ordinal);
@@ -191,7 +191,7 @@ public static partial class ReportLoader
         if (message.StartsWith("The JSON value could not be converted", StringComparison.Ordinal))
             return "the value has the wrong type for this field (a number, text, list or object as report.json defines it)";
         message = TypeName().Replace(message, m => $"'{m.Groups[1].Value}'");
-        return MessageText.CutEchoes(message).ReplaceLineEndings(" ").TrimEnd('.', ' ');
+        return message.ReplaceLineEndings(" ").TrimEnd('.', ' ');
     }
 
     [GeneratedRegex("missing required properties including: (.*?)\\.?$")]

@@ -205,7 +205,7 @@ internal sealed partial class LayerReader
         {
             string folder = ScenePaths.Real(sceneDirectory);
             if (!ScenePaths.IsInside(real, folder))
-                throw value.Error($"{MessageText.Excerpt(file)} resolves to {real}, outside the scene file's folder {folder}; files are confined to that folder");
+                throw value.Error($"{MessageText.Excerpt(file, 200)} resolves to {real}, outside the scene file's folder {folder}; files are confined to that folder");
         }
         return (value, file, real);
     }
