@@ -9,11 +9,17 @@ public class MessageTextTests
     [InlineData("a\nb\r\tc", "a\\nb\\r\\tc")]
     [InlineData("nul\0esc\u001b[0m", "nul\\u0000esc\\u001B[0m")]
     [InlineData("sep\u2028par\u2029del\u007f", "sep\\u2028par\\u2029del\\u007F")]
-    [InlineData("lone \ud800 high", "lone \\uD800 high")]
     [InlineData("pair \ud83d\ude00 kept", "pair \ud83d\ude00 kept")]
-    public void One_line_escapes_every_control_character_and_lone_surrogate_and_keeps_the_rest(string text, string expected)
+    public void One_line_escapes_every_control_character_and_keeps_the_rest(string text, string expected)
     {
         MessageText.OneLine(text).Should().Be(expected);
+    }
+
+    [Fact]
+    public void A_lone_surrogate_is_escaped()
+    {
+        // Built in code: xunit's theory data would replace a lone surrogate before the test sees it.
+        MessageText.OneLine("lone " + (char)0xD800 + " high").Should().Be("lone \\uD800 high");
     }
 
     [Fact]
