@@ -91,6 +91,18 @@ public class SceneInputHardeningTests
         ex.Problem.Should().Be("scene file /dev/zero holds more than 67,108,864 bytes; expected at most 67,108,864");
     }
 
+    [Theory]
+    [InlineData("{'kind': 'heightmap', 'material': 1, 'file': '/dev/zero', 'height': [0, 8]}", "heightmap file")]
+    [InlineData("{'kind': 'mesh', 'material': 1, 'file': '/dev/zero', 'format': 'obj'}", "mesh file")]
+    public void A_device_named_as_a_layer_file_is_refused_before_it_is_opened(string layer, string what)
+    {
+        if (!File.Exists("/dev/zero"))
+            return; // Linux only.
+        using var scene = TempScene.With(layer);
+
+        Reject(scene.Path).Problem.Should().Be($"{what} /dev/zero holds no bytes (an empty file, a device or a pipe); expected a {what}");
+    }
+
     [Fact]
     public void A_folder_given_as_the_scene_is_called_a_folder_not_missing()
     {

@@ -216,6 +216,9 @@ internal sealed partial class LayerReader
             throw value.Error($"{what} {full} is a folder; expected a file");
         if (!File.Exists(full))
             throw value.Error($"{what} not found: {full} (paths are relative to the scene file's folder)");
+        // A device or a pipe reports no length: reading one could block or never end.
+        if (new FileInfo(full).Length == 0)
+            throw value.Error($"{what} {full} holds no bytes (an empty file, a device or a pipe); expected a {what}");
     }
 
     private Stream OpenRead(string full, JsonValue where)
