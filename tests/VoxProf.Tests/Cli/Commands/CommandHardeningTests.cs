@@ -1,4 +1,7 @@
+using System.CommandLine;
 using VoxProf.Cli;
+using VoxProf.Cli.Commands;
+using VoxProf.Core.Limits;
 using VoxProf.Tests.Compare;
 
 namespace VoxProf.Tests.Cli.Commands;
@@ -24,6 +27,24 @@ public sealed class CommandHardeningTests : IDisposable
         string dir = Path.Combine(_tmp.Path, name);
         Run(["trace", RingPost, "--size", "24x16", "--strategy", "dda,grid", "--quiet", "--out", dir, .. extra]).Should().Be(ExitCodes.Ok, Error);
         return dir;
+    }
+
+    [Fact]
+    public void A_16384_square_trace_is_refused_before_it_starts_when_it_cannot_fit_in_the_memory_available()
+    {
+        var pipeline = TracePipeline.Default with { AvailableMemory = () => new MemoryLimit(8_000_000_000, "the test's limit") };
+        var root = new RootCommand { TraceCommand.Create(_out, _err, pipeline) };
+        string dir = Path.Combine(_tmp.Path, "big");
+
+        int code = root.Parse(["trace", RingPost, "--size", "16384x16384", "--strategy", "dda", "--quiet", "--out", dir]).Invoke(new InvocationConfiguration { Output = _out, Error = _err });
+
+        code.Should().Be(ExitCodes.BadInput);
+        // The results alone: 16384² pixels × (11 counters × 4 bytes + the hit record); heatmaps and statistics add more.
+        double results = 16384.0 * 16384 * TraceEstimate.BytesPerPixel;
+        Error.Should().StartWith("voxprof: error: tracing 16384×16384 with 1 strategy needs about ")
+            .And.Contain($"(results of 1 strategy at 16384×16384 ({TraceEstimate.BytesPerPixel} bytes per pixel each) {MemoryLimit.Format(results)}")
+            .And.EndWith("more than the 8.0 GB available (the test's limit); trace a smaller --size or fewer strategies, or simplify the scene");
+        Directory.Exists(dir).Should().BeFalse("nothing is written for a refused run");
     }
 
     [Fact]
