@@ -48,6 +48,14 @@ internal sealed class FuzzHarness : IDisposable
     /// <summary>A case's verdict: null problem when the run behaved.</summary>
     public sealed record Outcome(string Description, RunOutcome Run, string? Problem);
 
+    /// <summary>Runs case <paramref name="seed"/>, logs what it did and printed, and fails the test if it misbehaved.</summary>
+    public void Expect(int seed, Xunit.Abstractions.ITestOutputHelper log)
+    {
+        Outcome outcome = RunCase(seed);
+        log.WriteLine($"{outcome.Description}: exit {outcome.Run.Code}, {outcome.Run.Elapsed.TotalSeconds:0.00} s: {outcome.Run.Error.TrimEnd()}");
+        outcome.Problem.Should().BeNull($"case {seed} ({outcome.Description}) printed: {outcome.Run.Error}");
+    }
+
     /// <summary>Case <paramref name="seed"/>: two in three mutate a scene, one in three a report.</summary>
     public Outcome RunCase(int seed)
     {
