@@ -12,6 +12,7 @@ public static class Cli
         root.Subcommands.Add(InspectCommand.Create(output, error));
         root.Subcommands.Add(TraceCommand.Create(output, error));
         root.Subcommands.Add(CompareCommand.Create(output, error));
+        root.Subcommands.Add(CalibrateCommand.Create(output, error));
         return root;
     }
 

@@ -6,6 +6,7 @@ using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Tables;
@@ -52,11 +53,12 @@ public static class TraceCommand
         var quiet = new Option<bool>("--quiet") { Description = "No progress line on stderr." };
         var perPixel = new Option<bool>("--per-pixel") { Description = "Also write pixels-STRATEGY.csv." };
         var baseline = new Option<string?>("--baseline") { Description = "Strategy summary.md is relative to (default: the slowest)." };
+        var calibration = new Option<string?>("--calibration") { Description = "calibration.json from `voxprof calibrate`: adds predicted-ms and a predicted-cost heatmap." };
 
         var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries and report.json.")
         {
             scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
-            quiet, perPixel, baseline,
+            quiet, perPixel, baseline, calibration,
         };
         cmd.SetAction(parse =>
         {
@@ -92,6 +94,13 @@ public static class TraceCommand
                 }
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
                 view.Validate();
+                AppliedCalibration? calibrated = parse.GetValue(calibration) is { } cf ? CalibrationFile.Read(cf) : null;
+                if (calibrated is not null)
+                {
+                    foreach (string w in calibrated.Model.ScopeWarnings(branch, width, height))
+                        error.WriteLine($"voxprof: warning: {w}");
+                    heatmaps.Add(HeatmapNames.PredictedCost);
+                }
                 string? outOption = parse.GetValue(outDir);
                 if (outOption is not null && File.Exists(outOption))
                     throw new InputException($"{outOption}: is a file, expected an output directory");
@@ -117,6 +126,7 @@ public static class TraceCommand
                     PerPixel = parse.GetValue(perPixel),
                     Baseline = baselineStrategy,
                     Threads = threadCount == 0 ? Environment.ProcessorCount : threadCount,
+                    Calibration = calibrated,
                 };
                 if (ToolInfo.IsDebug(options.Environment))
                     error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");

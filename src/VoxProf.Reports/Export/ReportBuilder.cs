@@ -17,10 +17,11 @@ public static class ReportBuilder
         var settings = run.Settings;
         string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
 
-        var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s), FilesOf(s, options))).ToList();
+        var calibration = options.Calibration?.Model;
+        var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
-            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape))
-            : MetricCatalogue.Standard;
+            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration)
+            : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
             ReportDocument.CurrentSchema,
@@ -48,7 +49,12 @@ public static class ReportBuilder
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
             });
-        return ToolInfo.IsDebug(options.Environment) ? document with { Warnings = [ToolInfo.DebugWarning] } : document;
+        var warnings = new List<string>();
+        if (ToolInfo.IsDebug(options.Environment))
+            warnings.Add(ToolInfo.DebugWarning);
+        if (calibration is not null)
+            warnings.AddRange(calibration.ScopeWarnings(settings.Branching, settings.Width, settings.Height));
+        return document with { Warnings = warnings, Calibration = options.Calibration?.Info };
     }
 
     /// <summary>The requested baseline if it was traced, otherwise the strategy with the largest 32-lane mean tile max.</summary>

@@ -2,6 +2,7 @@ using System.Reflection;
 using System.Runtime.InteropServices;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Model;
 
@@ -28,6 +29,9 @@ public sealed record ReportOptions
 
     public int Threads { get; init; }
 
+    /// <summary>The calibration behind predicted-ms and the predicted-cost map; null for none.</summary>
+    public AppliedCalibration? Calibration { get; init; }
+
     public string ToolVersion { get; init; } = ToolInfo.Version;
 
     public EnvironmentInfo Environment { get; init; } = ToolInfo.CurrentEnvironment();
@@ -42,6 +46,12 @@ public static class HeatmapNames
         [.. CounterNames.All.Select(c => c.Name()), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static string ValidList => string.Join(", ", All);
+
+    /// <summary>
+    /// Each pixel's GPU time predicted by a calibration, in picoseconds: drawn with --calibration, not a --counters
+    /// choice (there is nothing to draw without one).
+    /// </summary>
+    public const string PredictedCost = "predicted-cost";
 
     public static bool TryParse(string text, out string name)
     {

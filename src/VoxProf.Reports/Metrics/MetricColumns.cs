@@ -10,8 +10,8 @@ public sealed record MetricColumn(string Metric, bool Ratio = true, bool Prepass
 
 /// <summary>
 /// The columns of the short tables a reviewer reads (summary.md and the trace console); every metric stays in
-/// summary.csv and report.json. Total work comes first: it includes the prepass's share, so a strategy with the
-/// prepass is never shown cheaper than it is.
+/// summary.csv and report.json. The predicted GPU time leads when a calibration gave one; then total work: it
+/// includes the prepass's share, so a strategy with the prepass is never shown cheaper than it is.
 /// </summary>
 public static class MetricColumns
 {
@@ -25,6 +25,7 @@ public static class MetricColumns
     /// <summary>summary.md.</summary>
     public static IReadOnlyList<MetricColumn> Summary { get; } =
     [
+        new(MetricCatalogue.PredictedMs),
         new(Of(Measures.TotalIterations, "mean")),
         new(Of(Measures.TotalIterations, "p90")),
         new(Of(Iterations, "mean"), PrepassOnly: true),
@@ -41,6 +42,7 @@ public static class MetricColumns
     /// <summary>The table `voxprof trace` prints.</summary>
     public static IReadOnlyList<MetricColumn> Console { get; } =
     [
+        new(MetricCatalogue.PredictedMs),
         new(Of(Measures.TotalIterations, "mean")),
         new(Of(Measures.TotalNodeFetches, "mean")),
         new(Of(SubgroupShape.Lanes32, MetricCatalogue.TileMaxMean)),

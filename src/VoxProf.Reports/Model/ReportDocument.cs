@@ -1,3 +1,5 @@
+using System.Text.Json.Serialization;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Metrics;
 
 namespace VoxProf.Reports.Model;
@@ -24,6 +26,10 @@ public sealed record ReportDocument(
 
     /// <summary>Reasons the numbers may mislead (a Debug build, say); empty when there are none.</summary>
     public IReadOnlyList<string> Warnings { get; init; } = [];
+
+    /// <summary>The calibration predicted-ms comes from (trace --calibration); left out of the file without one.</summary>
+    [JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)]
+    public CalibrationInfo? Calibration { get; init; }
 }
 
 public sealed record SceneInfo(string Name, string? File, string? Sha256, int[] Extent);
