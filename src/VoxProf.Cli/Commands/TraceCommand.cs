@@ -97,7 +97,7 @@ public static class TraceCommand
                 AppliedCalibration? calibrated = parse.GetValue(calibration) is { } cf ? CalibrationFile.Read(cf) : null;
                 if (calibrated is not null)
                 {
-                    foreach (string w in calibrated.Model.ScopeWarnings(branch, width, height))
+                    if (calibrated.Model.ScopeWarning(branch, width, height) is { } w)
                         error.WriteLine($"voxprof: warning: {w}");
                     heatmaps.Add(HeatmapNames.PredictedCost);
                 }

@@ -58,21 +58,26 @@ public sealed record CostModel(string Device, IReadOnlyList<CostTerm> Terms, Fit
     }
 
     /// <summary>
-    /// Why a prediction for a trace of this branching and size may mislead: one line each for a branching factor or
-    /// an image size the calibration was not fitted on. Empty when both match.
+    /// Why a prediction for a trace of this branching and size may mislead, in one line: the branching factor or
+    /// image size the calibration was not fitted on. Null when both match.
     /// </summary>
-    public IReadOnlyList<string> ScopeWarnings(int branching, int width, int height)
+    public string? ScopeWarning(int branching, int width, int height)
     {
-        var warnings = new List<string>();
+        var fitted = new List<string>();
+        var used = new List<string>();
         if (FittedOn.Branchings.Count > 0 && !FittedOn.Branchings.Contains(branching))
         {
-            warnings.Add($"calibration for {Device} was fitted on branching {List(FittedOn.Branchings)}, this trace uses branching " +
-                $"{branching.ToString(CultureInfo.InvariantCulture)}: predicted-ms may not hold");
+            fitted.Add($"branching {List(FittedOn.Branchings)}");
+            used.Add($"branching {branching.ToString(CultureInfo.InvariantCulture)}");
         }
         var size = new ImageSize(width, height);
         if (FittedOn.Sizes.Count > 0 && !FittedOn.Sizes.Contains(size))
-            warnings.Add($"calibration for {Device} was fitted on {List(FittedOn.Sizes)} images, this trace is {size}: predicted-ms may not hold");
-        return warnings;
+        {
+            fitted.Add($"{List(FittedOn.Sizes)} images");
+            used.Add($"{size} images");
+        }
+        return fitted.Count == 0 ? null
+            : $"calibration for {Device} was fitted on {string.Join(" and ", fitted)}, this trace uses {string.Join(" and ", used)}: predicted-ms may not hold";
     }
 
     private static string List<T>(IEnumerable<T> items) =>

@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Text.RegularExpressions;
 using CsvHelper;
 using VoxProf.Core;
 using VoxProf.Core.Calibration;
@@ -15,7 +16,7 @@ public sealed record TimeRow(int Line, string Scene, string Camera, string Strat
 /// Reads the GPU times a team measured: RFC 4180 CSV (CsvHelper), a header naming the columns, one record per view,
 /// '#' lines as comments. Every problem is one <see cref="InputException"/> naming the file, the line and the column.
 /// </summary>
-public static class TimesCsv
+public static partial class TimesCsv
 {
     public const string Scene = "scene";
     public const string Camera = "camera";
@@ -71,9 +72,17 @@ public static class TimesCsv
         catch (CsvFormatException ex)
         {
             string place = ex.LineNumber > 0 ? $"line {ex.LineNumber.ToString(CultureInfo.InvariantCulture)}: " : "";
-            throw new InputException($"{path}: {place}{ex.Message.TrimEnd('.')} (expected RFC 4180 CSV with {Expected})", ex);
+            // The library names the record and line itself; the line is already given in front.
+            string problem = RecordPlace().Replace(ex.Message, m => m.Groups[1].Success ? "" : "the record").TrimEnd('.');
+            string hint = problem.Contains("fields but", StringComparison.Ordinal)
+                ? "; a number with a decimal comma splits in two: write 1.5, not 1,5"
+                : "; expected RFC 4180 CSV, with fields that hold a comma, quote or line break in double quotes";
+            throw new InputException($"{path}: {place}{problem}{hint}", ex);
         }
     }
+
+    [GeneratedRegex(@"( in)? [Rr]ecord \d+ \(line \d+\)|^[Rr]ecord \d+ \(line \d+\)")]
+    private static partial Regex RecordPlace();
 
     private static Dictionary<string, int> Columns(string path, IReadOnlyList<string> headers)
     {

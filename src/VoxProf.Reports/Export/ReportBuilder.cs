@@ -52,8 +52,8 @@ public static class ReportBuilder
         var warnings = new List<string>();
         if (ToolInfo.IsDebug(options.Environment))
             warnings.Add(ToolInfo.DebugWarning);
-        if (calibration is not null)
-            warnings.AddRange(calibration.ScopeWarnings(settings.Branching, settings.Width, settings.Height));
+        if (calibration?.ScopeWarning(settings.Branching, settings.Width, settings.Height) is { } scope)
+            warnings.Add(scope);
         return document with { Warnings = warnings, Calibration = options.Calibration?.Info };
     }
 

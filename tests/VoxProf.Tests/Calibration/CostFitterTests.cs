@@ -134,13 +134,14 @@ public class CostFitterTests : IClassFixture<RingPostViews>
     }
 
     [Fact]
-    public void A_trace_of_another_branching_or_size_gets_a_warning_each()
+    public void A_trace_of_another_branching_or_size_gets_one_line_naming_both()
     {
-        var model = new CostModel("Lab card", [new CostTerm(null, 1)], new FitScope([4], [new ImageSize(1280, 720)]));
+        var model = new CostModel("Lab card", [new CostTerm(null, 1)], new FitScope([4], [new ImageSize(1280, 720), new ImageSize(640, 360)]));
 
-        model.ScopeWarnings(4, 1280, 720).Should().BeEmpty();
-        model.ScopeWarnings(2, 640, 360).Should().Equal(
-            "calibration for Lab card was fitted on branching 4, this trace uses branching 2: predicted-ms may not hold",
-            "calibration for Lab card was fitted on 1280x720 images, this trace is 640x360: predicted-ms may not hold");
+        model.ScopeWarning(4, 640, 360).Should().BeNull();
+        model.ScopeWarning(2, 1280, 720).Should().Be(
+            "calibration for Lab card was fitted on branching 4, this trace uses branching 2: predicted-ms may not hold");
+        model.ScopeWarning(2, 320, 180).Should().Be(
+            "calibration for Lab card was fitted on branching 4 and 1280x720 or 640x360 images, this trace uses branching 2 and 320x180 images: predicted-ms may not hold");
     }
 }
