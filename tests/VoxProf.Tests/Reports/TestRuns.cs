@@ -12,7 +12,14 @@ internal static class TestRuns
 {
     public static readonly EnvironmentInfo Environment = new("test-runtime", 2, "Release", "test-os");
 
-    public static ReportOptions Options => new() { ToolVersion = "0.1.0-test", Environment = Environment, Threads = 2 };
+    public static ReportOptions Options => new()
+    {
+        ToolVersion = "0.1.0-test",
+        ToolCommit = "0123456789abcdef0123456789abcdef01234567",
+        CommandLine = ["trace", "yard.json", "--size", "16x8"],
+        Environment = Environment,
+        Threads = 2,
+    };
 
     /// <summary>
     /// A 16×8 image with a grid and a dda result. Grid iterations are x + y + 1; dda takes half as many, plus a
