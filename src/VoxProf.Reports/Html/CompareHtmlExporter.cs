@@ -22,8 +22,8 @@ public sealed class CompareHtmlExporter : ICompareExporter
         HtmlPage.Begin(w, "VoxProf comparison", "VoxProf comparison", "Traversal cost of the candidate against the base", subtitle);
         Gate(w, result.Verdict);
         Reports(w, cmp);
-        Changes(w, cmp);
         Differences(w, result);
+        Changes(w, cmp);
         HtmlPage.End(w, "Written by VoxProf. This file is complete in itself: it loads nothing from anywhere.");
     }
 
@@ -53,7 +53,7 @@ public sealed class CompareHtmlExporter : ICompareExporter
 
     private static void Reports(TextWriter w, ReportComparison cmp)
     {
-        w.Write("<section id=\"reports\">\n<h2>Reports</h2>\n<dl class=\"facts\">\n");
+        w.Write("<section id=\"reports\">\n<h2>Reports</h2>\n<dl class=\"facts wide\">\n");
         foreach (var (label, report) in new[] { ("base", cmp.Base), ("candidate", cmp.Candidate) })
         {
             var d = report.Document;
@@ -72,29 +72,46 @@ public sealed class CompareHtmlExporter : ICompareExporter
 
     private static void Changes(TextWriter w, ReportComparison cmp)
     {
-        w.Write("<section id=\"changes\">\n<h2>Every metric, most added work first</h2>\n");
+        var changed = cmp.Changes.Where(c => c.Change != 0).ToList();
+        var unchanged = cmp.Changes.Where(c => c.Change == 0).ToList();
+        w.Write("<section id=\"changes\">\n<h2>Changed metrics, most added work first</h2>\n");
         w.Write($"<p>{CompareText.MoreWork} marks more work and {CompareText.LessWork} less work, whichever way the number moves: a rise of a cost is more work, " +
             "and so is a fall of SIMD efficiency (more idle lane slots) or of <code>prepass-skip</code> (less distance skipped). " +
             "A change of <code>hit-rate</code> has no mark. The marks do not decide the gate; only its rules do. Click a column's name to sort by it.</p>\n");
-        w.Write("<div class=\"table-wrap\"><table class=\"sortable\" id=\"change-table\">\n<thead><tr>");
+        if (changed.Count == 0)
+            w.Write($"<p>No metric changed ({cmp.Changes.Count} compared).</p>\n");
+        else
+            ChangeTable(w, "change-table", changed);
+        if (unchanged.Count > 0)
+        {
+            w.Write($"<details><summary>{unchanged.Count} unchanged metrics</summary>\n");
+            ChangeTable(w, "unchanged-table", unchanged);
+            w.Write("</details>\n");
+        }
+        w.Write("</section>\n");
+    }
+
+    private static void ChangeTable(TextWriter w, string id, IEnumerable<MetricChange> changes)
+    {
+        w.Write($"<div class=\"table-wrap\"><table class=\"sortable\" id=\"{id}\">\n<thead><tr>");
         foreach (string h in new[] { "strategy", "metric", "unit" })
             w.Write(HtmlPage.SortHeader(h, text: true));
         foreach (string h in new[] { "base", "candidate", "change", "relative" })
             w.Write(HtmlPage.SortHeader(h));
-        w.Write(HtmlPage.SortHeader("work", "↑ more work, ↓ less work", text: true));
+        w.Write(HtmlPage.SortHeader("work", $"{CompareText.MoreWork} more work, {CompareText.LessWork} less work", text: true));
         w.Write("</tr></thead>\n<tbody>\n");
-        foreach (MetricChange c in cmp.Changes)
+        foreach (MetricChange c in changes)
         {
-            string mark = CompareText.WorkMark(c);
             w.Write($"<tr><td>{HtmlText.Encode(c.Strategy)}</td><td class=\"text\"><code>{HtmlText.Encode(c.Metric.Name)}</code></td><td class=\"text\">{HtmlText.Encode(c.Metric.Unit)}</td>");
             w.Write(HtmlPage.NumberCell(c.Metric.Format(c.Base), c.Base));
             w.Write(HtmlPage.NumberCell(c.Metric.Format(c.Candidate), c.Candidate));
             w.Write(HtmlPage.NumberCell(c.Metric.FormatChange(c.Change), c.Change));
+            // A cost appearing from 0 has no finite relative change: it sorts past every finite one.
             w.Write(HtmlPage.NumberCell(HtmlText.Encode(CompareText.Relative(c)), c.RelativeChange ?? (c.Change > 0 ? double.MaxValue : double.MinValue)));
             string cls = c.IsRegression ? "more" : c.IsImprovement ? "less" : "text";
-            w.Write($"<td class=\"{cls}\">{mark}</td></tr>\n");
+            w.Write($"<td class=\"{cls}\">{CompareText.WorkMark(c)}</td></tr>\n");
         }
-        w.Write("</tbody></table></div>\n</section>\n");
+        w.Write("</tbody></table></div>\n");
     }
 
     private static void Differences(TextWriter w, CompareResult result)

@@ -70,6 +70,8 @@ public sealed class HtmlReportExporter : IReportExporter
         w.Write("<div class=\"switches\">\n");
         HtmlPage.Switch(w, "strategy", "strategy", d.Strategies.Select(s => (s.Name, s.Name)), d.Run.Baseline);
         HtmlPage.Switch(w, "map", "map", maps.Select(m => (m, m)));
+        // Fitted to the window, a large image has less than a screen pixel per image pixel: some cannot be pointed at.
+        w.Write("<label class=\"toggle\"><input type=\"checkbox\" id=\"actual-size\"> one screen pixel per image pixel</label>\n");
         w.Write("</div>\n<div class=\"view\">\n<figure class=\"viewer\">\n");
         foreach (var (image, keys, caption, rowsBelow) in images)
             HtmlPage.ViewerImage(w, image, keys, caption, caption, ImageOrigin(image, d.Run.Width, d.Run.Height, rowsBelow));

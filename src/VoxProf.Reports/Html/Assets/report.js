@@ -151,6 +151,8 @@
   };
 
   const viewer = viewers[0];
+  const actual = $('#actual-size');
+  if (actual) actual.addEventListener('change', () => viewer.classList.toggle('actual', actual.checked));
   viewer.addEventListener('vp-switch', (e) => { if (e.detail.strategy && e.detail.strategy !== strategy) select(e.detail.strategy); });
   const pixelAt = (img, event) => {
     const box = img.getBoundingClientRect();
