@@ -6,7 +6,10 @@ using VoxProf.Core.Trees;
 
 namespace VoxProf.Cli.Commands;
 
-/// <summary><c>voxprof inspect SCENE</c>: builds the scene's tree and prints its shape and memory per level.</summary>
+/// <summary>
+/// <c>voxprof inspect SCENE</c>: builds the scene's tree and prints its shape and memory per level, then each layer
+/// (kind, label, file, the voxels it set, load and voxelisation time) and each camera.
+/// </summary>
 public static class InspectCommand
 {
     public static Command Create(TextWriter output, TextWriter error)
@@ -40,7 +43,7 @@ public static class InspectCommand
                 r.AddError($"--threads: expected 0 or more, got {n}");
         });
 
-        var cmd = new Command("inspect", "Build a scene's sparse tree and print its size per level.")
+        var cmd = new Command("inspect", "Build a scene's sparse tree and print its size per level, its layers and its cameras.")
         {
             sceneArg, branching, format, threads,
         };
@@ -53,7 +56,11 @@ public static class InspectCommand
                     throw new InputException($"{path}: scene file not found");
                 Scene scene = SceneLoader.Load(path);
                 BrickTree tree = TreeBuilder.Build(scene, parse.GetValue(branching), parse.GetValue(threads));
-                output.Write(parse.GetValue(format) == "json" ? TreeSummary.Json(scene, tree) : TreeSummary.Text(scene, tree));
+                // A second walk, apart from the builder, credits each voxel to the layer that set it last and times each layer.
+                LayerTally[] census = LayerCensus.Run(scene, parse.GetValue(threads));
+                output.Write(parse.GetValue(format) == "json"
+                    ? TreeSummary.Json(scene, tree, census)
+                    : TreeSummary.Text(scene, tree, census));
                 return ExitCodes.Ok;
             });
         });

@@ -45,6 +45,15 @@ public abstract class Layer
     /// <summary>The optional <c>label</c> the scene file gives this layer, for listings.</summary>
     public string? Label { get; internal set; }
 
+    /// <summary>The input file the layer was read from (<c>file</c> as written in the scene), for listings.</summary>
+    public string? File { get; internal set; }
+
+    /// <summary>Time spent reading and preparing the layer when the scene was loaded (files, bins, heights).</summary>
+    public TimeSpan LoadTime { get; internal set; }
+
+    /// <summary>A few words about what the layer holds (triangles, pixels, samples) for listings; null when nothing to add.</summary>
+    public virtual string? Details => null;
+
     /// <summary>Short kind name as written in the scene file, for messages.</summary>
     public abstract string Kind { get; }
 

@@ -70,10 +70,13 @@ public static class CompareDiffImages
         }
 
         var written = new List<string>();
+        var ranges = jobs.GroupBy(j => j.Map).ToDictionary(g => g.Key, g => g.Max(j => DiffHeatmap.RobustRange(j.Diff)));
         foreach (var job in jobs)
         {
-            var maxAbs = jobs.Where(j => j.Map == job.Map).Max(j => j.Summary.MaxAbs);
-            using Image<Rgba32> image = DiffHeatmap.Render(job.Diff, job.HitChanged, job.Width, job.Height, maxAbs);
+            var maxAbs = ranges[job.Map];
+            int sharing = jobs.Count(j => j.Map == job.Map);
+            string rangeNote = sharing > 1 ? $"99th percentile of |difference|, the largest of {sharing} strategies" : "99th percentile of |difference|";
+            using Image<Rgba32> image = DiffHeatmap.Render(job.Diff, job.HitChanged, job.Width, job.Height, maxAbs, rangeNote, Title(cmp, job));
             Png.AddText(image, "Strategy", job.Strategy);
             Png.AddText(image, "Counter", job.Map);
             Png.AddText(image, "Difference", "candidate minus base");
@@ -84,6 +87,24 @@ public static class CompareDiffImages
             written.Add(name);
         }
         return new DiffImagesResult(written, notes);
+    }
+
+    /// <summary>What the image shows, in its own title band: which view, strategy and map, and how it is scaled.</summary>
+    private static ImageTitle Title(ReportComparison cmp, Job job)
+    {
+        var b = cmp.Base.Document;
+        var c = cmp.Candidate.Document;
+        string scene = b.Scene.Name == c.Scene.Name ? b.Scene.Name : $"{b.Scene.Name} → {c.Scene.Name}";
+        string camera = b.Camera.Name == c.Camera.Name ? b.Camera.Name : $"{b.Camera.Name} → {c.Camera.Name}";
+        var details = new List<string>
+        {
+            $"difference in {HeatmapExporter.UnitOf(job.Map)}",
+            $"{job.Width}×{job.Height}",
+        };
+        int changed = job.HitChanged.Count(x => x);
+        if (changed > 0)
+            details.Add($"checkered: {changed} {(changed == 1 ? "pixel" : "pixels")} whose hit changed");
+        return new ImageTitle([scene, camera, job.Strategy, job.Map, "candidate minus base"], details);
     }
 
     private sealed record Job(string Strategy, string Map, long[] Diff, bool[] HitChanged, PixelDiffSummary Summary, int Width, int Height);

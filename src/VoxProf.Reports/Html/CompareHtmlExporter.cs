@@ -143,12 +143,10 @@ public sealed class CompareHtmlExporter : ICompareExporter
         HtmlPage.Switch(w, "strategy", "strategy", images.Select(i => i.Strategy).Distinct().Select(s => (s, s)));
         HtmlPage.Switch(w, "map", "map", images.Select(i => i.Map).Distinct().Select(m => (m, m)));
         w.Write("</div>\n<figure class=\"viewer\">\n");
-        var run = cmp.Base.Document.Run;
         foreach (var (image, strategy, map) in images)
         {
             string caption = $"{strategy} · {map} · candidate minus base";
-            HtmlPage.ViewerImage(w, image, new Dictionary<string, string> { ["strategy"] = strategy, ["map"] = map }, caption, caption,
-                HtmlReportExporter.ImageOrigin(image, run.Width, run.Height, Images.Legend.Height));
+            HtmlPage.ViewerImage(w, image, new Dictionary<string, string> { ["strategy"] = strategy, ["map"] = map }, caption, caption);
         }
         w.Write("<div class=\"viewer-empty\" hidden>No difference heatmap for this strategy and map.</div>\n<figcaption></figcaption>\n</figure>\n</section>\n");
     }

@@ -3,8 +3,9 @@ using System.Reflection;
 
 namespace VoxProf.Reports.Html;
 
-/// <summary>One image of a report directory, ready to inline: its data URI and its size in pixels.</summary>
-public sealed record InlineImage(string File, string DataUri, int Width, int Height)
+/// <summary>One image of a report directory, ready to inline: its data URI, its size, and where the picture lies in it.</summary>
+/// <param name="Origin">The top-left corner of the traced picture inside the PNG (below the title band).</param>
+public sealed record InlineImage(string File, string DataUri, int Width, int Height, (int X, int Y) Origin)
 {
     /// <summary>The PNG <paramref name="file"/> in <paramref name="directory"/>, or null when it is missing or not a PNG.</summary>
     public static InlineImage? Load(string directory, string file)
@@ -13,12 +14,50 @@ public sealed record InlineImage(string File, string DataUri, int Width, int Hei
         if (!System.IO.File.Exists(path))
             return null;
         byte[] bytes = System.IO.File.ReadAllBytes(path);
-        // PNG: an 8-byte signature, then the IHDR chunk whose data starts with width and height, big-endian (ISO/IEC 15948).
+        // PNG (ISO/IEC 15948): an 8-byte signature, then the IHDR chunk whose data starts with width and height, big-endian.
         if (bytes.Length < 24 || !bytes.AsSpan(0, 8).SequenceEqual(PngSignature) || !bytes.AsSpan(12, 4).SequenceEqual("IHDR"u8))
             return null;
         int width = BinaryPrimitives.ReadInt32BigEndian(bytes.AsSpan(16, 4));
         int height = BinaryPrimitives.ReadInt32BigEndian(bytes.AsSpan(20, 4));
-        return new InlineImage(file, "data:image/png;base64," + Convert.ToBase64String(bytes), width, height);
+        return new InlineImage(file, "data:image/png;base64," + Convert.ToBase64String(bytes), width, height, PictureOrigin(bytes));
+    }
+
+    /// <summary>
+    /// The picture's corner from the PNG's "Picture" text chunk ("x=0 y=52 width=1280 height=720", written by
+    /// <see cref="Images.ImageLayout"/>), or (0, 0) for an image without one.
+    /// </summary>
+    public static (int X, int Y) PictureOrigin(ReadOnlySpan<byte> png)
+    {
+        // Chunks: length (4, big-endian), type (4), data, CRC (4). A tEXt chunk's data is keyword, NUL, Latin-1 text.
+        int at = 8;
+        while (at + 12 <= png.Length)
+        {
+            int length = BinaryPrimitives.ReadInt32BigEndian(png.Slice(at, 4));
+            if (length < 0 || at + 12 + length > png.Length)
+                break;
+            ReadOnlySpan<byte> type = png.Slice(at + 4, 4), data = png.Slice(at + 8, length);
+            if (type.SequenceEqual("IDAT"u8))
+                break;
+            int nul = data.IndexOf((byte)0);
+            if (type.SequenceEqual("tEXt"u8) && nul > 0 && System.Text.Encoding.Latin1.GetString(data[..nul]) == Images.ImageLayout.PictureKeyword)
+            {
+                string text = System.Text.Encoding.Latin1.GetString(data[(nul + 1)..]);
+                return (Field(text, "x"), Field(text, "y"));
+            }
+            at += 12 + length;
+        }
+        return (0, 0);
+    }
+
+    private static int Field(string text, string name)
+    {
+        foreach (string part in text.Split(' '))
+        {
+            if (part.StartsWith(name + "=", StringComparison.Ordinal) &&
+                int.TryParse(part.AsSpan(name.Length + 1), System.Globalization.NumberStyles.None, System.Globalization.CultureInfo.InvariantCulture, out int v))
+                return v;
+        }
+        return 0;
     }
 
     private static ReadOnlySpan<byte> PngSignature => [0x89, 0x50, 0x4E, 0x47, 0x0D, 0x0A, 0x1A, 0x0A];
@@ -84,8 +123,9 @@ public static class HtmlPage
         $"<td{(cls is null ? "" : $" class=\"{cls}\"")} data-v=\"{(value is { } v && double.IsFinite(v) ? v.ToString("R", System.Globalization.CultureInfo.InvariantCulture) : "")}\">{display}</td>";
 
     /// <summary>An image in a viewer, shown when the switches select its attributes (data-strategy, data-map).</summary>
-    public static void ViewerImage(TextWriter w, InlineImage image, IReadOnlyDictionary<string, string> attributes, string caption, string alt, (int X, int Y) origin)
+    public static void ViewerImage(TextWriter w, InlineImage image, IReadOnlyDictionary<string, string> attributes, string caption, string alt)
     {
+        var origin = image.Origin;
         w.Write("<img");
         foreach (var (key, value) in attributes)
             w.Write($" data-{key}=\"{HtmlText.Encode(value)}\"");

@@ -42,7 +42,7 @@ public sealed class HtmlReportExporter : IReportExporter
     private static void Maps(TextWriter w, ReportContext context, string directory)
     {
         ReportDocument d = context.Document;
-        var images = new List<(InlineImage Image, Dictionary<string, string> Keys, string Caption, int RowsBelow)>();
+        var images = new List<(InlineImage Image, Dictionary<string, string> Keys, string Caption)>();
         foreach (StrategyReport s in d.Strategies)
         {
             foreach (string map in d.Run.Heatmaps)
@@ -51,13 +51,13 @@ public sealed class HtmlReportExporter : IReportExporter
                     continue;
                 HeatmapRange? range = d.Run.HeatmapRanges.FirstOrDefault(r => r.Strategy == s.Name && r.Map == map);
                 string scale = range is null ? "" : string.Create(CultureInfo.InvariantCulture, $" · {range.Scale} scale {range.Min:0.##} to {range.Max:0.##}");
-                images.Add((image, new() { ["strategy"] = s.Name, ["map"] = map }, $"{s.Name} · {map}{scale}", Images.Legend.Height));
+                images.Add((image, new() { ["strategy"] = s.Name, ["map"] = map }, $"{s.Name} · {map}{scale}"));
             }
             if (s.Files.Contains(OutputNames.Mismatch(s.Name)) && InlineImage.Load(directory, OutputNames.Mismatch(s.Name)) is { } mismatch)
-                images.Add((mismatch, new() { ["strategy"] = s.Name, ["map"] = "mismatch" }, $"{s.Name} · pixels whose hit differs from grid's", 0));
+                images.Add((mismatch, new() { ["strategy"] = s.Name, ["map"] = "mismatch" }, $"{s.Name} · pixels whose hit differs from grid's"));
         }
         if (InlineImage.Load(directory, OutputNames.Preview) is { } preview)
-            images.Add((preview, new() { ["strategy"] = "*", ["map"] = "preview" }, "the scene as the camera sees it (the same for every strategy)", 0));
+            images.Add((preview, new() { ["strategy"] = "*", ["map"] = "preview" }, "the scene as the camera sees it (the same for every strategy)"));
 
         var maps = d.Run.Heatmaps.Where(m => images.Any(i => i.Keys["map"] == m)).ToList();
         if (images.Any(i => i.Keys["map"] == "mismatch"))
@@ -73,24 +73,12 @@ public sealed class HtmlReportExporter : IReportExporter
         // Fitted to the window, a large image has less than a screen pixel per image pixel: some cannot be pointed at.
         w.Write("<label class=\"toggle\"><input type=\"checkbox\" id=\"actual-size\"> one screen pixel per image pixel</label>\n");
         w.Write("</div>\n<div class=\"view\">\n<figure class=\"viewer\">\n");
-        foreach (var (image, keys, caption, rowsBelow) in images)
-            HtmlPage.ViewerImage(w, image, keys, caption, caption, ImageOrigin(image, d.Run.Width, d.Run.Height, rowsBelow));
+        foreach (var (image, keys, caption) in images)
+            HtmlPage.ViewerImage(w, image, keys, caption, caption);
         w.Write("<div class=\"viewer-empty\" hidden>No image for this strategy and map: a mismatch image exists only for a strategy whose hits differ from grid's.</div>\n");
         w.Write("<figcaption></figcaption>\n</figure>\n");
         Readout(w);
         w.Write("</div>\n</section>\n");
-    }
-
-    /// <summary>
-    /// Where the traced image starts inside a PNG of VoxProf's: bands span the full width, so the image keeps its
-    /// columns; <paramref name="rowsBelow"/> rows of legend sit under it, and any rows left over are a band above.
-    /// </summary>
-    public static (int X, int Y) ImageOrigin(InlineImage png, int width, int height, int rowsBelow)
-    {
-        int extra = png.Height - height;
-        if (png.Width != width || extra <= 0)
-            return (0, 0);
-        return (0, Math.Max(0, extra - rowsBelow));
     }
 
     private static void Readout(TextWriter w)

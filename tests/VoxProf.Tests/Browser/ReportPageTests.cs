@@ -165,7 +165,8 @@ public sealed class ReportPageTests(ReportPagesFixture pages) : IClassFixture<Re
 
         // One screen pixel per image pixel: the small trace is then drawn at its own size.
         await page.ClickAsync("#actual-size");
-        (await shown.BoundingBoxAsync())!.Width.Should().BeApproximately(ReportPagesFixture.Width, 0.5f);
+        float pngWidth = float.Parse((await shown.GetAttributeAsync("width"))!, Inv);
+        (await shown.BoundingBoxAsync())!.Width.Should().BeApproximately(pngWidth, 0.5f);
         await Hover(page, 2, 3);
         (await Readout(page)).Should().Equal(Expected("dda-mask", 2, 3));
         session.Errors.Should().BeEmpty();

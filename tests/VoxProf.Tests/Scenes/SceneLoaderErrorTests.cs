@@ -30,7 +30,7 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("{'kind': 'cone', 'material': 1}"));
         ex.Where.Should().Be("$.layers[0].kind");
-        ex.Problem.Should().Be("expected one of: \"box\", \"sphere\", \"cylinder\", \"terrain\", \"caves\", \"scatter\", \"raw\", found \"cone\"");
+        ex.Problem.Should().Be("expected one of: \"box\", \"sphere\", \"cylinder\", \"terrain\", \"caves\", \"scatter\", \"raw\", \"mesh\", \"heightmap\", found \"cone\"");
     }
 
     [Fact]

@@ -36,6 +36,8 @@ public sealed class RawLayer : Layer
 
     public override string Kind => "raw";
 
+    public override string Details => FormattableString.Invariant($"{_sx} x {_sy} x {_sz} samples");
+
     public override Coverage Classify(in Box3i region)
     {
         Box3i r = region.Intersect(Bounds);

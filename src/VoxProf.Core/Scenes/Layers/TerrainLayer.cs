@@ -46,16 +46,8 @@ public sealed class TerrainLayer : Layer
             ? 0
             : _pyramid.Value.Height(x, z);
 
-    public override Coverage Classify(in Box3i region)
-    {
-        Box3i r = region.Intersect(Bounds);
-        if (r.IsEmpty)
-            return Coverage.None;
-        var (min, max) = _pyramid.Value.Range(r.MinX, r.MaxX, r.MinZ, r.MaxZ);
-        if (max <= r.MinY)
-            return Coverage.None;
-        return region.MaxY <= min && Bounds.ContainsBox(region) ? Coverage.Full : Coverage.Partial;
-    }
+    public override Coverage Classify(in Box3i region) =>
+        Bounds.IsEmpty ? Coverage.None : _pyramid.Value.Classify(region, Bounds);
 
     // Before the heights exist, one column is computed on its own: a few spot checks through
     // Scene.EvaluateMaterial should not pay for the whole heightfield. The two agree exactly.
@@ -64,23 +56,10 @@ public sealed class TerrainLayer : Layer
 
     public override void Fill(in Box3i region, Span<bool> inside)
     {
-        inside[..checked((int)region.Volume)].Clear();
-        Box3i r = region.Intersect(Bounds);
-        if (r.IsEmpty)
-            return;
-        HeightPyramid pyramid = _pyramid.Value;
-        int sx = region.SizeX, sxy = sx * region.SizeY;
-        for (int z = r.MinZ; z < r.MaxZ; z++)
-        {
-            for (int x = r.MinX; x < r.MaxX; x++)
-            {
-                // One height per column, then a run of solid voxels from the bottom of the block up.
-                int top = Math.Min(pyramid.Height(x, z), r.MaxY);
-                int i = (z - region.MinZ) * sxy + (r.MinY - region.MinY) * sx + (x - region.MinX);
-                for (int y = r.MinY; y < top; y++, i += sx)
-                    inside[i] = true;
-            }
-        }
+        if (Bounds.IsEmpty)
+            inside[..checked((int)region.Volume)].Clear();
+        else
+            _pyramid.Value.Fill(region, Bounds, inside);
     }
 
     private HeightPyramid BuildPyramid()

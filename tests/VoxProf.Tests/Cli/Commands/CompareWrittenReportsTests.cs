@@ -81,12 +81,12 @@ public class CompareWrittenReportsTests : IDisposable
         var pngs = Directory.GetFiles(dir, "*.png").Select(Path.GetFileName);
         pngs.Should().BeEquivalentTo(["diff-grid-iterations.png", "diff-grid-subgroup32.png", "diff-grid-subgroup64.png",
             "diff-dda-iterations.png", "diff-dda-subgroup32.png", "diff-dda-subgroup64.png"]);
-        var image = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(dir, "diff-grid-iterations.png")), ColorComponents.RedGreenBlue);
+        var image = PngPicture.Read(Path.Combine(dir, "diff-grid-iterations.png")).CropRgb();
         image.Width.Should().Be(16);
-        image.Height.Should().Be(8 + Legend.Height);
+        image.Height.Should().Be(8);
         Pixel(image, 0, 0).Should().Equal(Rgb(DivergingRamp.Map(1)), "+6 is the largest rise of the shared scale");
         Pixel(image, 0, 7).Should().Equal(Rgb(DivergingRamp.Map(0)));
-        var dda = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(dir, "diff-dda-iterations.png")), ColorComponents.RedGreenBlue);
+        var dda = PngPicture.Read(Path.Combine(dir, "diff-dda-iterations.png")).CropRgb();
         // (15, 0) changed its hit: x + y odd is the light checker square.
         Pixel(dda, 15, 0).Should().Equal(255, 255, 255);
         _out.ToString().Should().Contain("dda: 1 pixels hit a different voxel");

@@ -4,6 +4,7 @@ using VoxProf.Core.Scenes;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Html;
+using VoxProf.Reports.Images;
 using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 using VoxProf.Tests.Compare;
@@ -123,12 +124,34 @@ public sealed partial class HtmlReportTests : IDisposable
     }
 
     [Fact]
-    public void A_legend_below_and_a_band_above_place_the_image_for_the_readout()
+    public void The_readout_finds_the_picture_below_the_title_band_from_the_png_s_own_text_chunk()
     {
-        var png = new InlineImage("a.png", "data:", 16, 8 + 39 + 20);
-        HtmlReportExporter.ImageOrigin(png, 16, 8, rowsBelow: 39).Should().Be((0, 20));
-        HtmlReportExporter.ImageOrigin(png with { Height = 8 + 39 }, 16, 8, rowsBelow: 39).Should().Be((0, 0));
-        HtmlReportExporter.ImageOrigin(png with { Height = 8 }, 16, 8, rowsBelow: 0).Should().Be((0, 0));
+        var (image, layout) = ImageLayout.Create(300, 40, new ImageTitle(["yard / gate"], ["dda", "iterations"]), (_, scale) => 10 * scale);
+        using var stream = new MemoryStream();
+        using (image)
+            Png.Save(image, stream);
+        layout.DataTop.Should().BeGreaterThan(0, "the title band sits above the picture");
+
+        InlineImage.PictureOrigin(stream.ToArray()).Should().Be((0, layout.DataTop));
+
+        using var plain = new SixLabors.ImageSharp.Image<SixLabors.ImageSharp.PixelFormats.Rgba32>(8, 8);
+        using var plainStream = new MemoryStream();
+        Png.Save(plain, plainStream);
+        InlineImage.PictureOrigin(plainStream.ToArray()).Should().Be((0, 0), "an image without the chunk is all picture");
+    }
+
+    [Fact]
+    public void Every_inlined_trace_image_carries_the_picture_origin_its_png_states()
+    {
+        string html = Write(TestRuns.Small());
+
+        foreach (string file in Directory.GetFiles(_tmp.Path, "*.png"))
+        {
+            var (x, y) = InlineImage.PictureOrigin(File.ReadAllBytes(file));
+            string uri = "data:image/png;base64," + Convert.ToBase64String(File.ReadAllBytes(file));
+            string tag = ImageTags().Matches(html).Single(m => m.Value.Contains(uri, StringComparison.Ordinal)).Value;
+            (Attribute(tag, "data-x0"), Attribute(tag, "data-y0")).Should().Be((x.ToString(), y.ToString()), Path.GetFileName(file));
+        }
     }
 
     private static string Block(string html, string id, string type)
