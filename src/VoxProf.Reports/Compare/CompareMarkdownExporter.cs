@@ -55,10 +55,7 @@ public sealed class CompareMarkdownExporter : ICompareExporter
 
         w.WriteLine("## Every metric, most added work first");
         w.WriteLine();
-        w.WriteLine($"{CompareText.MoreWork} marks more work and {CompareText.LessWork} less work, whichever way the number moves: " +
-            "a rise of a cost is more work, and so is a fall of SIMD efficiency (more idle lane slots) or of `prepass-skip` " +
-            "(less distance skipped). A change of `hit-rate` has no mark: what the camera sees is neither. The marks do not " +
-            "decide the gate; only the rules above do. Relative change is over the base value.");
+        w.WriteLine(CompareText.WorkLegend(name => $"`{name}`") + " Relative change is over the base value.");
         w.WriteLine();
         w.WriteLine("| strategy | metric | unit | base | candidate | change | relative | work |");
         w.WriteLine("|---|---|---|---:|---:|---:|---:|:---:|");

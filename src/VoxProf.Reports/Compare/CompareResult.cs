@@ -38,6 +38,15 @@ public static class CompareText
     /// <summary>The mark of a change that saves work.</summary>
     public const string LessWork = "↓";
 
+    /// <summary>
+    /// What the marks mean, said once in each compare output; <paramref name="code"/> renders a metric name in the
+    /// output's own markup.
+    /// </summary>
+    public static string WorkLegend(Func<string, string> code) =>
+        $"{MoreWork} marks more work and {LessWork} less work, whichever way the number moves: a rise of a cost is more work, " +
+        $"and so is a fall of SIMD efficiency (more idle lane slots) or of {code("prepass-skip")} (less distance skipped). " +
+        $"A change of {code("hit-rate")} has no mark: what the camera sees is neither. The marks do not decide the gate; only its rules do.";
+
     /// <summary><see cref="MoreWork"/>, <see cref="LessWork"/>, or empty for no change or a neutral metric.</summary>
     public static string WorkMark(MetricChange change) =>
         change.IsRegression ? MoreWork : change.IsImprovement ? LessWork : "";

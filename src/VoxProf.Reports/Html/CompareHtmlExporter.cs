@@ -75,9 +75,7 @@ public sealed class CompareHtmlExporter : ICompareExporter
         var changed = cmp.Changes.Where(c => c.Change != 0).ToList();
         var unchanged = cmp.Changes.Where(c => c.Change == 0).ToList();
         w.Write("<section id=\"changes\">\n<h2>Changed metrics, most added work first</h2>\n");
-        w.Write($"<p>{CompareText.MoreWork} marks more work and {CompareText.LessWork} less work, whichever way the number moves: a rise of a cost is more work, " +
-            "and so is a fall of SIMD efficiency (more idle lane slots) or of <code>prepass-skip</code> (less distance skipped). " +
-            "A change of <code>hit-rate</code> has no mark. The marks do not decide the gate; only its rules do. Click a column's name to sort by it.</p>\n");
+        w.Write($"<p>{CompareText.WorkLegend(name => $"<code>{name}</code>")} Click a column's name to sort by it.</p>\n");
         if (changed.Count == 0)
             w.Write($"<p>No metric changed ({cmp.Changes.Count} compared).</p>\n");
         else
