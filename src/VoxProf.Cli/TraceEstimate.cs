@@ -7,7 +7,8 @@ namespace VoxProf.Cli;
 /// <list type="bullet">
 /// <item>No estimate while the first strategy runs: nothing is known yet about how cost spreads over the rows.</item>
 /// <item>The current strategy's total time is its elapsed time over the share of time a finished strategy had spent
-/// by the same row (its row profile), so cheap rows at the top do not make it look fast.</item>
+/// by the same row (its row profile), so cheap rows at the top do not make it look fast; in its first rows, the mean
+/// time of the finished strategies of its kind.</item>
 /// <item>A strategy not started yet takes the mean time of the finished ones of its kind (grid or tree), or the
 /// current one's estimate if that is of its kind; if neither exists there is no estimate.</item>
 /// <item>The finish time shown is smoothed (exponentially, weight <see cref="Smoothing"/> per update), so one tile
@@ -85,15 +86,15 @@ internal sealed class TraceEstimate
         return now + left;
     }
 
+    /// <summary>The current strategy's whole time: from a row profile once it is far enough in, else a finished one's of its kind.</summary>
     private double? CurrentTotal(double elapsed)
     {
         if (RowsInStrategy >= _height)
             return elapsed;
         double[]? profile = Profile(_isGrid[_strategy]);
-        if (profile is null || RowsInStrategy == 0)
-            return null;
-        double share = profile[RowsInStrategy];
-        return share >= MinProfileShare ? Math.Max(elapsed, elapsed / share) : null;
+        if (profile is not null && RowsInStrategy > 0 && profile[RowsInStrategy] >= MinProfileShare)
+            return Math.Max(elapsed, elapsed / profile[RowsInStrategy]);
+        return Mean(_isGrid[_strategy]) is { } mean ? Math.Max(elapsed, mean) : null;
     }
 
     /// <summary>The latest finished profile of the same kind, else the latest of any kind: rows cost alike in both.</summary>

@@ -29,6 +29,9 @@ public class CompareCommandTests : IDisposable
         _err.ToString().Should().BeEmpty();
         _out.ToString().Should().Contain("no change in any of 60 metrics").And.Contain("verdict: pass");
         Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json", "compare.html"]);
+        string html = File.ReadAllText(Path.Combine(OutDir, "compare.html"));
+        html.Should().Contain($"content=\"{VoxProf.Reports.Html.HtmlPage.ContentSecurityPolicy}\"").And.Contain("The gate holds")
+            .And.NotContain("<link").And.NotContain(" src=\"http");
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(OutDir, "compare.json")));
         json.RootElement.GetProperty("changes").EnumerateArray().Should().OnlyContain(c => c.GetProperty("change").GetDouble() == 0);
     }
