@@ -44,16 +44,7 @@ public sealed class PixelBlock
         // Packing is independent per strategy and deflate is the slow part: one strategy per core.
         List<int[]> first = data.Length > 0 ? PixelPack.HitPlaneValues(data[0].Hits) : [];
         var blobs = new (string Id, byte[] Packed)[data.Length];
-        Parallel.For(0, data.Length, i =>
-        {
-            var planes = data[i].Counters.Select(c => Array.ConvertAll(c, v => unchecked((int)v))).ToList();
-            if (entries[i].Hits == entries[i].Blob)
-            {
-                List<int[]> hits = PixelPack.HitPlaneValues(data[i].Hits);
-                planes.AddRange(entries[i].HitsRelativeTo is null ? hits : hits.Select((h, p) => PixelPack.Difference(h, first[p])));
-            }
-            blobs[i] = (entries[i].Blob, PixelPack.Encode(planes));
-        });
+        Parallel.For(0, data.Length, i => blobs[i] = (entries[i].Blob, PixelPack.Encode(Planes(data[i], entries[i], first))));
         string[] counters = data.Length > 0 ? [.. data[0].CounterNames] : [.. CounterNames.All.Select(c => c.Name())];
         var faces = Enumerable.Range(0, 7).Select(f => PixelHit.FaceName((HitFace)f)).ToArray();
         var page = new PageData(run.Settings.Width, run.Settings.Height, counters, [.. PixelPack.HitPlanes], faces, entries);
@@ -61,6 +52,34 @@ public sealed class PixelBlock
     }
 
     private static string BlobId(int index) => $"vp-px-{index}";
+
+    /// <summary>
+    /// One strategy's planes, each filled into the same buffer when the packer asks for it: the packer has consumed a
+    /// plane before it asks for the next, and a full-size page then costs one plane of memory per strategy, not
+    /// eighteen of garbage.
+    /// </summary>
+    private static IEnumerable<int[]> Planes(PixelData data, StrategyEntry entry, List<int[]> first)
+    {
+        var buffer = new int[data.Width * data.Height];
+        foreach (uint[] counter in data.Counters)
+        {
+            for (int i = 0; i < buffer.Length; i++)
+                buffer[i] = unchecked((int)counter[i]);
+            yield return buffer;
+        }
+        if (entry.Hits != entry.Blob)
+            yield break;
+        for (int p = 0; p < PixelPack.HitPlanes.Count; p++)
+        {
+            PixelPack.HitPlane(data.Hits, p, buffer);
+            if (entry.HitsRelativeTo is not null)
+            {
+                for (int i = 0; i < buffer.Length; i++)
+                    buffer[i] = unchecked(buffer[i] - first[p][i]);
+            }
+            yield return buffer;
+        }
+    }
 
     public void Write(TextWriter w)
     {

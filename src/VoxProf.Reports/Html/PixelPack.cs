@@ -17,23 +17,32 @@ public static class PixelPack
 
     /// <summary>The hit planes of <paramref name="hits"/>, in <see cref="HitPlanes"/> order; t as float32 bits.</summary>
     public static List<int[]> HitPlaneValues(PixelHit[] hits) =>
-    [
-        Array.ConvertAll(hits, h => h.Hit ? 1 : 0),
-        Array.ConvertAll(hits, h => (int)h.Face),
-        Array.ConvertAll(hits, h => (int)h.Material),
-        Array.ConvertAll(hits, h => h.X),
-        Array.ConvertAll(hits, h => h.Y),
-        Array.ConvertAll(hits, h => h.Z),
-        Array.ConvertAll(hits, h => BitConverter.SingleToInt32Bits((float)h.T)),
-    ];
+        Enumerable.Range(0, HitPlanes.Count).Select(p =>
+        {
+            var plane = new int[hits.Length];
+            HitPlane(hits, p, plane);
+            return plane;
+        }).ToList();
 
-    /// <summary>a − b per pixel, wrapping as 32-bit integers (the page adds b back the same way).</summary>
-    public static int[] Difference(int[] a, int[] b)
+    /// <summary>Fills <paramref name="values"/> with hit plane <paramref name="plane"/> (an index into <see cref="HitPlanes"/>).</summary>
+    public static void HitPlane(PixelHit[] hits, int plane, int[] values)
     {
-        var d = new int[a.Length];
-        for (int i = 0; i < a.Length; i++)
-            d[i] = unchecked(a[i] - b[i]);
-        return d;
+        if (plane is < 0 or > 6)
+            throw new ArgumentOutOfRangeException(nameof(plane), $"hit planes are 0..{HitPlanes.Count - 1}");
+        for (int i = 0; i < hits.Length; i++)
+        {
+            ref readonly PixelHit h = ref hits[i];
+            values[i] = plane switch
+            {
+                0 => h.Hit ? 1 : 0,
+                1 => (int)h.Face,
+                2 => h.Material,
+                3 => h.X,
+                4 => h.Y,
+                5 => h.Z,
+                _ => BitConverter.SingleToInt32Bits((float)h.T),
+            };
+        }
     }
 
     /// <summary>True when two strategies hit the same voxels through the same faces at the same t: one copy serves both.</summary>
