@@ -131,7 +131,7 @@ public static class HtmlPage
             w.Write($" data-{key}=\"{HtmlText.Encode(value)}\"");
         w.Write($" data-x0=\"{origin.X}\" data-y0=\"{origin.Y}\" data-caption=\"{HtmlText.Encode(caption)}\"");
         string aspect = (image.Width / (double)Math.Max(1, image.Height)).ToString("0.####", System.Globalization.CultureInfo.InvariantCulture);
-        w.Write($" width=\"{image.Width}\" height=\"{image.Height}\" style=\"--aspect: {aspect}\" alt=\"{HtmlText.Encode(alt)}\" hidden src=\"");
+        w.Write($" width=\"{image.Width}\" height=\"{image.Height}\" style=\"--aspect: {aspect}; --w: {image.Width}\" alt=\"{HtmlText.Encode(alt)}\" hidden src=\"");
         w.Write(image.DataUri);
         w.Write("\">\n");
     }
