@@ -19,6 +19,12 @@ public static class Cli
     public static int Run(string[] args, TextWriter output, TextWriter error)
     {
         var root = BuildRoot(output, error);
+        if (args.Length == 0)
+        {
+            // No command is a usage mistake (a script that lost its arguments must not pass): the usage on stderr, exit 2.
+            root.Parse(["--help"]).Invoke(new InvocationConfiguration { Output = error, Error = error });
+            return ExitCodes.BadInput;
+        }
         var parse = root.Parse(args);
         // The parser's own exit code for a bad option is 1, which compare uses for "a rule is broken";
         // bad usage is 2 everywhere (ExitCodes).

@@ -30,7 +30,7 @@ public static class CalibrateCommand
         {
             Description = $"Comma-separated measures to price besides the per-pixel cost (default {string.Join(",", CostFeatures.Default.Select(m => m.Name))}): {CostFeatures.ValidList}.",
         };
-        var outDir = new Option<string>("--out") { Description = "Directory for calibration.json and calibration.md.", DefaultValueFactory = _ => DefaultOut };
+        var outDir = new Option<string>("--out", "-o") { Description = "Directory for calibration.json and calibration.md.", DefaultValueFactory = _ => DefaultOut };
 
         var cmd = new Command("calibrate", "Fit per-counter GPU costs to measured times; write calibration.json for trace --calibration.")
         {

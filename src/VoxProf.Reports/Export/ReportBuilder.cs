@@ -39,6 +39,7 @@ public static class ReportBuilder
                 RangeMin = options.RangeMin,
                 RangeMax = options.RangeMax,
                 Baseline = Baseline(stats, options.Baseline)?.Name(),
+                PixelData = options.PixelData,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
             },
@@ -54,21 +55,44 @@ public static class ReportBuilder
             warnings.Add(ToolInfo.DebugWarning);
         if (calibration?.ScopeWarning(settings.Branching, settings.Width, settings.Height) is { } scope)
             warnings.Add(scope);
-        return document with { Warnings = warnings, Calibration = options.Calibration?.Info };
+        document = document with
+        {
+            ToolCommit = options.ToolCommit,
+            Files = options.Html
+                ? [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview, OutputNames.ReportHtml]
+                : [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview],
+            CommandLine = options.CommandLine.ToArray(),
+            Warnings = warnings,
+            Calibration = options.Calibration?.Info,
+        };
+        return document with { Run = document.Run with { HeatmapRanges = Ranges(new ReportContext(run, stats, document, options)) } };
     }
 
-    /// <summary>The requested baseline if it was traced, otherwise the strategy with the largest 32-lane mean tile max.</summary>
+    /// <summary>
+    /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid
+    /// reference, which costs an order of magnitude more, would all be tiny. Grid only when nothing else was traced.
+    /// </summary>
     public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
     {
         if (requested is { } r && stats.Any(s => s.Strategy == r))
             return r;
-        StrategyStatistics? slowest = null;
-        foreach (StrategyStatistics s in stats)
+        return stats.FirstOrDefault(s => s.Strategy != Strategy.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
+    }
+
+    /// <summary>The scale of every heatmap as the heatmap writer draws it (<see cref="HeatmapExporter.ScaleFor"/>).</summary>
+    private static HeatmapRange[] Ranges(ReportContext context)
+    {
+        var ranges = new List<HeatmapRange>();
+        foreach (string map in context.Options.Heatmaps)
         {
-            if (slowest is null || s.Subgroups[0].MeanTileMax > slowest.Subgroups[0].MeanTileMax)
-                slowest = s;
+            foreach (StrategyResult r in context.Run.Results)
+            {
+                HeatmapScale scale = HeatmapExporter.ScaleFor(map, context, r);
+                ranges.Add(new HeatmapRange(r.Strategy.Name(), map, OutputNames.Heatmap(r.Strategy, map),
+                    scale.Kind == ScaleKind.Log ? "log" : "linear", scale.Min, scale.Max));
+            }
         }
-        return slowest?.Strategy;
+        return ranges.ToArray();
     }
 
     private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
@@ -77,7 +101,8 @@ public static class ReportBuilder
         var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
         if (s.MismatchPixels > 0)
             files.Add(OutputNames.Mismatch(name));
-        files.Add(OutputNames.PixelData(name));
+        if (options.PixelData)
+            files.Add(OutputNames.PixelData(name));
         if (options.PerPixel)
             files.Add(OutputNames.PixelCsv(name));
         return files;

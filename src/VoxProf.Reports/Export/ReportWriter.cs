@@ -24,22 +24,27 @@ public sealed class ReportWriter
     [
         new ReportJsonExporter(), new SummaryCsvExporter(), new SummaryMarkdownExporter(), new HeatmapExporter(),
         new PreviewExporter(), new MismatchExporter(), new PixelDataExporter(), new PixelCsvExporter(),
+        // Last: the page embeds the images the exporters above wrote.
+        new Html.HtmlReportExporter(),
     ];
 
     /// <summary>The trace command's entry point: statistics, report document, then every file into <paramref name="directory"/>.</summary>
-    public static ReportResult WriteAll(TraceRun run, ReportOptions options, string directory)
+    /// <param name="step">Told "statistics" and each exporter's name as it starts, for a progress display.</param>
+    public static ReportResult WriteAll(TraceRun run, ReportOptions options, string directory, IProgress<string>? step = null)
     {
         OutputDirectory output = OutputDirectory.Open(directory);
+        step?.Report("computing statistics");
         IReadOnlyList<StrategyStatistics> stats = StrategyStatistics.Compute(run);
         var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
-        return new ReportWriter(DefaultExporters()).Write(context, output);
+        return new ReportWriter(DefaultExporters()).Write(context, output, step);
     }
 
-    public ReportResult Write(ReportContext context, OutputDirectory output)
+    public ReportResult Write(ReportContext context, OutputDirectory output, IProgress<string>? step = null)
     {
         var failures = new List<ExportFailure>();
         foreach (IReportExporter exporter in _exporters)
         {
+            step?.Report($"writing {exporter.Name}");
             try
             {
                 exporter.Export(context, output);

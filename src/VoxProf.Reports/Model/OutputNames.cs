@@ -9,6 +9,7 @@ public static class OutputNames
     public const string SummaryCsv = "summary.csv";
     public const string SummaryMarkdown = "summary.md";
     public const string Preview = "preview.png";
+    public const string ReportHtml = "report.html";
 
     /// <summary><paramref name="map"/> is a counter or subgroup name ("iterations", "subgroup32").</summary>
     public static string Heatmap(string strategy, string map) => $"heatmap-{strategy}-{map}.png";

@@ -79,7 +79,7 @@ public sealed class PredictedMetricTests : IDisposable
         }
         string md = SummaryMarkdown.Render(doc, MetricTable.FromReport(doc));
         md.Should().Contain("| strategy | `predicted-ms` |");
-        md.Split('\n').Single(l => l.StartsWith("| dda |", StringComparison.Ordinal)).Should().StartWith($"| dda | {dda.ToString("0.000", CultureInfo.InvariantCulture)} ×");
+        md.Split('\n').Single(l => l.StartsWith("| dda ", StringComparison.Ordinal)).Should().StartWith($"| dda (baseline) | {dda.ToString("0.000", CultureInfo.InvariantCulture)} ×1.00 |");
         var console = new StringWriter();
         SummaryConsole.Write(console, doc);
         console.ToString().Split('\n')[1].Should().StartWith("strategy  predicted-ms");

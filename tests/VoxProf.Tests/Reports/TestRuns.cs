@@ -15,7 +15,14 @@ internal static class TestRuns
 {
     public static readonly EnvironmentInfo Environment = new("test-runtime", 2, "Release", "test-os");
 
-    public static ReportOptions Options => new() { ToolVersion = "0.1.0-test", Environment = Environment, Threads = 2 };
+    public static ReportOptions Options => new()
+    {
+        ToolVersion = "0.1.0-test",
+        ToolCommit = "0123456789abcdef0123456789abcdef01234567",
+        CommandLine = ["trace", "yard.json", "--size", "16x8"],
+        Environment = Environment,
+        Threads = 2,
+    };
 
     /// <summary>A made-up calibration fitted on <see cref="Small"/>'s settings: 40 ns a pixel, 3 ns an iteration, 5 ns a node fetch.</summary>
     public static AppliedCalibration Calibration { get; } = new("/calibrations/lab.json", new CostModel("lab card A, driver 9.1",
