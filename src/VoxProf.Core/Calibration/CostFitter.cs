@@ -34,11 +34,7 @@ public sealed record CostFit(
     double LooMeanAbsPercent,
     CollinearityReport Collinearity,
     IReadOnlyList<MeasureDefinition> Undetermined,
-    bool Converged)
-{
-    /// <summary>The sample with the largest |leave-one-out error| (its index).</summary>
-    public int WorstLooSample => Samples.Select((s, i) => (Math.Abs(s.LooErrorMs), i)).Max().i;
-}
+    bool Converged);
 
 /// <summary>
 /// Fits GPU time as a non-negative sum: ms = Σ_k c_k · total_k + c_pixel · pixels, with totals per frame (per-pixel
