@@ -12,12 +12,19 @@ public static partial class Cli
         root.Subcommands.Add(InspectCommand.Create(output, error));
         root.Subcommands.Add(TraceCommand.Create(output, error));
         root.Subcommands.Add(CompareCommand.Create(output, error));
+        root.Subcommands.Add(CalibrateCommand.Create(output, error));
         return root;
     }
 
     public static int Run(string[] args, TextWriter output, TextWriter error)
     {
         var root = BuildRoot(output, error);
+        if (args.Length == 0)
+        {
+            // No command is a usage mistake (a script that lost its arguments must not pass): the usage on stderr, exit 2.
+            root.Parse(["--help"]).Invoke(new InvocationConfiguration { Output = error, Error = error });
+            return ExitCodes.BadInput;
+        }
         var parse = root.Parse(args);
         // The parser's own exit code for a bad option is 1, which compare uses for "a rule is broken";
         // bad usage is 2 everywhere (ExitCodes). Several problems share one line, so a CI log shows one error.

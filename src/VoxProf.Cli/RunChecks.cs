@@ -24,9 +24,9 @@ internal static class RunChecks
         var build = BuildEstimate.Of(scene, branching);
         build.RequireWork(maxWork);
         if (strategies.Contains(Strategy.Grid))
-            TraceEstimate.RequireGridWork(scene, camera, width, height, maxWork);
+            TraceCost.RequireGridWork(scene, camera, width, height, maxWork);
         var parts = build.MemoryParts()
-            .Concat(TraceEstimate.MemoryParts(width, height, strategies.Count))
+            .Concat(TraceCost.MemoryParts(width, height, strategies.Count))
             .Concat(ReportMemory.Parts(width, height, strategies.Count, heatmaps.Count))
             .ToList();
         MemoryNeed.Require($"tracing {width}×{height} with {strategies.Count} {(strategies.Count == 1 ? "strategy" : "strategies")}", parts, memory);

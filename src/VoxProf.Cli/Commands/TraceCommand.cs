@@ -7,6 +7,7 @@ using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Tables;
@@ -37,28 +38,32 @@ public static class TraceCommand
     internal static Command Create(TextWriter output, TextWriter error, TracePipeline pipeline)
     {
         var scene = new Argument<string>("scene") { Description = "Scene file (JSON)." };
-        var camera = new Option<string?>("--camera") { Description = "Named camera of the scene (default: the first)." };
+        var camera = new Option<string?>("--camera", "-c") { Description = "Named camera of the scene (default: the first)." };
         var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
         var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
         var fov = new Option<float?>("--fov") { Description = $"Vertical field of view in degrees, {CameraChecks.MinFovDegrees} to {CameraChecks.MaxFovDegrees} (custom camera default 60)." };
         var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
-        var strategy = new Option<string?>("--strategy") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
+        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
         var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
         var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
         var scale = new Option<string>("--scale") { Description = "Heatmap scale: linear or log.", DefaultValueFactory = _ => "linear" };
         var range = new Option<string?>("--range") { Description = "Fixed heatmap range MIN:MAX, so two runs compare." };
-        var outDir = new Option<string?>("--out") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
+        var outDir = new Option<string?>("--out", "-o") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
         var threads = new Option<int>("--threads") { Description = "Worker threads; 0 means every processor.", DefaultValueFactory = _ => 0 };
-        var quiet = new Option<bool>("--quiet") { Description = "No progress line on stderr." };
+        var quiet = new Option<bool>("--quiet", "-q") { Description = "No progress line on stderr." };
         var perPixel = new Option<bool>("--per-pixel") { Description = "Also write pixels-STRATEGY.csv." };
-        var baseline = new Option<string?>("--baseline") { Description = "Strategy summary.md is relative to (default: the slowest)." };
+        var noPixels = new Option<bool>("--no-pixels") { Description = "Skip pixels-STRATEGY.bin.gz (compare then draws no difference heatmaps)." };
+        var noHtml = new Option<bool>("--no-html") { Description = "Skip report.html." };
+        var baseline = new Option<string?>("--baseline", "-b") { Description = "Strategy the ratios in summary.md and report.html are relative to (default: the first tree strategy traced)." };
+        var linkBase = new Option<string?>("--link-base") { Description = "Absolute URL the report files will be served from; summary.md's image links then start with it, so they still work once pasted into a pull request." };
+        var calibration = new Option<string?>("--calibration") { Description = "calibration.json from `voxprof calibrate`: adds predicted-ms and a predicted-cost heatmap." };
 
-        var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries and report.json.")
+        var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries, report.json and report.html.")
         {
             scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
-            quiet, perPixel, baseline,
+            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration,
         };
         var sceneOptions = new SceneOptions();
         sceneOptions.AddTo(cmd);
@@ -96,6 +101,14 @@ public static class TraceCommand
                 }
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
                 view.Validate();
+                Uri? links = parse.GetValue(linkBase) is { } lb ? OptionParsing.LinkBase(lb) : null;
+                AppliedCalibration? calibrated = parse.GetValue(calibration) is { } cf ? CalibrationFile.Read(cf) : null;
+                if (calibrated is not null)
+                {
+                    if (calibrated.Model.ScopeWarning(branch, width, height) is { } w)
+                        error.WriteLine($"voxprof: warning: {w}");
+                    heatmaps.Add(HeatmapNames.PredictedCost);
+                }
                 string? outOption = parse.GetValue(outDir);
                 OutputDirectory.CheckPath(outOption, "--out");
                 double maxWork = sceneOptions.MaxWork(parse);
@@ -107,12 +120,12 @@ public static class TraceCommand
                     (pipeline.AvailableMemory ?? MemoryLimit.Probe)());
                 string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
+                bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
+                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
+                ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
                 var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
-                bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
-                var progress = showProgress ? new TraceProgress(error, height * strategies.Count) : null;
                 TraceRun run = pipeline.Trace(request, progress);
-                progress?.Finish();
 
                 var options = new ReportOptions
                 {
@@ -122,11 +135,17 @@ public static class TraceCommand
                     Heatmaps = heatmaps,
                     PerPixel = parse.GetValue(perPixel),
                     Baseline = baselineStrategy,
+                    PixelData = !parse.GetValue(noPixels),
+                    Html = !parse.GetValue(noHtml),
+                    LinkBase = links,
                     Threads = threadCount == 0 ? Environment.ProcessorCount : threadCount,
+                    CommandLine = parse.Tokens.Select(t => t.Value).ToArray(),
+                    Calibration = calibrated,
                 };
+                ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
+                progress?.Finish();
                 if (ToolInfo.IsDebug(options.Environment))
                     error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
-                ReportResult result = ReportWriter.WriteAll(run, options, folder);
                 SummaryConsole.Write(output, result.Document);
                 output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
                 if (result.Failures.Count > 0)

@@ -8,9 +8,10 @@ namespace VoxProf.Core.Statistics;
 /// </summary>
 public sealed class StrategyStatistics
 {
-    private StrategyStatistics(Strategy strategy, MeasureSummary[] measures, SubgroupSummary[] subgroups, double hitRate, long? mismatchPixels)
+    private StrategyStatistics(Strategy strategy, long pixels, MeasureSummary[] measures, SubgroupSummary[] subgroups, double hitRate, long? mismatchPixels)
     {
         Strategy = strategy;
+        Pixels = pixels;
         Measures = measures;
         Subgroups = subgroups;
         HitRate = hitRate;
@@ -18,6 +19,9 @@ public sealed class StrategyStatistics
     }
 
     public Strategy Strategy { get; }
+
+    /// <summary>Pixels in the image (width × height).</summary>
+    public long Pixels { get; }
 
     /// <summary>The strategy's name, which keys it in every report.</summary>
     public string Name => Strategy.Name();
@@ -66,7 +70,7 @@ public sealed class StrategyStatistics
         long? mismatch = reference is null ? null
             : ReferenceEquals(reference, result) ? 0
             : HitStatistics.MismatchCount(result.Hits, reference.Hits);
-        return new StrategyStatistics(result.Strategy, measures, subgroups, HitStatistics.HitRate(result.Hits), mismatch);
+        return new StrategyStatistics(result.Strategy, (long)result.Width * result.Height, measures, subgroups, HitStatistics.HitRate(result.Hits), mismatch);
     }
 
     public static IReadOnlyList<StrategyStatistics> Compute(TraceRun run) =>

@@ -57,6 +57,7 @@ public sealed class ReportComparison
             notes.Add($"prepass block differs: base {b.Run.PrepassBlock}, candidate {c.Run.PrepassBlock}");
         if (b.ToolVersion != c.ToolVersion)
             notes.Add($"voxprof version differs: base {b.ToolVersion}, candidate {c.ToolVersion}");
+        notes.AddRange(Calibration.CalibrationNotes.Compare(b, c));
 
         var candidateByName = c.Strategies.ToDictionary(s => s.Name, StringComparer.OrdinalIgnoreCase);
         var common = b.Strategies.Where(s => candidateByName.ContainsKey(s.Name)).Select(s => s.Name).ToArray();

@@ -157,7 +157,7 @@ public static partial class ReportLoader
         }
     }
 
-    private static string Where(JsonException ex)
+    internal static string Where(JsonException ex)
     {
         // System.Text.Json counts lines and bytes from 0; editors count from 1.
         var place = ex.LineNumber is { } line
@@ -175,7 +175,7 @@ public static partial class ReportLoader
 
     // The serializer's messages end with a "Path: … | LineNumber: …" suffix already given by Where, and name
     // .NET types; keep the part a user can act on.
-    private static string Problem(JsonException ex)
+    internal static string Problem(JsonException ex)
     {
         var message = MessageText.CutEchoes(ex.Message);
         var cut = message.IndexOf(" Path: ", StringComparison.Ordinal);

@@ -1,5 +1,6 @@
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
+using VoxProf.Core.Calibration;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
@@ -15,6 +16,7 @@ public sealed class HeatmapExporter : IReportExporter
     public void Export(ReportContext context, OutputDirectory output)
     {
         var run = context.Run;
+        CostModel? calibration = context.Options.Calibration?.Model;
         var jobs = new List<(StrategyResult Result, string Map, HeatmapScale Scale)>();
         foreach (string map in context.Options.Heatmaps)
         {
@@ -27,7 +29,7 @@ public sealed class HeatmapExporter : IReportExporter
             var title = new ImageTitle(
                 [context.Run.Scene.Name, context.Run.Camera.Name, strategy, job.Map],
                 [UnitOf(job.Map), $"{job.Result.Width}×{job.Result.Height}"]);
-            using Image<Rgba32> image = HeatmapImage.Render(Values(job.Result, job.Map), job.Result.Width, job.Result.Height, job.Scale, title);
+            using Image<Rgba32> image = HeatmapImage.Render(Values(job.Result, job.Map, calibration), job.Result.Width, job.Result.Height, job.Scale, title);
             Png.AddText(image, "Strategy", strategy);
             Png.AddText(image, "Counter", job.Map);
             Png.AddText(image, "Scale", FormattableString.Invariant($"{(job.Scale.Kind == ScaleKind.Log ? "log" : "linear")} {job.Scale.Min}..{job.Scale.Max}"));
@@ -39,6 +41,8 @@ public sealed class HeatmapExporter : IReportExporter
     /// <summary>What one pixel of a map counts: "iterations per pixel", or for a lockstep-group map the tile maximum.</summary>
     public static string UnitOf(string map)
     {
+        if (map == HeatmapNames.PredictedCost)
+            return "predicted GPU time per pixel, picoseconds";
         if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return $"{Counter.Iterations.Name()} per pixel: the largest in its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes)";
         Counter c = Parse(map);
@@ -63,16 +67,20 @@ public sealed class HeatmapExporter : IReportExporter
         {
             bool shares = ownScale ? r.Strategy == Strategy.Grid : r.Strategy != Strategy.Grid || context.Run.Results.Count == 1;
             if (shares)
-                top = Math.Max(top, Top(r, map));
+                top = Math.Max(top, Top(r, map, o.Calibration?.Model));
         }
         return HeatmapScale.Auto(o.Scale, Math.Ceiling(top));
     }
 
     /// <summary>The 99th percentile (definition 7) of the map's values, or their maximum when that is 0.</summary>
-    public static double Top(StrategyResult r, string map)
+    public static double Top(StrategyResult r, string map, CostModel? calibration = null)
     {
         CounterSummary s;
-        if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
+        if (map == HeatmapNames.PredictedCost)
+        {
+            s = CounterSummary.Compute(Values(r, map, calibration));
+        }
+        else if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
         {
             var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
             SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
@@ -85,8 +93,11 @@ public sealed class HeatmapExporter : IReportExporter
         return s.P99 > 0 ? s.P99 : s.Max;
     }
 
-    public static uint[] Values(StrategyResult r, string map)
+    /// <param name="calibration">Needed for <see cref="HeatmapNames.PredictedCost"/> only.</param>
+    public static uint[] Values(StrategyResult r, string map, CostModel? calibration = null)
     {
+        if (map == HeatmapNames.PredictedCost)
+            return (calibration ?? throw new ArgumentException($"the {map} map needs a calibration", nameof(calibration))).PixelPicoseconds(r);
         if (!HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return r.Counters[(int)Parse(map)];
         var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];

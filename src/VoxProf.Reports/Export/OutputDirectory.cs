@@ -34,6 +34,12 @@ public sealed class OutputDirectory : IDisposable
     /// <summary>The folder the files end up in (after <see cref="Commit"/>).</summary>
     public string FullPath { get; }
 
+    /// <summary>
+    /// Where this run's files are until <see cref="Commit"/> puts them at <see cref="FullPath"/>: an exporter that
+    /// reads a file written earlier in the run (a page inlining its images) reads it here.
+    /// </summary>
+    public string WorkingPath => _committed ? FullPath : _stage;
+
     /// <summary>A fresh id for this run, written into the manifest.</summary>
     public string RunId { get; }
 

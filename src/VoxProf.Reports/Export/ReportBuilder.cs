@@ -17,10 +17,11 @@ public static class ReportBuilder
         var settings = run.Settings;
         string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
 
-        var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s), FilesOf(s, options))).ToList();
+        var calibration = options.Calibration?.Model;
+        var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
-            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape))
-            : MetricCatalogue.Standard;
+            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration)
+            : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
             ReportDocument.CurrentSchema,
@@ -38,6 +39,7 @@ public static class ReportBuilder
                 RangeMin = options.RangeMin,
                 RangeMax = options.RangeMax,
                 Baseline = Baseline(stats, options.Baseline)?.Name(),
+                PixelData = options.PixelData,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
             },
@@ -48,21 +50,49 @@ public static class ReportBuilder
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
             });
-        return ToolInfo.IsDebug(options.Environment) ? document with { Warnings = [ToolInfo.DebugWarning] } : document;
+        var warnings = new List<string>();
+        if (ToolInfo.IsDebug(options.Environment))
+            warnings.Add(ToolInfo.DebugWarning);
+        if (calibration?.ScopeWarning(settings.Branching, settings.Width, settings.Height) is { } scope)
+            warnings.Add(scope);
+        document = document with
+        {
+            ToolCommit = options.ToolCommit,
+            Files = options.Html
+                ? [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview, OutputNames.ReportHtml]
+                : [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview],
+            CommandLine = options.CommandLine.ToArray(),
+            Warnings = warnings,
+            Calibration = options.Calibration?.Info,
+        };
+        return document with { Run = document.Run with { HeatmapRanges = Ranges(new ReportContext(run, stats, document, options)) } };
     }
 
-    /// <summary>The requested baseline if it was traced, otherwise the strategy with the largest 32-lane mean tile max.</summary>
+    /// <summary>
+    /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid
+    /// reference, which costs an order of magnitude more, would all be tiny. Grid only when nothing else was traced.
+    /// </summary>
     public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
     {
         if (requested is { } r && stats.Any(s => s.Strategy == r))
             return r;
-        StrategyStatistics? slowest = null;
-        foreach (StrategyStatistics s in stats)
+        return stats.FirstOrDefault(s => s.Strategy != Strategy.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
+    }
+
+    /// <summary>The scale of every heatmap as the heatmap writer draws it (<see cref="HeatmapExporter.ScaleFor"/>).</summary>
+    private static HeatmapRange[] Ranges(ReportContext context)
+    {
+        var ranges = new List<HeatmapRange>();
+        foreach (string map in context.Options.Heatmaps)
         {
-            if (slowest is null || s.Subgroups[0].MeanTileMax > slowest.Subgroups[0].MeanTileMax)
-                slowest = s;
+            foreach (StrategyResult r in context.Run.Results)
+            {
+                HeatmapScale scale = HeatmapExporter.ScaleFor(map, context, r);
+                ranges.Add(new HeatmapRange(r.Strategy.Name(), map, OutputNames.Heatmap(r.Strategy, map),
+                    scale.Kind == ScaleKind.Log ? "log" : "linear", scale.Min, scale.Max));
+            }
         }
-        return slowest?.Strategy;
+        return ranges.ToArray();
     }
 
     private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
@@ -71,7 +101,8 @@ public static class ReportBuilder
         var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
         if (s.MismatchPixels > 0)
             files.Add(OutputNames.Mismatch(name));
-        files.Add(OutputNames.PixelData(name));
+        if (options.PixelData)
+            files.Add(OutputNames.PixelData(name));
         if (options.PerPixel)
             files.Add(OutputNames.PixelCsv(name));
         return files;

@@ -1,11 +1,13 @@
+using VoxProf.Core.Calibration;
 using VoxProf.Core.Statistics;
 
 namespace VoxProf.Reports.Metrics;
 
 /// <summary>
 /// The one list of metrics (docs/reports.md): six statistics of every measure (each counter and each derived
-/// total), three of every subgroup size, then the hit rate and the mismatch count. Names come from the measures
-/// and shapes themselves, so a new counter or subgroup size needs no change here.
+/// total), three of every subgroup size, then the hit rate and the mismatch count, and with a calibration the
+/// predicted GPU time. Names come from the measures and shapes themselves, so a new counter or subgroup size needs
+/// no change here.
 /// </summary>
 public static class MetricCatalogue
 {
@@ -15,6 +17,9 @@ public static class MetricCatalogue
     public const string TileMaxMean = "tile-max-mean";
     public const string TileMaxMax = "tile-max-max";
     public const string SimdEfficiency = "simd-efficiency";
+
+    /// <summary>GPU time predicted by a calibration (docs/calibration.md).</summary>
+    public const string PredictedMs = "predicted-ms";
 
     private sealed record Statistic(string Name, string Title, string Format, Func<CounterSummary, double> Of);
 
@@ -34,9 +39,13 @@ public static class MetricCatalogue
     /// <summary>"GROUP.STATISTIC".</summary>
     public static string Name(string group, string statistic) => $"{group}.{statistic}";
 
-    /// <summary>Every metric of a run that measured <paramref name="measures"/> and modelled <paramref name="shapes"/>, in report order.</summary>
-    public static IReadOnlyList<MetricDescriptor> Describe(IEnumerable<MeasureDefinition> measures, IEnumerable<SubgroupShape> shapes) =>
-        Entries(measures, shapes).Select(e => e.Metric).ToArray();
+    /// <summary>
+    /// Every metric of a run that measured <paramref name="measures"/> and modelled <paramref name="shapes"/>, and
+    /// priced them with <paramref name="calibration"/> if given, in report order.
+    /// </summary>
+    public static IReadOnlyList<MetricDescriptor> Describe(IEnumerable<MeasureDefinition> measures, IEnumerable<SubgroupShape> shapes,
+        CostModel? calibration = null) =>
+        Entries(measures, shapes, calibration).Select(e => e.Metric).ToArray();
 
     /// <summary>The metrics of the measures and shapes every trace reports.</summary>
     public static IReadOnlyList<MetricDescriptor> Standard { get; } = Describe(Measures.All, SubgroupShape.Standard);
@@ -45,15 +54,15 @@ public static class MetricCatalogue
     /// Every metric's value for one strategy, keyed by name in <see cref="Describe"/> order; null where nothing was
     /// measured (the mismatch count when the grid reference was not traced).
     /// </summary>
-    public static IReadOnlyDictionary<string, double?> Values(StrategyStatistics s)
+    public static IReadOnlyDictionary<string, double?> Values(StrategyStatistics s, CostModel? calibration = null)
     {
         var values = new Dictionary<string, double?>(StringComparer.Ordinal);
-        foreach (Entry e in Entries(s.Measures.Select(m => m.Measure), s.Subgroups.Select(g => g.Shape)))
+        foreach (Entry e in Entries(s.Measures.Select(m => m.Measure), s.Subgroups.Select(g => g.Shape), calibration))
             values.Add(e.Metric.Name, e.Value(s));
         return values;
     }
 
-    private static List<Entry> Entries(IEnumerable<MeasureDefinition> measures, IEnumerable<SubgroupShape> shapes)
+    private static List<Entry> Entries(IEnumerable<MeasureDefinition> measures, IEnumerable<SubgroupShape> shapes, CostModel? calibration)
     {
         var entries = new List<Entry>();
         foreach (MeasureDefinition m in measures)
@@ -84,6 +93,11 @@ public static class MetricCatalogue
             s => s.HitRate));
         entries.Add(new(new MetricDescriptor(Mismatch, "pixels whose hit differs from the grid reference's; not checked when grid was not traced", "pixels", "0", Better.Lower),
             s => s.MismatchPixels));
+        if (calibration is not null)
+        {
+            entries.Add(new(new MetricDescriptor(PredictedMs, $"GPU time predicted by the calibration for {calibration.Device}: Σ cost × frame total",
+                "ms", "0.000", Better.Lower), s => calibration.PredictMs(s)));
+        }
         return entries;
     }
 }

@@ -9,6 +9,7 @@ public static partial class OutputNames
     public const string SummaryCsv = "summary.csv";
     public const string SummaryMarkdown = "summary.md";
     public const string Preview = "preview.png";
+    public const string ReportHtml = "report.html";
 
     /// <summary><paramref name="map"/> is a counter or subgroup name ("iterations", "subgroup32").</summary>
     public static string Heatmap(string strategy, string map) => $"heatmap-{strategy}-{map}.png";
@@ -28,6 +29,6 @@ public static partial class OutputNames
     public static bool IsOwn(string name) => OwnName().IsMatch(name);
 
     [System.Text.RegularExpressions.GeneratedRegex(
-        @"^(?:(?:report|compare|manifest)\.json|(?:summary|compare)\.(?:csv|md)|(?:report|compare)\.html|preview\.png|(?:heatmap|mismatch|diff)-[^/\\]+\.png|pixels-[^/\\]+\.(?:bin\.gz|csv)|\..+\.tmp)$")]
+        @"^(?:(?:report|compare|manifest|calibration)\.json|(?:summary|compare|calibration)\.(?:csv|md)|(?:report|compare)\.html|preview\.png|(?:heatmap|mismatch|diff)-[^/\\]+\.png|pixels-[^/\\]+\.(?:bin\.gz|csv)|\..+\.tmp)$")]
     private static partial System.Text.RegularExpressions.Regex OwnName();
 }

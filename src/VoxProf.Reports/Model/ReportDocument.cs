@@ -1,3 +1,5 @@
+using System.Text.Json.Serialization;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Metrics;
 
 namespace VoxProf.Reports.Model;
@@ -24,6 +26,19 @@ public sealed record ReportDocument(
 
     /// <summary>Reasons the numbers may mislead (a Debug build, say); empty when there are none.</summary>
     public IReadOnlyList<string> Warnings { get; init; } = [];
+
+    /// <summary>The git commit the tool was built from, or "unknown".</summary>
+    public string ToolCommit { get; init; } = "unknown";
+
+    /// <summary>Files of the whole run (report.json, summaries, preview, report.html); each strategy lists its own.</summary>
+    public IReadOnlyList<string> Files { get; init; } = [];
+
+    /// <summary>The command's arguments (the program name left out), so a reader can run the same trace again.</summary>
+    public IReadOnlyList<string> CommandLine { get; init; } = [];
+
+    /// <summary>The calibration predicted-ms comes from (trace --calibration); left out of the file without one.</summary>
+    [JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)]
+    public CalibrationInfo? Calibration { get; init; }
 }
 
 public sealed record SceneInfo(string Name, string? File, string? Sha256, int[] Extent);
@@ -51,12 +66,22 @@ public sealed record RunInfo(int Width, int Height, int PrepassBlock, string[] S
 
     public double? RangeMax { get; init; }
 
-    /// <summary>The strategy summary.md is relative to (the --baseline one, or the slowest by 32-lane mean tile max).</summary>
+    /// <summary>The strategy summary.md's ratios are relative to (the --baseline one, or the first tree strategy traced).</summary>
     public string? Baseline { get; init; }
 
     /// <summary>The subgroup sizes modelled, with their tiles over this image.</summary>
     public IReadOnlyList<SubgroupInfo> Subgroups { get; init; } = [];
+
+    /// <summary>The range each heatmap was drawn with (fixed, or the one chosen from the data), one per strategy and map.</summary>
+    public IReadOnlyList<HeatmapRange> HeatmapRanges { get; init; } = [];
+
+    /// <summary>Whether pixels-STRATEGY.bin.gz files were written (false with --no-pixels); absent in older reports, so true.</summary>
+    public bool PixelData { get; init; } = true;
 }
+
+/// <summary>The scale one heatmap image was drawn with: values at or above <paramref name="Max"/> take the top colour.</summary>
+/// <param name="Scale">"linear" or "log".</param>
+public sealed record HeatmapRange(string Strategy, string Map, string File, string Scale, double Min, double Max);
 
 /// <summary>A subgroup size laid over the image: <paramref name="Tiles"/> tiles of TileWidth × TileHeight pixels, partial edge tiles included.</summary>
 public sealed record SubgroupInfo(string Name, int Lanes, int TileWidth, int TileHeight, int Tiles);

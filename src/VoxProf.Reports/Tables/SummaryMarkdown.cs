@@ -8,11 +8,11 @@ namespace VoxProf.Reports.Tables;
 /// <summary>
 /// Renders summary.md: strategies as rows, the <see cref="MetricColumns.Summary"/> metrics of the
 /// <see cref="MetricTable"/> as columns named as in summary.csv and gate rules, each cost with its ratio to the
-/// baseline strategy, relative links to every strategy's images, and what each column means.
+/// baseline strategy, links to every strategy's images (relative, or under --link-base), and what each column means.
 /// </summary>
 public static class SummaryMarkdown
 {
-    public static string Render(ReportDocument report, MetricTable table)
+    public static string Render(ReportDocument report, MetricTable table, Uri? linkBase = null)
     {
         var sb = new StringBuilder();
         var run = report.Run;
@@ -21,11 +21,12 @@ public static class SummaryMarkdown
 
         sb.Append(CultureInfo.InvariantCulture, $"# VoxProf trace: {Escape(report.Scene.Name)} / {Escape(report.Camera.Name)}\n\n");
         sb.Append(CultureInfo.InvariantCulture,
-            $"{run.Width}×{run.Height} pixels, branching {run.Branching}, prepass {(run.PrepassBlock == 0 ? "off" : run.PrepassBlock.ToString(CultureInfo.InvariantCulture))}, VoxProf {Escape(report.ToolVersion)} ({Escape(report.Environment.Configuration)} build).\n\n");
+            $"{run.Width}×{run.Height} pixels, branching {run.Branching}, prepass {(run.PrepassBlock == 0 ? "off" : run.PrepassBlock.ToString(CultureInfo.InvariantCulture))}, VoxProf {Escape(report.ToolVersion)} (commit {Escape(ShortCommit(report.ToolCommit))}, {Escape(report.Environment.Configuration)} build).\n\n");
         foreach (string w in report.Warnings)
             sb.Append(CultureInfo.InvariantCulture, $"> **Warning:** {Escape(w)}\n\n");
         sb.Append(CultureInfo.InvariantCulture,
             $"`×` is the ratio to **{Escape(baseline)}** (below 1 is less work; for SIMD efficiency, above 1 is better). ");
+        sb.Append("Total work includes each pixel's share of the prepass's. ");
         sb.Append("Column names are the metric names of summary.csv, report.json and `voxprof compare` rules; summary.csv has every metric.\n\n");
 
         var columns = MetricColumns.For(MetricColumns.Summary, run.PrepassBlock > 0)
@@ -45,7 +46,7 @@ public static class SummaryMarkdown
             foreach (var (c, m) in columns)
                 sb.Append(' ').Append(table.Text(r, m, baseRow, c.Ratio)).Append(" |");
             var strategy = report.Strategies.FirstOrDefault(s => s.Name == name);
-            sb.Append(' ').Append(strategy is null ? "" : Links(strategy)).Append(" |\n");
+            sb.Append(' ').Append(strategy is null ? "" : Links(strategy, linkBase)).Append(" |\n");
         }
 
         sb.Append('\n');
@@ -55,19 +56,24 @@ public static class SummaryMarkdown
             sb.Append(CultureInfo.InvariantCulture, $"- `{d.Name}`: {Escape(d.Title)} ({Escape(d.Unit)}).\n");
         }
         sb.Append("- Percentiles: Hyndman & Fan (1996) definition 7. SIMD efficiency: Aila & Laine (2009).\n");
+        if (report.Files.Contains(OutputNames.ReportHtml))
+            sb.Append(CultureInfo.InvariantCulture, $"\nEvery heatmap, with a per-pixel readout: [{OutputNames.ReportHtml}]({ReportLinks.Href(linkBase, OutputNames.ReportHtml)}).\n");
         return sb.ToString();
     }
 
-    private static string Links(StrategyReport s)
+    /// <summary>The first 12 hex digits: enough to find the commit, short enough for a line of text.</summary>
+    public static string ShortCommit(string commit) => commit.Length > 12 && commit.All(char.IsAsciiHexDigit) ? commit[..12] : commit;
+
+    private static string Links(StrategyReport s, Uri? linkBase)
     {
         string prefix = $"heatmap-{s.Name}-";
         var links = new List<string>();
         foreach (string f in s.Files)
         {
             if (f.StartsWith(prefix, StringComparison.Ordinal) && f.EndsWith(".png", StringComparison.Ordinal))
-                links.Add($"[{Escape(f[prefix.Length..^4])}]({f})");
+                links.Add($"[{Escape(f[prefix.Length..^4])}]({ReportLinks.Href(linkBase, f)})");
             else if (f.StartsWith("mismatch-", StringComparison.Ordinal))
-                links.Add($"[mismatch]({f})");
+                links.Add($"[mismatch]({ReportLinks.Href(linkBase, f)})");
         }
         return string.Join(" · ", links);
     }

@@ -4,6 +4,7 @@ using System.Text.Json;
 using CsvHelper;
 using VoxProf.Reports.Compare;
 using VoxProf.Reports.Export;
+using VoxProf.Reports.Metrics;
 
 namespace VoxProf.Tests.Compare;
 
@@ -93,7 +94,7 @@ public class CompareExporterTests
         {
             CultureInfo.CurrentCulture = saved;
         }
-        invariant[0].Should().Contain("| 12.00 | 13.20 | +1.20 | +10% ▲ |");
+        invariant[0].Should().Contain("| 12.00 | 13.20 | +1.20 | +10% | ↑ |");
     }
 
     [Fact]
@@ -122,7 +123,7 @@ public class CompareExporterTests
         var lines = text.Split('\n');
 
         lines[2].Should().Contain("Scene content differs").And.Contain("99ff");
-        text.Should().Contain("## Verdict: FAIL");
+        text.Should().Contain("## Gate\n\n**The gate fails**: 1 of 1 rule does not hold (exit code 1).");
         text.Should().Contain("`dda.iterations.mean:5%`: dda iterations.mean: 12.00 -> 13.20 (+1.20, +10%), may rise at most 5%");
         var table = lines.SkipWhile(l => !l.StartsWith("| strategy")).Skip(2).TakeWhile(l => l.StartsWith('|')).ToArray();
         table.Should().HaveCount(3 * 20);
@@ -156,5 +157,38 @@ public class CompareExporterTests
             output.WriteByte(1);
             throw new IOException("disk full");
         }
+    }
+}
+
+public class WorkMarkTests
+{
+    private static MetricChange Change(string name, Better better, double from, double to) =>
+        new("dda", new MetricDescriptor(name, name, "count", "0.00", better), from, to);
+
+    [Theory]
+    [InlineData("iterations.mean", Better.Lower, 10, 12, "↑")]
+    [InlineData("iterations.mean", Better.Lower, 12, 10, "↓")]
+    [InlineData("subgroup32.simd-efficiency", Better.Higher, 0.9, 0.8, "↑")]
+    [InlineData("subgroup32.simd-efficiency", Better.Higher, 0.8, 0.9, "↓")]
+    [InlineData("prepass-skip.mean", Better.Higher, 40, 30, "↑")]
+    [InlineData("hit-rate", Better.Neutral, 0.5, 0.6, "")]
+    [InlineData("iterations.mean", Better.Lower, 10, 10, "")]
+    public void The_mark_says_more_or_less_work_whichever_way_the_number_moves(string metric, Better better, double from, double to, string mark) =>
+        CompareText.WorkMark(Change(metric, better, from, to)).Should().Be(mark);
+
+    [Fact]
+    public void Compare_md_explains_each_mark_once_and_states_the_verdict_apart_from_the_changes()
+    {
+        var b = ReportFixtures.Standard();
+        var cmp = ReportComparison.Create(new("base/report.json", b), new("cand/report.json", ReportFixtures.Standard(0.9)));
+        var verdict = GateRules.Evaluate(cmp, GateRules.Parse(["all.iterations.mean:5%"]));
+        using var stream = new MemoryStream();
+        new CompareMarkdownExporter().Write(new CompareResult(cmp, verdict), stream);
+        string text = System.Text.Encoding.UTF8.GetString(stream.ToArray());
+
+        text.Should().Contain("**The gate holds**: 1 of 1 rule holds.");
+        text.Split("↑ marks more work and ↓ less work").Should().HaveCount(2, "the legend is given once");
+        text.Should().NotContain("▲").And.NotContain("▼").And.NotContain("Verdict: PASS");
+        text.Should().Contain("| dda | iterations.mean | count | 12.00 | 10.80 | -1.20 | -10% | ↓ |");
     }
 }

@@ -98,7 +98,7 @@ public class EstimateTests
         Scene scene = Load("{'kind': 'box', 'material': 1, 'min': [0, 0, 0], 'max': [2, 2, 2]}", "[65536, 65536, 65536]");
         var camera = new CameraSpec("diagonal", new(1, 1, 1), new(65000, 60000, 65000), System.Numerics.Vector3.UnitY, 60);
 
-        var ex = FluentActions.Invoking(() => TraceEstimate.RequireGridWork(scene, camera, 1280, 720, BuildEstimate.DefaultMaxWork))
+        var ex = FluentActions.Invoking(() => TraceCost.RequireGridWork(scene, camera, 1280, 720, BuildEstimate.DefaultMaxWork))
             .Should().Throw<LimitException>().Which;
 
         ex.Message.Should().StartWith("strategy grid: tracing 1280×720 pixels through the 65536×65536×65536 extent from camera 'diagonal' takes up to 9.0e10 grid steps");
@@ -111,13 +111,13 @@ public class EstimateTests
         Scene scene = Load("", "[100, 8, 8]");
         var camera = new CameraSpec("along-x", new(-10, 4.2f, 4.3f), new(200, 4.2f, 4.3f), System.Numerics.Vector3.UnitY, 1);
 
-        TraceEstimate.GridSteps(scene, camera, 1, 1).Should().BeApproximately(101, 0.5);
+        TraceCost.GridSteps(scene, camera, 1, 1).Should().BeApproximately(101, 0.5);
     }
 
     [Fact]
     public void A_16384_square_trace_that_cannot_fit_in_memory_is_refused_with_the_estimate_and_the_limit()
     {
-        var parts = TraceEstimate.MemoryParts(16384, 16384, 5).ToList();
+        var parts = TraceCost.MemoryParts(16384, 16384, 5).ToList();
         var limit = new MemoryLimit(16L << 30, "MemAvailable in /proc/meminfo");
 
         var ex = FluentActions.Invoking(() => MemoryNeed.Require("tracing 16384×16384 with 5 strategies", parts, limit))
@@ -125,9 +125,9 @@ public class EstimateTests
 
         ex.Kind.Should().Be(LimitKind.Memory);
         // 16384² pixels × 5 strategies × (11 counters × 4 bytes + the hit record) bytes.
-        long bytes = 16384L * 16384 * 5 * TraceEstimate.BytesPerPixel;
+        long bytes = 16384L * 16384 * 5 * TraceCost.BytesPerPixel;
         ex.Message.Should().Be($"tracing 16384×16384 with 5 strategies needs about {MemoryLimit.Format(bytes)} of memory " +
-            $"(results of 5 strategies at 16384×16384 ({TraceEstimate.BytesPerPixel} bytes per pixel each) {MemoryLimit.Format(bytes)}), " +
+            $"(results of 5 strategies at 16384×16384 ({TraceCost.BytesPerPixel} bytes per pixel each) {MemoryLimit.Format(bytes)}), " +
             "more than the 17.2 GB available (MemAvailable in /proc/meminfo)");
     }
 

@@ -35,9 +35,24 @@ public sealed class ReportWriterTests : IDisposable
             "report.json", "summary.csv", "summary.md", "preview.png", "mismatch-dda.png",
             "heatmap-grid-iterations.png", "heatmap-grid-subgroup32.png", "heatmap-grid-subgroup64.png",
             "heatmap-dda-iterations.png", "heatmap-dda-subgroup32.png", "heatmap-dda-subgroup64.png",
-            "pixels-grid.bin.gz", "pixels-dda.bin.gz", "manifest.json");
+            "pixels-grid.bin.gz", "pixels-dda.bin.gz", "report.html", "manifest.json");
         foreach (StrategyReport s in result.Document.Strategies)
             s.Files.Should().OnlyContain(f => names.Contains(f), "every file the report lists exists");
+        result.Document.Files.Should().OnlyContain(f => names.Contains(f), "every run-wide file the report lists exists");
+    }
+
+    [Fact]
+    public void No_pixels_and_no_html_leave_out_exactly_those_files_and_report_json_says_so()
+    {
+        ReportResult result = WriteSmall(TestRuns.Options with { PixelData = false, Html = false });
+
+        result.Failures.Should().BeEmpty();
+        string[] names = Directory.GetFiles(_dir).Select(Path.GetFileName).ToArray()!;
+        names.Should().NotContain(n => n.StartsWith("pixels-") || n == "report.html");
+        names.Should().Contain(["report.json", "summary.md", "heatmap-dda-iterations.png"]);
+        result.Document.Run.PixelData.Should().BeFalse();
+        result.Document.Files.Should().NotContain("report.html");
+        result.Document.Strategies.SelectMany(s => s.Files).Should().NotContain(f => f.StartsWith("pixels-"));
     }
 
     [Fact]

@@ -74,7 +74,8 @@ public class SummaryOutputTests
     [Fact]
     public void Every_output_names_a_metric_as_a_gate_rule_does()
     {
-        var doc = Document();
+        // Calibrated, so that predicted-ms is among the metrics and summary.md's columns.
+        var doc = Document(TestRuns.Options with { Calibration = TestRuns.Calibration });
         string csvHeader = Csv(doc).Split("\r\n")[0];
         string md = SummaryMarkdown.Render(doc, MetricTable.FromReport(doc));
         foreach (var m in doc.Metrics)
@@ -143,12 +144,74 @@ public class SummaryOutputTests
     [Fact]
     public void Markdown_ratios_are_relative_to_the_requested_baseline()
     {
-        var doc = Document(TestRuns.Options with { Baseline = VoxProf.Core.Traversal.Strategy.Dda });
+        var doc = Document(TestRuns.Options with { Baseline = VoxProf.Core.Traversal.Strategy.Grid });
         string md = SummaryMarkdown.Render(doc, MetricTable.FromReport(doc));
-        md.Should().Contain("| dda (baseline) |");
+        md.Should().Contain("| grid (baseline) |");
         var table = MetricTable.FromReport(doc);
         int m = table.IndexOf("total-iterations.mean");
-        double ratio = table[table.RowOf("grid"), m]!.Value / table[table.RowOf("dda"), m]!.Value;
+        double ratio = table[table.RowOf("dda"), m]!.Value / table[table.RowOf("grid"), m]!.Value;
         md.Should().Contain("×" + ratio.ToString("0.00", CultureInfo.InvariantCulture));
+    }
+
+    [Fact]
+    public void The_default_baseline_is_the_first_tree_strategy_and_grid_only_when_alone()
+    {
+        var full = TestRuns.Small();
+        var stats = StrategyStatistics.Compute(full);
+        ReportBuilder.Baseline(stats, requested: null).Should().Be(VoxProf.Core.Traversal.Strategy.Dda);
+        ReportBuilder.Baseline(stats, VoxProf.Core.Traversal.Strategy.Grid).Should().Be(VoxProf.Core.Traversal.Strategy.Grid);
+        ReportBuilder.Baseline([stats[0]], requested: null).Should().Be(VoxProf.Core.Traversal.Strategy.Grid);
+        ReportBuilder.Baseline([], requested: null).Should().BeNull();
+    }
+
+    [Fact]
+    public void A_link_base_makes_every_image_link_absolute_and_escaped()
+    {
+        var doc = Document();
+        string md = SummaryMarkdown.Render(doc, MetricTable.FromReport(doc), new Uri("https://ci.example.org/run 7/artefacts"));
+
+        var links = System.Text.RegularExpressions.Regex.Matches(md, @"\]\(([^)]*)\)").Select(m => m.Groups[1].Value).ToList();
+        links.Should().NotBeEmpty().And.OnlyContain(l => l.StartsWith("https://ci.example.org/run%207/artefacts/", StringComparison.Ordinal));
+        links.Should().Contain("https://ci.example.org/run%207/artefacts/heatmap-dda-iterations.png");
+        links.Should().Contain("https://ci.example.org/run%207/artefacts/report.html");
+        SummaryMarkdown.Render(doc, MetricTable.FromReport(doc)).Should().Contain("[iterations](heatmap-dda-iterations.png)");
+    }
+
+    [Theory]
+    [InlineData("https://ci.example.org/a/", true)]
+    [InlineData("http://localhost:8080/reports", true)]
+    [InlineData("ftp://ci.example.org/a/", false)]
+    [InlineData("reports/run-7", false)]
+    [InlineData("https://ci.example.org/a/?token=1", false)]
+    [InlineData("https://ci.example.org/a/#top", false)]
+    public void Only_an_absolute_http_address_is_a_link_base(string text, bool valid) =>
+        ReportLinks.IsValidBase(text, out _).Should().Be(valid);
+
+    [Fact]
+    public void Report_json_records_the_commit_the_command_line_and_each_heatmap_s_range_as_drawn()
+    {
+        var run = TestRuns.Small();
+        var options = TestRuns.Options;
+        var doc = ReportBuilder.Build(run, StrategyStatistics.Compute(run), options);
+
+        doc.ToolCommit.Should().Be(options.ToolCommit);
+        doc.CommandLine.Should().Equal(options.CommandLine);
+        doc.Run.HeatmapRanges.Should().HaveCount(run.Results.Count * options.Heatmaps.Count);
+        var context = new ReportContext(run, StrategyStatistics.Compute(run), doc, options);
+        foreach (var range in doc.Run.HeatmapRanges)
+        {
+            var result = run.Results.Single(r => r.Strategy.Name() == range.Strategy);
+            var drawn = HeatmapExporter.ScaleFor(range.Map, context, result);
+            (range.Min, range.Max).Should().Be((drawn.Min, drawn.Max), $"{range.Strategy} {range.Map}");
+            range.File.Should().Be(OutputNames.Heatmap(range.Strategy, range.Map));
+        }
+        var fixedRange = ReportBuilder.Build(run, StrategyStatistics.Compute(run), options with { RangeMin = 2, RangeMax = 90 });
+        fixedRange.Run.HeatmapRanges.Should().OnlyContain(r => r.Min == 2 && r.Max == 90);
+    }
+
+    [Fact]
+    public void The_tool_commit_is_a_git_hash_or_unknown()
+    {
+        ToolInfo.Commit.Should().MatchRegex("^([0-9a-f]{40}|unknown)$");
     }
 }

@@ -40,9 +40,9 @@ public sealed class CommandHardeningTests : IDisposable
 
         code.Should().Be(ExitCodes.BadInput);
         // The results alone: 16384² pixels × (11 counters × 4 bytes + the hit record); heatmaps and statistics add more.
-        double results = 16384.0 * 16384 * TraceEstimate.BytesPerPixel;
+        double results = 16384.0 * 16384 * TraceCost.BytesPerPixel;
         Error.Should().StartWith("voxprof: error: tracing 16384×16384 with 1 strategy needs about ")
-            .And.Contain($"(results of 1 strategy at 16384×16384 ({TraceEstimate.BytesPerPixel} bytes per pixel each) {MemoryLimit.Format(results)}")
+            .And.Contain($"(results of 1 strategy at 16384×16384 ({TraceCost.BytesPerPixel} bytes per pixel each) {MemoryLimit.Format(results)}")
             .And.EndWith("more than the 8.0 GB available (the test's limit); trace a smaller --size or fewer strategies, or simplify the scene");
         Directory.Exists(dir).Should().BeFalse("nothing is written for a refused run");
     }

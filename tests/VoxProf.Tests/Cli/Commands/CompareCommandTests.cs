@@ -28,7 +28,10 @@ public class CompareCommandTests : IDisposable
         code.Should().Be(ExitCodes.Ok);
         _err.ToString().Should().BeEmpty();
         _out.ToString().Should().Contain("no change in any of 60 metrics").And.Contain("verdict: pass");
-        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json", "manifest.json"]);
+        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json", "compare.html", "manifest.json"]);
+        string html = File.ReadAllText(Path.Combine(OutDir, "compare.html"));
+        html.Should().Contain($"content=\"{VoxProf.Reports.Html.HtmlPage.ContentSecurityPolicy}\"").And.Contain("The gate holds")
+            .And.NotContain("<link").And.NotContain(" src=\"http");
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(OutDir, "compare.json")));
         json.RootElement.GetProperty("changes").EnumerateArray().Should().OnlyContain(c => c.GetProperty("change").GetDouble() == 0);
     }
@@ -174,7 +177,7 @@ public class CompareCommandTests : IDisposable
         Run(a, b, "--fail-on", "all.iterations.mean:50%").Should().Be(ExitCodes.Ok);
 
         File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain("+10%");
-        Directory.GetFiles(OutDir).Should().HaveCount(4, "three tables and the manifest; no temporary file is left behind");
+        Directory.GetFiles(OutDir).Should().HaveCount(5, "four outputs and the manifest; no temporary file is left behind");
     }
 
     [Fact]
@@ -188,5 +191,35 @@ public class CompareCommandTests : IDisposable
 
         ErrorLines.Should().Be($"voxprof: error: {OutDir}: holds a file voxprof did not write ('notes.txt'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
         Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["notes.txt"]);
+    }
+
+    [Fact]
+    public void A_report_traced_without_pixels_compares_and_says_plainly_that_pixel_differences_are_unavailable()
+    {
+        var plain = ReportFixtures.Standard();
+        var a = ReportFixtures.Write(_tmp, "base", plain);
+        var b = ReportFixtures.Write(_tmp, "cand", plain with { Run = plain.Run with { PixelData = false } });
+
+        Run(a, b).Should().Be(ExitCodes.Ok, _err.ToString());
+
+        _err.ToString().Should().BeEmpty();
+        const string note = "per-pixel differences are unavailable: the candidate report was traced with --no-pixels";
+        _out.ToString().Should().Contain(note);
+        File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain(note);
+        File.ReadAllText(Path.Combine(OutDir, "compare.html")).Should().Contain(note);
+        Directory.GetFiles(OutDir, "diff-*.png").Should().BeEmpty();
+    }
+
+    [Fact]
+    public void No_html_leaves_out_compare_html_and_a_link_base_makes_compare_md_links_absolute()
+    {
+        var dir = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
+
+        Run(dir, dir, "--no-html", "--link-base", "https://ci.example.org/cmp/").Should().Be(ExitCodes.Ok, _err.ToString());
+
+        File.Exists(Path.Combine(OutDir, "compare.html")).Should().BeFalse();
+        _out.ToString().Should().Contain("wrote compare.md, compare.csv, compare.json to");
+        VoxProf.Cli.Cli.Run(["compare", dir, dir, "--out", OutDir, "--link-base", "https://ci.example.org/cmp/"], _out, _err).Should().Be(ExitCodes.Ok);
+        File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain("(https://ci.example.org/cmp/compare.html)");
     }
 }

@@ -124,7 +124,9 @@ public sealed class TraceCommandTests : IDisposable
     [Fact]
     public void Progress_goes_to_stderr_only_on_a_terminal_and_not_when_quiet()
     {
-        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: true).Err.Should().Contain("rows");
+        string progress = Run($"trace scene.json --size 16x8 --strategy grid,dda --out {_dir}", terminal: true).Err;
+        progress.Should().Contain("building the tree of yard").And.Contain("tracing dda (2/2): 8/8 rows")
+            .And.Contain("writing heatmaps").And.Contain("writing report.html");
         Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: false).Err.Should().BeEmpty();
         Run($"trace scene.json --size 16x8 --strategy grid --out {_dir} --quiet", terminal: true).Err.Should().BeEmpty();
     }
@@ -163,5 +165,39 @@ public sealed class TraceCommandTests : IDisposable
         var (_, _, error) = Run($"trace scene.json --out {_dir} --up 30.5,-12,62");
 
         error.TrimEnd('\n').Should().EndWith("(camera 'gate' of /scenes/yard.json)");
+    }
+
+    [Fact]
+    public void Short_options_do_what_their_long_names_do()
+    {
+        var (code, _, error) = Run($"trace scene.json --size 16x8 -s grid,dda -c gate -b grid -q -o {_dir}");
+
+        code.Should().Be(ExitCodes.Ok, error);
+        _requests.Single().Strategies.Should().Equal(Strategy.Grid, Strategy.Dda);
+        File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("| grid (baseline) |");
+    }
+
+    [Fact]
+    public void No_pixels_and_no_html_skip_those_files_and_report_json_keeps_the_command_line()
+    {
+        var (code, _, error) = Run($"trace scene.json --size 16x8 --strategy grid --no-pixels --no-html --out {_dir}");
+
+        code.Should().Be(ExitCodes.Ok, error);
+        Directory.GetFiles(_dir).Select(Path.GetFileName).Should().NotContain(n => n!.StartsWith("pixels-") || n == "report.html")
+            .And.Contain("report.json");
+        string json = File.ReadAllText(Path.Combine(_dir, "report.json"));
+        json.Should().Contain("\"pixelData\": false");
+        using var doc = System.Text.Json.JsonDocument.Parse(json);
+        doc.RootElement.GetProperty("commandLine").EnumerateArray().Select(e => e.GetString()).Should()
+            .Equal("trace", "scene.json", "--size", "16x8", "--strategy", "grid", "--no-pixels", "--no-html", "--out", _dir);
+    }
+
+    [Fact]
+    public void A_link_base_turns_summary_links_absolute_and_a_relative_one_is_refused()
+    {
+        Run($"trace scene.json --size 16x8 --strategy dda --out {_dir} --link-base https://ci.example.org/run-7/").Code.Should().Be(0);
+        File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("(https://ci.example.org/run-7/heatmap-dda-iterations.png)");
+
+        ExpectOneLineBadInput($"trace scene.json --out {_dir} --link-base run-7/", "--link-base: 'run-7/' is not an absolute http or https URL");
     }
 }

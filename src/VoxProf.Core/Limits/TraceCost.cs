@@ -8,7 +8,7 @@ using VoxProf.Core.Traversal;
 namespace VoxProf.Core.Limits;
 
 /// <summary>What tracing one camera will cost: the grid reference's steps and the result buffers' memory.</summary>
-public static class TraceEstimate
+public static class TraceCost
 {
     // Rays sampled for the grid estimate: enough for a mean within a few percent, cheap at any image size.
     private const int SampleSide = 64;
