@@ -43,7 +43,12 @@ public sealed class CalibrationFileTests : IDisposable
     [Fact]
     public void Written_files_read_back_to_the_model_they_describe()
     {
-        var written = CalibrationFile.Write(OutputDirectory.Open(_tmp.Path), Document());
+        IReadOnlyList<string> written;
+        using (OutputDirectory output = OutputDirectory.Open(_tmp.Path))
+        {
+            written = CalibrationFile.Write(output, Document());
+            output.Commit();
+        }
 
         written.Should().Equal("calibration.json", "calibration.md");
         var applied = CalibrationFile.Read(_tmp.Path);

@@ -49,7 +49,11 @@ public sealed class CalibrateCommandTests : IClassFixture<RingPostViews>, IDispo
             var options = TestRuns.Options;
             var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
             string dir = P("runs", $"{run.Camera.Name}-{i}");
-            new ReportWriter([new ReportJsonExporter()]).Write(context, OutputDirectory.Open(dir)).Failures.Should().BeEmpty();
+            using (OutputDirectory output = OutputDirectory.Open(dir))
+            {
+                new ReportWriter([new ReportJsonExporter()]).Write(context, output).Failures.Should().BeEmpty();
+                output.Commit();
+            }
             dirs.Add(dir);
         }
         return dirs;
