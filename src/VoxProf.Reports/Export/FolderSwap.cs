@@ -17,6 +17,22 @@ internal static class FolderSwap
         Path.Combine(parent, $".{name}{Marker}{kind}-{Environment.ProcessId}-{Guid.NewGuid():N}");
 
     /// <summary>
+    /// <see cref="TryLock"/>, tried again for about a second: another run's clean-up may hold this folder's lock for
+    /// a moment while it removes what a dead run left beside it.
+    /// </summary>
+    public static FileStream? Lock(string parent, string name)
+    {
+        for (int attempt = 0; ; attempt++)
+        {
+            if (TryLock(parent, name) is { } held)
+                return held;
+            if (attempt == 10)
+                return null;
+            Thread.Sleep(100);
+        }
+    }
+
+    /// <summary>
     /// Takes the folder's lock: an exclusive lock on the lock file, which the system drops when the process ends, so
     /// a killed run never leaves a folder locked. Null when another run holds it. The empty lock file stays.
     /// </summary>

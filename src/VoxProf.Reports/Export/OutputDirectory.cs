@@ -88,7 +88,7 @@ public sealed class OutputDirectory : IDisposable
         try
         {
             Directory.CreateDirectory(parent);
-            held = FolderSwap.TryLock(parent, name)
+            held = FolderSwap.Lock(parent, name)
                 ?? throw new InputException($"{path}: another voxprof run is writing this folder (it holds {FolderSwap.LockPath(parent, name)}); wait for it to finish or choose another output folder");
             FolderSwap.CleanUp(parent, name);
             RequireOurs(path, full);
@@ -172,16 +172,27 @@ public sealed class OutputDirectory : IDisposable
         _lock.Dispose();
     }
 
-    // A folder voxprof did not write (a home folder, a repository given as --out by mistake) must never be swapped
-    // away: only a new or empty folder, one with a manifest, or one holding only the names voxprof writes.
+    // A folder voxprof did not write (a home folder, a repository given as --out by mistake), or a file someone put
+    // into a report folder, must never be swapped away: every entry must be listed in the folder's manifest or
+    // carry a name voxprof writes (a folder from before manifests).
     private static void RequireOurs(string path, string full)
     {
-        if (!Directory.Exists(full) || File.Exists(Path.Combine(full, ReportManifest.FileName)))
+        if (!Directory.Exists(full))
             return;
+        var listed = new HashSet<string>(StringComparer.Ordinal);
+        try
+        {
+            foreach (ManifestFile f in ReportManifest.Read(full)?.Files ?? [])
+                listed.Add(f.Name);
+        }
+        catch (InputException)
+        {
+            // A damaged manifest vouches for nothing: the names alone decide.
+        }
         foreach (string entry in Directory.EnumerateFileSystemEntries(full))
         {
             string name = Path.GetFileName(entry);
-            if (Directory.Exists(entry) || !OutputNames.IsOwn(name))
+            if (Directory.Exists(entry) || !(listed.Contains(name) || OutputNames.IsOwn(name)))
                 throw new InputException($"{path}: holds {(Directory.Exists(entry) ? "a folder" : "a file")} voxprof did not write ('{MessageText.Excerpt(name)}'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
         }
     }

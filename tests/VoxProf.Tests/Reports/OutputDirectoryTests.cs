@@ -130,6 +130,17 @@ public sealed class OutputDirectoryTests : IDisposable
     }
 
     [Fact]
+    public void A_file_added_to_a_report_folder_after_its_run_is_not_swapped_away()
+    {
+        WriteRun(Folder, ("report.json", "old"));
+        File.WriteAllText(Path.Combine(Folder, "review-notes.txt"), "mine");
+
+        FluentActions.Invoking(() => OutputDirectory.Open(Folder)).Should().Throw<InputException>()
+            .WithMessage($"{Folder}: holds a file voxprof did not write ('review-notes.txt'); *");
+        File.ReadAllText(Path.Combine(Folder, "review-notes.txt")).Should().Be("mine");
+    }
+
+    [Fact]
     public void A_folder_from_before_manifests_holding_only_voxprof_names_is_replaced()
     {
         Directory.CreateDirectory(Folder);
