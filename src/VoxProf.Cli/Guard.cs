@@ -1,4 +1,5 @@
 using VoxProf.Core;
+using VoxProf.Core.Limits;
 
 namespace VoxProf.Cli;
 
@@ -11,27 +12,33 @@ public static class Guard
         {
             return body();
         }
-        catch (InputException ex)
+        catch (LimitException ex)
         {
-            error.WriteLine($"voxprof: error: {ex.Message}");
+            WriteError(error, ex.Message + SceneOptions.Hint(ex.Kind));
             return ExitCodes.BadInput;
         }
-        catch (IOException ex)
+        catch (Exception ex) when (ex is InputException or IOException or UnauthorizedAccessException)
         {
-            error.WriteLine($"voxprof: error: {ex.Message}");
+            WriteError(error, ex.Message);
             return ExitCodes.BadInput;
         }
-        catch (UnauthorizedAccessException ex)
+        catch (OutOfMemoryException)
         {
-            error.WriteLine($"voxprof: error: {ex.Message}");
+            // The estimates refuse runs that cannot fit before they start (docs/reports.md); this is the last resort
+            // when the machine's memory ran out anyway, which the input's size, not a bug, usually explains.
+            WriteError(error, "out of memory: the run needs more memory than is available; trace a smaller --size or fewer strategies, or build a smaller scene");
             return ExitCodes.BadInput;
         }
         catch (Exception ex)
         {
-            error.WriteLine($"voxprof: internal error: {ex.GetType().Name}: {ex.Message}");
+            error.WriteLine($"voxprof: internal error: {ex.GetType().Name}: {MessageText.ForDisplay(ex.Message)}");
             if (Environment.GetEnvironmentVariable("VOXPROF_DEBUG") is { Length: > 0 })
                 error.WriteLine(ex);
             return ExitCodes.InternalError;
         }
     }
+
+    /// <summary>Writes "voxprof: error: MESSAGE" as one line, whatever the message holds (newlines in a path, an echo of the input).</summary>
+    public static void WriteError(TextWriter error, string message) =>
+        error.WriteLine($"voxprof: error: {MessageText.ForDisplay(message)}");
 }

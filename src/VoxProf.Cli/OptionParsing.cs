@@ -37,6 +37,12 @@ public static class OptionParsing
         throw new InputException($"{option}: '{text}' is not a valid range, expected MIN:MAX with 0 <= MIN < MAX (e.g. 0:200)");
     }
 
+    /// <summary>An absolute http(s) URL without query or fragment, e.g. a CI artefact folder.</summary>
+    public static Uri LinkBase(string text, string option = "--link-base") =>
+        Reports.Model.ReportLinks.IsValidBase(text, out Uri? uri)
+            ? uri!
+            : throw new InputException($"{option}: '{text}' is not an absolute http or https URL without query or fragment, expected e.g. https://ci.example.org/artifacts/run-42/");
+
     public delegate bool TryParser<T>(string text, out T value);
 
     /// <summary>Comma-separated names, each known to <paramref name="parse"/>; duplicates dropped, order kept.</summary>

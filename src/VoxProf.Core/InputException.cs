@@ -10,7 +10,10 @@ public class InputException : Exception
     public InputException(string message, Exception inner) : base(message, inner) { }
 }
 
-/// <summary>A scene file problem: names the file, the JSON path (or line and column) and what was expected.</summary>
+/// <summary>
+/// A problem in a scene file or in a file it names (a mesh, a heightmap, a volume): names the file, the place in it
+/// (a JSON path, "line L, column C", "line L", "byte offset N", "header") and what was expected.
+/// </summary>
 public sealed class SceneFormatException : InputException
 {
     public SceneFormatException(string file, string where, string problem)
@@ -23,7 +26,7 @@ public sealed class SceneFormatException : InputException
 
     public string File { get; }
 
-    /// <summary>The JSON path (e.g. <c>$.layers[2].radius</c>) or "line L, column C".</summary>
+    /// <summary>The JSON path (e.g. <c>$.layers[2].radius</c>), "line L, column C", "line L" or "byte offset N".</summary>
     public string Where { get; }
 
     public string Problem { get; }

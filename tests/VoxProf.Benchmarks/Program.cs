@@ -4,10 +4,14 @@ using VoxProf.Core.Scenes;
 
 if (args.Length > 1 && args[0] == "build")
 {
-    // One build per process, so the peak working set belongs to this scene and branching alone.
-    Scene scene = SceneLoader.Load(args[1]);
+    // One load and build per process, so the peak working set belongs to this scene and branching alone.
     int branching = args.Length > 2 ? int.Parse(args[2]) : 4;
-    BuildTiming.Run(scene, branching, Console.Out);
+    BuildTiming.Run(args[1], branching, Console.Out);
+    return 0;
+}
+if (args.Length > 1 && args[0] == "mesh-scene")
+{
+    MeshScene.Write(args[1], args.Length > 2 ? int.Parse(args[2]) : 1_000_000, Console.Out);
     return 0;
 }
 if (args.Length > 0 && args[0] == "quick")
@@ -23,6 +27,11 @@ if (args.Length > 0 && args[0] == "quick")
     int branching = args.Length > 3 ? int.Parse(args[3]) : 4;
     int prepass = args.Length > 4 ? int.Parse(args[4]) : 0;
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
+    return 0;
+}
+if (args.Length > 1 && args[0] == "png")
+{
+    PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);
     return 0;
 }
 BenchmarkSwitcher.FromAssembly(typeof(QuickTiming).Assembly).Run(args);

@@ -21,46 +21,72 @@ public static class CompareCommand
         };
         var failOnOpt = new Option<string[]>("--fail-on")
         {
-            Description = "A gate rule STRATEGY.COUNTER.STATISTIC:LIMIT, e.g. all.iterations.mean:5% (repeat for several). " +
+            Description = "A gate rule STRATEGY.METRIC:LIMIT, METRIC as summary.csv names it, e.g. all.iterations.mean:5% (repeat for several). " +
                 $"Default: {string.Join(" ", GateRules.Default)}.",
         };
         var quietOpt = new Option<bool>("--quiet", "-q") { Description = "Print only broken rules and the verdict." };
+        var noHtmlOpt = new Option<bool>("--no-html") { Description = "Skip compare.html." };
+        var linkBaseOpt = new Option<string?>("--link-base")
+        {
+            Description = "Absolute URL the compare files will be served from; compare.md's image links then start with it, so they still work once pasted into a pull request.",
+        };
 
         var cmd = new Command("compare", "Compare two trace reports; exit 1 when a gate rule is broken.")
         {
-            baseArg, candidateArg, outOpt, failOnOpt, quietOpt,
+            baseArg, candidateArg, outOpt, failOnOpt, quietOpt, noHtmlOpt, linkBaseOpt,
         };
         cmd.SetAction(parse =>
         {
-            return Guard.Run(error, () => Execute(
-                parse.GetValue(baseArg)!, parse.GetValue(candidateArg)!, parse.GetValue(outOpt) ?? DefaultOut,
-                parse.GetValue(failOnOpt) ?? [], parse.GetValue(quietOpt), output, error));
+            return Guard.Run(error, () =>
+            {
+                var settings = new Settings(parse.GetValue(outOpt) ?? DefaultOut, parse.GetValue(quietOpt), !parse.GetValue(noHtmlOpt),
+                    parse.GetValue(linkBaseOpt) is { } lb ? OptionParsing.LinkBase(lb) : null);
+                return Execute(parse.GetValue(baseArg)!, parse.GetValue(candidateArg)!, parse.GetValue(failOnOpt) ?? [], settings, output, error);
+            });
         });
         return cmd;
     }
 
-    private static int Execute(string basePath, string candidatePath, string outDir, string[] ruleTexts, bool quiet,
-        TextWriter output, TextWriter error)
+    private sealed record Settings(string OutDir, bool Quiet, bool Html, Uri? LinkBase);
+
+    private static int Execute(string basePath, string candidatePath, string[] ruleTexts, Settings settings, TextWriter output, TextWriter error)
     {
-        // Rule syntax first: a typo should not wait for two reports to load.
+        // Rule syntax and the output path first: a typo should not wait for two reports to load.
         var rules = GateRules.Parse(ruleTexts);
+        OutputDirectory.CheckPath(settings.OutDir, "--out");
         var comparison = ReportComparison.Create(ReportLoader.Load(basePath), ReportLoader.Load(candidatePath));
         var verdict = GateRules.Evaluate(comparison, rules);
-        var result = new CompareResult(comparison, verdict);
+        string outDir = settings.OutDir;
+        bool quiet = settings.Quiet;
+        using var directory = OutputDirectory.Open(outDir);
+        var result = new CompareResult(comparison, verdict)
+        {
+            Directory = directory.WorkingPath,
+            LinkBase = settings.LinkBase,
+            HtmlWritten = settings.Html,
+        };
 
-        var directory = OutputDirectory.Open(outDir);
         var failures = new List<string>();
-        try
+        if (WithoutPixels(comparison) is { } unavailable)
         {
-            var images = CompareDiffImages.Write(comparison, directory, ToolInfo.Version);
-            result = result with { DiffImages = images.Written, DiffNotes = images.Notes };
+            result = result with { DiffNotes = [unavailable] };
         }
-        catch (Exception ex) when (ex is InputException or IOException or UnauthorizedAccessException)
+        else
         {
-            // The tables and the verdict do not need the images: write them anyway, then report the failure.
-            failures.Add($"difference heatmaps: {ex.Message}");
+            try
+            {
+                var images = CompareDiffImages.Write(comparison, directory, ToolInfo.Version);
+                result = result with { DiffImages = images.Written, DiffNotes = images.Notes };
+            }
+            catch (Exception ex) when (ex is InputException or IOException or UnauthorizedAccessException)
+            {
+                // The tables and the verdict do not need the images: write them anyway, then report the failure.
+                failures.Add($"difference heatmaps: {ex.Message}");
+            }
         }
-        failures.AddRange(CompareOutputs.WriteAll(directory, result, CompareOutputs.All));
+        var exporters = CompareOutputs.Chosen(settings.Html);
+        failures.AddRange(CompareOutputs.WriteAll(directory, result, exporters));
+        directory.Commit();
 
         if (!quiet)
         {
@@ -71,13 +97,25 @@ public static class CompareCommand
         if (!quiet && failures.Count == 0)
         {
             var images = result.DiffImages.Count > 0 ? $" and {result.DiffImages.Count} difference heatmaps" : "";
-            output.WriteLine($"wrote {string.Join(", ", CompareOutputs.All.Select(e => e.FileName))}{images} to {outDir}");
+            output.WriteLine($"wrote {string.Join(", ", exporters.Select(e => e.FileName))}{images} to {outDir}");
         }
 
-        foreach (var failure in failures)
-            error.WriteLine($"voxprof: error: {failure}");
         if (failures.Count > 0)
+        {
+            Guard.WriteError(error, string.Join("; ", failures));
             return ExitCodes.BadInput;
+        }
         return verdict.Passed ? ExitCodes.Ok : ExitCodes.RuleBroken;
+    }
+
+    /// <summary>Why per-pixel differences cannot be drawn, when a side was traced with --no-pixels; else null.</summary>
+    private static string? WithoutPixels(ReportComparison cmp)
+    {
+        var sides = new[] { ("base", cmp.Base), ("candidate", cmp.Candidate) }.Where(s => !s.Item2.Document.Run.PixelData).Select(s => s.Item1).ToArray();
+        if (sides.Length == 0)
+            return null;
+        string which = sides.Length == 2 ? "both reports were" : $"the {sides[0]} report was";
+        return $"per-pixel differences are unavailable: {which} traced with --no-pixels, so there are no pixels-STRATEGY.bin.gz files " +
+            "and no difference heatmaps; every metric above is still compared";
     }
 }

@@ -1,12 +1,15 @@
 using System.CommandLine;
 using VoxProf.Cli.Formatting;
-using VoxProf.Core;
+using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Cli.Commands;
 
-/// <summary><c>voxprof inspect SCENE</c>: builds the scene's tree and prints its shape and memory per level.</summary>
+/// <summary>
+/// <c>voxprof inspect SCENE</c>: builds the scene's tree and prints its shape and memory per level, then each layer
+/// (kind, label, file, the voxels it set, load and voxelisation time) and each camera.
+/// </summary>
 public static class InspectCommand
 {
     public static Command Create(TextWriter output, TextWriter error)
@@ -40,20 +43,26 @@ public static class InspectCommand
                 r.AddError($"--threads: expected 0 or more, got {n}");
         });
 
-        var cmd = new Command("inspect", "Build a scene's sparse tree and print its size per level.")
+        var cmd = new Command("inspect", "Build a scene's sparse tree and print its size per level, its layers and its cameras.")
         {
             sceneArg, branching, format, threads,
         };
+        var sceneOptions = new SceneOptions();
+        sceneOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
             {
                 string path = parse.GetValue(sceneArg)!;
-                if (!File.Exists(path))
-                    throw new InputException($"{path}: scene file not found");
-                Scene scene = SceneLoader.Load(path);
+                double maxWork = sceneOptions.MaxWork(parse);
+                Scene scene = SceneLoader.Load(path, sceneOptions.LoadOptions(parse));
+                RunChecks.BeforeBuild(scene, parse.GetValue(branching), maxWork, MemoryLimit.Probe());
                 BrickTree tree = TreeBuilder.Build(scene, parse.GetValue(branching), parse.GetValue(threads));
-                output.Write(parse.GetValue(format) == "json" ? TreeSummary.Json(scene, tree) : TreeSummary.Text(scene, tree));
+                // A second walk, apart from the builder, credits each voxel to the layer that set it last and times each layer.
+                LayerTally[] census = LayerCensus.Run(scene, parse.GetValue(threads));
+                output.Write(parse.GetValue(format) == "json"
+                    ? TreeSummary.Json(scene, tree, census)
+                    : TreeSummary.Text(scene, tree, census));
                 return ExitCodes.Ok;
             });
         });

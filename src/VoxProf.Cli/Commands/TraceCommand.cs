@@ -2,21 +2,25 @@ using System.CommandLine;
 using System.Globalization;
 using System.Numerics;
 using VoxProf.Core;
+using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
+using VoxProf.Reports.Tables;
 
 namespace VoxProf.Cli.Commands;
 
 /// <summary>The steps of a trace that are not the command's own, replaceable in tests.</summary>
 internal sealed record TracePipeline(
-    Func<string, Scene> LoadScene,
+    Func<string, SceneLoadOptions, Scene> LoadScene,
     Func<Scene, int, int, BrickTree> BuildTree,
     Func<TraceRequest, IProgress<int>?, TraceRun> Trace,
-    Func<bool> StderrIsTerminal)
+    Func<bool> StderrIsTerminal,
+    Func<MemoryLimit>? AvailableMemory = null)
 {
     public static TracePipeline Default { get; } = new(
         SceneLoader.Load, (scene, branching, threads) => TreeBuilder.Build(scene, branching, threads),
@@ -34,29 +38,35 @@ public static class TraceCommand
     internal static Command Create(TextWriter output, TextWriter error, TracePipeline pipeline)
     {
         var scene = new Argument<string>("scene") { Description = "Scene file (JSON)." };
-        var camera = new Option<string?>("--camera") { Description = "Named camera of the scene (default: the first)." };
+        var camera = new Option<string?>("--camera", "-c") { Description = "Named camera of the scene (default: the first)." };
         var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
         var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
-        var fov = new Option<float?>("--fov") { Description = "Vertical field of view in degrees (custom camera default 60)." };
+        var fov = new Option<float?>("--fov") { Description = $"Vertical field of view in degrees, {CameraChecks.MinFovDegrees} to {CameraChecks.MaxFovDegrees} (custom camera default 60)." };
         var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
-        var strategy = new Option<string?>("--strategy") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
+        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
         var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
-        var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default iterations,wave32,wave64): {HeatmapNames.ValidList}." };
+        var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
         var scale = new Option<string>("--scale") { Description = "Heatmap scale: linear or log.", DefaultValueFactory = _ => "linear" };
         var range = new Option<string?>("--range") { Description = "Fixed heatmap range MIN:MAX, so two runs compare." };
-        var outDir = new Option<string?>("--out") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
+        var outDir = new Option<string?>("--out", "-o") { Description = "Output directory (default voxprof-out/SCENE-CAMERA)." };
         var threads = new Option<int>("--threads") { Description = "Worker threads; 0 means every processor.", DefaultValueFactory = _ => 0 };
-        var quiet = new Option<bool>("--quiet") { Description = "No progress line on stderr." };
+        var quiet = new Option<bool>("--quiet", "-q") { Description = "No progress line on stderr." };
         var perPixel = new Option<bool>("--per-pixel") { Description = "Also write pixels-STRATEGY.csv." };
-        var baseline = new Option<string?>("--baseline") { Description = "Strategy summary.md is relative to (default: the slowest)." };
+        var noPixels = new Option<bool>("--no-pixels") { Description = "Skip pixels-STRATEGY.bin.gz (compare then draws no difference heatmaps)." };
+        var noHtml = new Option<bool>("--no-html") { Description = "Skip report.html." };
+        var baseline = new Option<string?>("--baseline", "-b") { Description = "Strategy the ratios in summary.md and report.html are relative to (default: the first tree strategy traced)." };
+        var linkBase = new Option<string?>("--link-base") { Description = "Absolute URL the report files will be served from; summary.md's image links then start with it, so they still work once pasted into a pull request." };
+        var calibration = new Option<string?>("--calibration") { Description = "calibration.json from `voxprof calibrate`: adds predicted-ms and a predicted-cost heatmap." };
 
-        var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries and report.json.")
+        var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries, report.json and report.html.")
         {
             scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
-            quiet, perPixel, baseline,
+            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration,
         };
+        var sceneOptions = new SceneOptions();
+        sceneOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
@@ -91,21 +101,31 @@ public static class TraceCommand
                 }
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
                 view.Validate();
+                Uri? links = parse.GetValue(linkBase) is { } lb ? OptionParsing.LinkBase(lb) : null;
+                AppliedCalibration? calibrated = parse.GetValue(calibration) is { } cf ? CalibrationFile.Read(cf) : null;
+                if (calibrated is not null)
+                {
+                    if (calibrated.Model.ScopeWarning(branch, width, height) is { } w)
+                        error.WriteLine($"voxprof: warning: {w}");
+                    heatmaps.Add(HeatmapNames.PredictedCost);
+                }
                 string? outOption = parse.GetValue(outDir);
-                if (outOption is not null && File.Exists(outOption))
-                    throw new InputException($"{outOption}: is a file, expected an output directory");
+                OutputDirectory.CheckPath(outOption, "--out");
+                double maxWork = sceneOptions.MaxWork(parse);
 
-                // Scene, camera, output directory (proved writable before the trace), tree, trace.
-                Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!);
+                // Scene, camera, estimates, output directory (proved writable before the trace), tree, trace.
+                Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
                 CameraSpec cam = view.Resolve(loaded);
+                RunChecks.BeforeTrace(loaded, cam, branch, width, height, strategies, heatmaps, maxWork,
+                    (pipeline.AvailableMemory ?? MemoryLimit.Probe)());
                 string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
-                OutputDirectory.Open(dir);
+                using OutputDirectory folder = OutputDirectory.Open(dir);
+                bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
+                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
+                ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
                 var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
-                bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
-                var progress = showProgress ? new TraceProgress(error, height * strategies.Count) : null;
                 TraceRun run = pipeline.Trace(request, progress);
-                progress?.Finish();
 
                 var options = new ReportOptions
                 {
@@ -115,15 +135,21 @@ public static class TraceCommand
                     Heatmaps = heatmaps,
                     PerPixel = parse.GetValue(perPixel),
                     Baseline = baselineStrategy,
+                    PixelData = !parse.GetValue(noPixels),
+                    Html = !parse.GetValue(noHtml),
+                    LinkBase = links,
                     Threads = threadCount == 0 ? Environment.ProcessorCount : threadCount,
+                    CommandLine = parse.Tokens.Select(t => t.Value).ToArray(),
+                    Calibration = calibrated,
                 };
+                ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
+                progress?.Finish();
                 if (ToolInfo.IsDebug(options.Environment))
                     error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
-                ReportResult result = ReportWriter.WriteAll(run, options, dir);
-                PrintTable(output, result);
+                SummaryConsole.Write(output, result.Document);
                 output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
-                foreach (ExportFailure f in result.Failures)
-                    error.WriteLine($"voxprof: error: could not write {f.Message}");
+                if (result.Failures.Count > 0)
+                    Guard.WriteError(error, "could not write " + string.Join("; ", result.Failures.Select(f => f.Message)));
                 if (result.Failures.Count == 0)
                     return ExitCodes.Ok;
                 return result.Failures.All(f => f.Error is IOException or UnauthorizedAccessException or InputException)
@@ -132,20 +158,6 @@ public static class TraceCommand
             });
         });
         return cmd;
-    }
-
-    /// <summary>Per-strategy totals, mean iterations per pixel and the wave figures, as fixed-width text.</summary>
-    internal static void PrintTable(TextWriter output, ReportResult result)
-    {
-        output.WriteLine($"{"strategy",-10} {"iter total",14} {"mean/px",9} {"w32 max",9} {"w32 eff",8} {"w64 max",9} {"w64 eff",8} {"mismatch",9} {"time s",8}");
-        foreach (StrategyStatistics s in result.Statistics)
-        {
-            CounterSummary it = s[Counter.Iterations];
-            WaveSummary w32 = s.Waves[0], w64 = s.Waves[1];
-            double seconds = result.Document.Timings.TraceSeconds.TryGetValue(s.Strategy.Name(), out double t) ? t : 0;
-            output.WriteLine(string.Create(CultureInfo.InvariantCulture,
-                $"{s.Strategy.Name(),-10} {it.Total,14} {it.Mean,9:0.00} {w32.MeanTileMax,9:0.00} {w32.SimdEfficiency,8:0.000} {w64.MeanTileMax,9:0.00} {w64.SimdEfficiency,8:0.000} {s.MismatchPixels,9} {seconds,8:0.000}"));
-        }
     }
 
     private static string SafeName(string name)
@@ -164,14 +176,14 @@ public static class TraceCommand
                 throw new InputException("--camera: give either --camera NAME or --eye and --target, not both");
             if ((Eye is null) != (Target is null))
                 throw new InputException($"{(Eye is null ? "--eye" : "--target")}: missing; a custom camera needs both --eye and --target");
-            if (Fov is { } f && !(f > 0 && f < 180))
-                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected degrees between 0 and 180");
+            if (Fov is { } f && !(f >= CameraChecks.MinFovDegrees && f <= CameraChecks.MaxFovDegrees))
+                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected {CameraChecks.FovRange}");
             if (Eye is not null)
                 OptionParsing.Vector(Eye, "--eye");
             if (Target is not null)
                 OptionParsing.Vector(Target, "--target");
-            if (Up is not null && OptionParsing.Vector(Up, "--up") == Vector3.Zero)
-                throw new InputException("--up: 0,0,0 is not a direction");
+            if (Up is not null)
+                OptionParsing.Vector(Up, "--up");
         }
 
         public CameraSpec Resolve(Scene scene)
@@ -181,8 +193,7 @@ public static class TraceCommand
             {
                 var custom = new CameraSpec("custom", OptionParsing.Vector(Eye, "--eye"), OptionParsing.Vector(Target, "--target"),
                     up ?? Vector3.UnitY, Fov ?? DefaultFov);
-                if (custom.Eye == custom.Target)
-                    throw new InputException("--target: equals --eye, so the camera has no direction");
+                Check(custom, up is null, "");
                 return custom;
             }
             string valid = scene.Cameras.Count == 0 ? "none" : string.Join(", ", scene.Cameras.Select(c => c.Name));
@@ -198,7 +209,24 @@ public static class TraceCommand
                 chosen = scene.Cameras.FirstOrDefault(c => string.Equals(c.Name, Name, StringComparison.OrdinalIgnoreCase))
                     ?? throw new InputException($"--camera: no camera '{Name}' in {scene.SourcePath ?? scene.Name}; cameras: {valid}");
             }
-            return chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
+            CameraSpec adjusted = chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
+            // The scene loader checked the camera as written; --up can still turn it into one that looks along up.
+            Check(adjusted, upIsDefault: false, $" (camera '{chosen.Name}' of {scene.SourcePath ?? scene.Name})");
+            return adjusted;
+        }
+
+        /// <summary>The scene files' camera checks (<see cref="CameraChecks"/>), naming the option at fault.</summary>
+        private void Check(CameraSpec camera, bool upIsDefault, string which)
+        {
+            if (CameraChecks.Check(camera.Eye, camera.Target, camera.Up, camera.FovYDegrees, upIsDefault) is not { } problem)
+                return;
+            string option = problem.Part switch
+            {
+                CameraPart.Up => $"--up {Up}",
+                CameraPart.Fov => $"--fov {Fov?.ToString(CultureInfo.InvariantCulture)}",
+                _ => Target is null ? "--camera" : $"--target {Target}",
+            };
+            throw new InputException($"{option}: {problem.Message}{which}");
         }
     }
 }

@@ -45,6 +45,15 @@ public abstract class Layer
     /// <summary>The optional <c>label</c> the scene file gives this layer, for listings.</summary>
     public string? Label { get; internal set; }
 
+    /// <summary>The input file the layer was read from (<c>file</c> as written in the scene), for listings.</summary>
+    public string? File { get; internal set; }
+
+    /// <summary>Time spent reading and preparing the layer when the scene was loaded (files, bins, heights).</summary>
+    public TimeSpan LoadTime { get; internal set; }
+
+    /// <summary>A few words about what the layer holds (triangles, pixels, samples) for listings; null when nothing to add.</summary>
+    public virtual string? Details => null;
+
     /// <summary>Short kind name as written in the scene file, for messages.</summary>
     public abstract string Kind { get; }
 
@@ -57,6 +66,13 @@ public abstract class Layer
 
     /// <summary>Exact inside test for one voxel. Must agree with <see cref="Fill"/>.</summary>
     public abstract bool Contains(int x, int y, int z);
+
+    /// <summary>
+    /// What building this layer into a tree inside <paramref name="extent"/> is expected to cost (see
+    /// <see cref="LayerCost"/>). The default counts the faces of the layer's bounds as its surface; layers override it
+    /// with their own shape.
+    /// </summary>
+    public virtual LayerCost Cost(in Box3i extent) => LayerCost.OfSurface(LayerCost.InnerFaceArea(Bounds, extent), "a bounding surface");
 
     /// <summary>
     /// Writes the inside test of every voxel of <paramref name="region"/> into <paramref name="inside"/>,

@@ -23,11 +23,23 @@ public static class SceneLoader
         MaxDepth = 32,
     };
 
+    /// <summary>Largest scene file read: scenes are a few kilobytes; anything this large is not one.</summary>
+    public const long MaxSceneBytes = 64L << 20;
+
     /// <summary>Loads and validates a scene; throws <see cref="SceneFormatException"/> naming the file and JSON path.</summary>
-    public static Scene Load(string path)
+    public static Scene Load(string path) => Load(path, SceneLoadOptions.Default);
+
+    /// <summary>Loads and validates a scene with the given checks on the files it names.</summary>
+    public static Scene Load(string path, SceneLoadOptions options)
     {
-        byte[] bytes = ReadFile(path, path, "$", "scene file");
-        using JsonDocument doc = Parse(path, bytes);
+        ArgumentNullException.ThrowIfNull(options);
+        byte[] bytes = ReadFile(path, path, "$", "scene file", MaxSceneBytes);
+        ReadOnlyMemory<byte> text = JsonText.WithoutBom(bytes);
+        if (JsonText.FindInvalidUtf8(text.Span) is { } notUtf8)
+            throw new SceneFormatException(path, notUtf8.Where, notUtf8.Problem);
+        using JsonDocument doc = Parse(path, text);
+        if (JsonText.FindLoneSurrogate(doc.RootElement) is { } lone)
+            throw new SceneFormatException(path, lone.Where, lone.Problem);
         var root = new JsonValue(doc.RootElement, "$", path).AsObject("an object holding a scene");
         root.AllowOnly("in a scene", "version", "description", "extent", "layers", "cameras");
 
@@ -40,19 +52,21 @@ public static class SceneLoader
 
         using var hash = IncrementalHash.CreateHash(HashAlgorithmName.SHA256);
         hash.AppendData(bytes);
-        var reader = new LayerReader(path, Path.GetDirectoryName(Path.GetFullPath(path)) ?? ".", extent, hash);
+        var reader = new LayerReader(path, Path.GetDirectoryName(Path.GetFullPath(path)) ?? ".", extent, hash, options.ConfineFiles);
         JsonValue[] layerValues = root.Required("layers", "an array of layers").AsArray("an array of layers");
         var layers = layerValues.Select(reader.Read).ToArray();
 
         JsonValue[] cameraValues = root.Required("cameras", "an array of cameras").AsArray("an array of cameras");
         if (cameraValues.Length == 0)
             throw new SceneFormatException(path, "$.cameras", "empty; expected at least one camera (the first is the default)");
-        var cameras = new List<CameraSpec>();
+        var cameras = new List<CameraSpec>(cameraValues.Length);
+        var names = new HashSet<string>(StringComparer.Ordinal);
         foreach (JsonValue c in cameraValues)
         {
             CameraSpec camera = ReadCamera(c);
-            if (cameras.Any(k => k.Name == camera.Name))
-                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{camera.Name}\"; expected unique names");
+            // A set, not a search of the list so far: a scene of 50,000 cameras loads in linear time.
+            if (!names.Add(camera.Name))
+                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{MessageText.Excerpt(camera.Name)}\"; expected unique names");
             cameras.Add(camera);
         }
 
@@ -69,23 +83,46 @@ public static class SceneLoader
             : Path.GetFileNameWithoutExtension(file);
     }
 
-    internal static byte[] ReadFile(string sceneFile, string path, string where, string what)
+    /// <summary>
+    /// Reads a whole file the scene needs, refusing a folder, a missing file and anything over
+    /// <paramref name="maxBytes"/>: by its length when it has one, else (a device, a pipe) by reading one byte past it.
+    /// </summary>
+    internal static byte[] ReadFile(string sceneFile, string path, string where, string what, long maxBytes)
     {
+        string full = Path.GetFullPath(path);
+        if (Directory.Exists(full))
+            throw new SceneFormatException(sceneFile, where, $"{what} {full} is a folder; expected a file");
         try
         {
-            return File.ReadAllBytes(path);
+            using var stream = new FileStream(full, FileMode.Open, FileAccess.Read, FileShare.Read, 1 << 16);
+            if (stream.CanSeek && stream.Length > maxBytes)
+                throw TooLarge(sceneFile, where, what, full, stream.Length.ToString("N0", CultureInfo.InvariantCulture), maxBytes);
+            using var copy = new MemoryStream(stream.CanSeek ? (int)stream.Length : 1 << 16);
+            var buffer = new byte[1 << 16];
+            int n;
+            while ((n = stream.Read(buffer, 0, (int)Math.Min(buffer.Length, maxBytes + 1 - copy.Length))) > 0)
+            {
+                copy.Write(buffer, 0, n);
+                if (copy.Length > maxBytes)
+                    throw TooLarge(sceneFile, where, what, full, "more than " + maxBytes.ToString("N0", CultureInfo.InvariantCulture), maxBytes);
+            }
+            return copy.ToArray();
         }
         catch (Exception ex) when (ex is FileNotFoundException or DirectoryNotFoundException)
         {
-            throw new SceneFormatException(sceneFile, where, $"{what} not found: {path}");
+            throw new SceneFormatException(sceneFile, where, $"{what} not found: {full}");
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
-            throw new SceneFormatException(sceneFile, where, $"{what} cannot be read: {path} ({ex.Message})");
+            throw new SceneFormatException(sceneFile, where, $"{what} cannot be read: {full} ({ex.Message})");
         }
     }
 
-    private static JsonDocument Parse(string path, byte[] bytes)
+    private static SceneFormatException TooLarge(string sceneFile, string where, string what, string full, string found, long maxBytes) =>
+        new(sceneFile, where, string.Create(CultureInfo.InvariantCulture,
+            $"{what} {full} holds {found} bytes; expected at most {maxBytes:N0}"));
+
+    private static JsonDocument Parse(string path, ReadOnlyMemory<byte> bytes)
     {
         try
         {
@@ -98,7 +135,7 @@ public static class SceneLoader
             int cut = detail.IndexOf(" LineNumber:", StringComparison.Ordinal);
             if (cut > 0)
                 detail = detail[..cut].TrimEnd(' ', '|');
-            throw new SceneFormatException(path, $"line {line}, column {column}", $"malformed JSON: {detail}");
+            throw new SceneFormatException(path, $"line {line}, column {column}", $"malformed JSON: {MessageText.CutEchoes(detail)}");
         }
     }
 
@@ -115,22 +152,24 @@ public static class SceneLoader
         Vector3 eye = eyeValue.Vector("[x, y, z] eye position");
         Vector3 target = targetValue.Vector("[x, y, z] point looked at");
         Vector3 up = Vector3.UnitY;
-        if (c.Optional("up") is { } upValue)
-        {
-            up = upValue.Vector("[x, y, z] up direction");
-            if (up == Vector3.Zero)
-                throw upValue.Error("zero vector; expected a non-zero up direction such as [0, 1, 0]");
-        }
+        JsonValue? upValue = c.Optional("up");
+        if (upValue is { } u)
+            up = u.Vector("[x, y, z] up direction");
         float fov = 60;
-        if (c.Optional("fovY") is { } fovValue)
-            fov = (float)fovValue.Number("a vertical field of view in degrees, from 1 to 179", 1, 179);
+        JsonValue? fovValue = c.Optional("fovY");
+        if (fovValue is { } f)
+            fov = (float)f.Number(CameraChecks.FovRange, CameraChecks.MinFovDegrees, CameraChecks.MaxFovDegrees);
 
-        if (eye == target)
-            throw targetValue.Error("equals the eye; expected a point the camera looks at, away from the eye");
-        // Up must not lie along the view direction, or the image plane's orientation is undefined.
-        Vector3 dir = Vector3.Normalize(target - eye), upDir = Vector3.Normalize(up);
-        if (Vector3.Cross(dir, upDir).Length() < 1e-4f)
-            throw (c.Optional("up") ?? targetValue).Error("up is parallel to the view direction; expected an up direction across the view");
+        if (CameraChecks.Check(eye, target, up, fov, upIsDefault: upValue is null) is { } problem)
+        {
+            JsonValue at = problem.Part switch
+            {
+                CameraPart.Up => upValue!.Value,
+                CameraPart.Fov => fovValue!.Value,
+                _ => targetValue,
+            };
+            throw at.Error(problem.Message);
+        }
         return new CameraSpec(name, eye, target, up, fov);
     }
 }

@@ -2,44 +2,75 @@ using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Statistics;
 
-/// <summary>Every statistic of one strategy's image: per-counter summaries, the wave model of loop iterations, hits.</summary>
+/// <summary>
+/// Every statistic of one strategy's image: a summary of each measure (every counter and the derived totals), the
+/// subgroup model of loop iterations, and the hits.
+/// </summary>
 public sealed class StrategyStatistics
 {
-    private StrategyStatistics(Strategy strategy, CounterSummary[] counters, WaveSummary[] waves, double hitRate, long mismatchPixels)
+    private StrategyStatistics(Strategy strategy, long pixels, MeasureSummary[] measures, SubgroupSummary[] subgroups, double hitRate, long? mismatchPixels)
     {
         Strategy = strategy;
-        Counters = counters;
-        Waves = waves;
+        Pixels = pixels;
+        Measures = measures;
+        Subgroups = subgroups;
         HitRate = hitRate;
         MismatchPixels = mismatchPixels;
     }
 
     public Strategy Strategy { get; }
 
-    /// <summary>Indexed by <see cref="Counter"/>.</summary>
-    public IReadOnlyList<CounterSummary> Counters { get; }
+    /// <summary>Pixels in the image (width × height).</summary>
+    public long Pixels { get; }
 
-    /// <summary>One per <see cref="WaveShape.Standard"/> shape, in that order.</summary>
-    public IReadOnlyList<WaveSummary> Waves { get; }
+    /// <summary>The strategy's name, which keys it in every report.</summary>
+    public string Name => Strategy.Name();
+
+    /// <summary>One per <see cref="Statistics.Measures.All"/> entry, in that order.</summary>
+    public IReadOnlyList<MeasureSummary> Measures { get; }
+
+    /// <summary>One per <see cref="SubgroupShape.Standard"/> shape, in that order.</summary>
+    public IReadOnlyList<SubgroupSummary> Subgroups { get; }
 
     public double HitRate { get; }
 
-    /// <summary>Pixels whose hit voxel differs from the reference; 0 when there is no reference.</summary>
-    public long MismatchPixels { get; }
+    /// <summary>
+    /// Pixels whose hit voxel differs from the reference (0 for the reference itself); null when the reference was
+    /// not traced, so nothing was checked.
+    /// </summary>
+    public long? MismatchPixels { get; }
 
-    public CounterSummary this[Counter c] => Counters[(int)c];
+    public CounterSummary this[Counter c] => this[c.Name()];
+
+    /// <summary>The summary of the measure called <paramref name="name"/>; throws for an unknown name.</summary>
+    public CounterSummary this[string name]
+    {
+        get
+        {
+            foreach (MeasureSummary m in Measures)
+            {
+                if (m.Name == name)
+                    return m.Summary;
+            }
+            throw new KeyNotFoundException($"no measure '{name}'");
+        }
+    }
 
     /// <summary>Summarises one result. Deterministic: the same image gives the same numbers whatever the thread count.</summary>
+    /// <param name="reference">The grid result to check hits against; null when grid was not traced.</param>
     public static StrategyStatistics Compute(StrategyResult result, StrategyResult? reference)
     {
-        var counters = new CounterSummary[CounterNames.Count];
-        Parallel.For(0, counters.Length, c => counters[c] = CounterSummary.Compute(result.Counters[c]));
+        IReadOnlyList<MeasureDefinition> all = Statistics.Measures.All;
+        var measures = new MeasureSummary[all.Count];
+        Parallel.For(0, measures.Length, m => measures[m] = new MeasureSummary(all[m], CounterSummary.Compute(all[m].Values(result))));
         ReadOnlySpan<uint> iterations = result.Get(Counter.Iterations);
-        var waves = new WaveSummary[WaveShape.Standard.Count];
-        for (int i = 0; i < waves.Length; i++)
-            waves[i] = WaveModel.Summarise(iterations, result.Width, result.Height, WaveShape.Standard[i]);
-        long mismatch = reference is null || ReferenceEquals(reference, result) ? 0 : HitStatistics.MismatchCount(result.Hits, reference.Hits);
-        return new StrategyStatistics(result.Strategy, counters, waves, HitStatistics.HitRate(result.Hits), mismatch);
+        var subgroups = new SubgroupSummary[SubgroupShape.Standard.Count];
+        for (int i = 0; i < subgroups.Length; i++)
+            subgroups[i] = SubgroupModel.Summarise(iterations, result.Width, result.Height, SubgroupShape.Standard[i]);
+        long? mismatch = reference is null ? null
+            : ReferenceEquals(reference, result) ? 0
+            : HitStatistics.MismatchCount(result.Hits, reference.Hits);
+        return new StrategyStatistics(result.Strategy, (long)result.Width * result.Height, measures, subgroups, HitStatistics.HitRate(result.Hits), mismatch);
     }
 
     public static IReadOnlyList<StrategyStatistics> Compute(TraceRun run) =>

@@ -28,8 +28,8 @@ public static class CompareConsole
         var rows = new List<string[]> { new[] { "strategy", "metric", "base", "candidate", "change", "relative" } };
         rows.AddRange(changed.Take(MaxRows).Select(c => new[]
         {
-            c.Strategy, c.Metric.Key, c.Metric.Format(c.Base), c.Metric.Format(c.Candidate),
-            c.Metric.FormatChange(c.Change), CompareText.Relative(c) + (c.IsRegression ? " worse" : " better"),
+            c.Strategy, c.Metric.Name, c.Metric.Format(c.Base), c.Metric.Format(c.Candidate),
+            c.Metric.FormatChange(c.Change), CompareText.Relative(c) + (c.IsRegression ? " worse" : c.IsImprovement ? " better" : ""),
         }));
         var widths = Enumerable.Range(0, rows[0].Length).Select(i => rows.Max(r => r[i].Length)).ToArray();
         foreach (var row in rows)

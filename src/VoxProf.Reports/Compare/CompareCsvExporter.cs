@@ -7,7 +7,7 @@ namespace VoxProf.Reports.Compare;
 public sealed class CompareCsvExporter : ICompareExporter
 {
     public static readonly string[] Header =
-        ["strategy", "group", "statistic", "unit", "lower_is_better", "base", "candidate", "change", "relative_change", "regression"];
+        ["strategy", "metric", "unit", "better", "base", "candidate", "change", "relative_change", "regression"];
 
     public string FileName => "compare.csv";
 
@@ -19,8 +19,7 @@ public sealed class CompareCsvExporter : ICompareExporter
         {
             // Full round-trip precision: scripts re-derive their own numbers from these.
             csv.WriteRecord([
-                c.Strategy, c.Metric.Group, c.Metric.Statistic, c.Metric.Unit,
-                c.Metric.LowerIsBetter ? "true" : "false",
+                c.Strategy, c.Metric.Name, c.Metric.Unit, CompareText.BetterText(c.Metric.Better),
                 R(c.Base), R(c.Candidate), R(c.Change),
                 c.RelativeChange is { } r ? R(r) : "",
                 c.IsRegression ? "true" : "false",

@@ -23,7 +23,7 @@ public static class CompareDiffImages
 {
     public static string FileName(string strategy, string map) => $"diff-{strategy}-{map}.png";
 
-    /// <summary>Maps both reports drew (counter names, wave32, wave64); iterations for reports that list none.</summary>
+    /// <summary>Maps both reports drew (counter and subgroup names); iterations for reports that list none.</summary>
     public static IReadOnlyList<string> Maps(ReportComparison cmp)
     {
         var b = cmp.Base.Document.Run.Heatmaps;
@@ -70,10 +70,13 @@ public static class CompareDiffImages
         }
 
         var written = new List<string>();
+        var ranges = jobs.GroupBy(j => j.Map).ToDictionary(g => g.Key, g => g.Max(j => DiffHeatmap.RobustRange(j.Diff)));
         foreach (var job in jobs)
         {
-            var maxAbs = jobs.Where(j => j.Map == job.Map).Max(j => j.Summary.MaxAbs);
-            using Image<Rgba32> image = DiffHeatmap.Render(job.Diff, job.HitChanged, job.Width, job.Height, maxAbs);
+            var maxAbs = ranges[job.Map];
+            int sharing = jobs.Count(j => j.Map == job.Map);
+            string rangeNote = sharing > 1 ? $"99th percentile of |difference|, the largest of {sharing} strategies" : "99th percentile of |difference|";
+            using Image<Rgba32> image = DiffHeatmap.Render(job.Diff, job.HitChanged, job.Width, job.Height, maxAbs, rangeNote, Title(cmp, job));
             Png.AddText(image, "Strategy", job.Strategy);
             Png.AddText(image, "Counter", job.Map);
             Png.AddText(image, "Difference", "candidate minus base");
@@ -86,6 +89,24 @@ public static class CompareDiffImages
         return new DiffImagesResult(written, notes);
     }
 
+    /// <summary>What the image shows, in its own title band: which view, strategy and map, and how it is scaled.</summary>
+    private static ImageTitle Title(ReportComparison cmp, Job job)
+    {
+        var b = cmp.Base.Document;
+        var c = cmp.Candidate.Document;
+        string scene = b.Scene.Name == c.Scene.Name ? b.Scene.Name : $"{b.Scene.Name} → {c.Scene.Name}";
+        string camera = b.Camera.Name == c.Camera.Name ? b.Camera.Name : $"{b.Camera.Name} → {c.Camera.Name}";
+        var details = new List<string>
+        {
+            $"difference in {HeatmapExporter.UnitOf(job.Map)}",
+            $"{job.Width}×{job.Height}",
+        };
+        int changed = job.HitChanged.Count(x => x);
+        if (changed > 0)
+            details.Add($"checkered: {changed} {(changed == 1 ? "pixel" : "pixels")} whose hit changed");
+        return new ImageTitle([scene, camera, job.Strategy, job.Map, "candidate minus base"], details);
+    }
+
     private sealed record Job(string Strategy, string Map, long[] Diff, bool[] HitChanged, PixelDiffSummary Summary, int Width, int Height);
 
     private static PixelData? Load(LoadedReport report, string strategy, List<string> missing)
@@ -96,25 +117,43 @@ public static class CompareDiffImages
             missing.Add(strategy);
             return null;
         }
-        var data = PixelDataFile.Read(path);
+        var data = report.Manifest is { } manifest ? ReadListed(report.Directory, manifest, strategy) : PixelDataFile.Read(path);
         var run = report.Document.Run;
         if (data.Width != run.Width || data.Height != run.Height)
             throw new InputException($"{path}: image size {data.Width}x{data.Height} differs from its report.json ({run.Width}x{run.Height})");
         return data;
     }
 
-    /// <summary>A counter's per-pixel values, or for a wave map each pixel's tile maximum of loop iterations.</summary>
+    // A folder with a manifest: the pixel file must be the one its run wrote, or it would be compared as if it were.
+    private static PixelData ReadListed(string folder, ReportManifest manifest, string strategy)
+    {
+        var name = OutputNames.PixelData(strategy);
+        var path = Path.Combine(folder, name);
+        byte[] bytes;
+        try
+        {
+            bytes = File.ReadAllBytes(path);
+        }
+        catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
+        {
+            throw new InputException($"{path}: cannot read pixel data ({ex.Message})", ex);
+        }
+        manifest.Verify(folder, name, bytes);
+        return PixelDataFile.Read(new MemoryStream(bytes, writable: false), path);
+    }
+
+    /// <summary>A counter's per-pixel values, or for a subgroup map each pixel's tile maximum of loop iterations.</summary>
     private static uint[]? Values(PixelData data, string map)
     {
-        if (!HeatmapNames.IsWave(map, out var shape))
+        if (!HeatmapNames.IsSubgroup(map, out var shape))
             return data.Find(map);
         var iterations = data.Find(Counter.Iterations.Name());
         if (iterations is null)
             return null;
         var tiles = new uint[shape.TilesX(data.Width) * shape.TilesY(data.Height)];
-        WaveModel.TileMax(iterations, data.Width, data.Height, shape, tiles);
+        SubgroupModel.TileMax(iterations, data.Width, data.Height, shape, tiles);
         var pixels = new uint[data.Width * data.Height];
-        WaveModel.ExpandTiles(tiles, data.Width, data.Height, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, data.Width, data.Height, shape, pixels);
         return pixels;
     }
 }

@@ -1,13 +1,19 @@
 using System.Text.Json;
+using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
 
 /// <summary>compare.json: the verdict, every rule with its checks, and every change, for scripts.</summary>
 public sealed class CompareJsonExporter : ICompareExporter
 {
-    public const int SchemaVersion = 1;
+    /// <summary>2: changes name their metric as summary.csv and rules do, with "better" instead of a lower-is-better flag.</summary>
+    public const int SchemaVersion = 2;
 
-    private static readonly JsonSerializerOptions Options = new(JsonSerializerDefaults.Web) { WriteIndented = true };
+    private static readonly JsonSerializerOptions Options = new(JsonSerializerDefaults.Web)
+    {
+        WriteIndented = true,
+        Encoder = ReportJson.Options.Encoder,
+    };
 
     public string FileName => "compare.json";
 
@@ -27,9 +33,9 @@ public sealed class CompareJsonExporter : ICompareExporter
             cmp.Notes,
             result.Verdict.Outcomes.Select(o => new CompareRuleJson(
                 o.Rule.Text, o.Holds, o.Rule.Limit, o.Rule.Kind == LimitKind.Relative ? "percent" : "absolute",
-                o.Checks.Select(c => new CompareCheckJson(c.Change.Strategy, c.Change.Metric.Key, c.Holds)).ToArray())).ToArray(),
+                o.Checks.Select(c => new CompareCheckJson(c.Change.Strategy, c.Change.Metric.Name, c.Holds)).ToArray())).ToArray(),
             cmp.Changes.Select(c => new CompareChangeJson(
-                c.Strategy, c.Metric.Group, c.Metric.Statistic, c.Metric.Unit, c.Metric.LowerIsBetter,
+                c.Strategy, c.Metric.Name, c.Metric.Unit, CompareText.BetterText(c.Metric.Better),
                 c.Base, c.Candidate, c.Change, c.RelativeChange, c.IsRegression)).ToArray(),
             result.DiffImages,
             result.DiffNotes);
@@ -56,7 +62,8 @@ public sealed record CompareRuleJson(string Rule, bool Holds, double Limit, stri
 
 public sealed record CompareCheckJson(string Strategy, string Metric, bool Holds);
 
+/// <param name="Better">"lower", "higher" or "neutral".</param>
 /// <param name="RelativeChange">Null when the base is 0 and the candidate is not.</param>
 public sealed record CompareChangeJson(
-    string Strategy, string Group, string Statistic, string Unit, bool LowerIsBetter,
+    string Strategy, string Metric, string Unit, string Better,
     double Base, double Candidate, double Change, double? RelativeChange, bool Regression);

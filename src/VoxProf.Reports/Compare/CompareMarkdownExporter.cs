@@ -1,8 +1,13 @@
 using System.Text;
+using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
 
-/// <summary>compare.md: the verdict, the rules, then every metric with the largest regressions first.</summary>
+/// <summary>
+/// compare.md: the gate's verdict and its rules first, then every metric with the most added work first. The verdict
+/// (do the rules hold?) and the direction of each change (more or less work?) are stated apart: a change can add work
+/// and still be within every rule.
+/// </summary>
 public sealed class CompareMarkdownExporter : ICompareExporter
 {
     public string FileName => "compare.md";
@@ -12,7 +17,7 @@ public sealed class CompareMarkdownExporter : ICompareExporter
         using var w = new StreamWriter(output, new UTF8Encoding(false), leaveOpen: true) { NewLine = "\n" };
         var cmp = result.Comparison;
         var verdict = result.Verdict;
-        w.WriteLine("# VoxProf comparison");
+        w.WriteLine("# VoxProf: traversal cost of the candidate against the base");
         w.WriteLine();
         if (cmp.SceneChanged)
         {
@@ -27,21 +32,18 @@ public sealed class CompareMarkdownExporter : ICompareExporter
             w.WriteLine($"- Note: {note}");
         w.WriteLine();
 
-        var broken = verdict.BrokenRules.Count();
-        w.WriteLine($"## Verdict: {CompareText.Verdict(verdict).ToUpperInvariant()}");
+        w.WriteLine("## Gate");
         w.WriteLine();
-        w.WriteLine(verdict.Passed
-            ? $"Every rule holds ({verdict.Outcomes.Count} {(verdict.UsedDefaultRules ? "default " : "")}rules)."
-            : $"{broken} of {verdict.Outcomes.Count} {(verdict.UsedDefaultRules ? "default " : "")}rules broken.");
+        w.WriteLine(CompareText.GateSentence(verdict));
         w.WriteLine();
-        w.WriteLine("| rule | result | metrics checked | broken |");
+        w.WriteLine("| rule | holds | metrics checked | outside the limit |");
         w.WriteLine("|---|---|---:|---:|");
         foreach (var o in verdict.Outcomes)
-            w.WriteLine($"| `{o.Rule.Text}` | {(o.Holds ? "holds" : "**broken**")} | {o.Checks.Count} | {o.Broken.Count()} |");
+            w.WriteLine($"| `{o.Rule.Text}` | {(o.Holds ? "yes" : "**no**")} | {o.Checks.Count} | {o.Broken.Count()} |");
         w.WriteLine();
-        if (broken > 0)
+        if (verdict.BrokenRules.Any())
         {
-            w.WriteLine("### Broken rules");
+            w.WriteLine("Outside the limit:");
             w.WriteLine();
             foreach (var o in verdict.BrokenRules)
             {
@@ -51,32 +53,42 @@ public sealed class CompareMarkdownExporter : ICompareExporter
             w.WriteLine();
         }
 
-        w.WriteLine("## Changes, largest regressions first");
+        w.WriteLine("## Every metric, most added work first");
         w.WriteLine();
-        w.WriteLine("Worse means higher for costs and lower for SIMD efficiency; relative change is over the base value.");
+        w.WriteLine(CompareText.WorkLegend(name => $"`{name}`") + " Relative change is over the base value.");
         w.WriteLine();
-        w.WriteLine("| strategy | metric | unit | base | candidate | change | relative |");
-        w.WriteLine("|---|---|---|---:|---:|---:|---:|");
+        w.WriteLine("| strategy | metric | unit | base | candidate | change | relative | work |");
+        w.WriteLine("|---|---|---|---:|---:|---:|---:|:---:|");
         foreach (var c in cmp.Changes)
         {
-            var mark = c.IsRegression ? " ▲" : c.AbsoluteWorsening < 0 ? " ▼" : "";
-            w.WriteLine($"| {Cell(c.Strategy)} | {Cell(c.Metric.Key)} | {c.Metric.Unit} | {c.Metric.Format(c.Base)} | " +
-                $"{c.Metric.Format(c.Candidate)} | {c.Metric.FormatChange(c.Change)} | {CompareText.Relative(c)}{mark} |");
+            w.WriteLine($"| {Cell(c.Strategy)} | {Cell(c.Metric.Name)} | {c.Metric.Unit} | {c.Metric.Format(c.Base)} | " +
+                $"{c.Metric.Format(c.Candidate)} | {c.Metric.FormatChange(c.Change)} | {CompareText.Relative(c)} | {CompareText.WorkMark(c)} |");
         }
         if (result.DiffImages.Count > 0 || result.DiffNotes.Count > 0)
         {
             w.WriteLine();
             w.WriteLine("## Difference heatmaps (candidate minus base)");
             w.WriteLine();
-            w.WriteLine("Orange: the candidate costs more; blue: less; near-white: no change. All strategies of one counter " +
-                "share one symmetric scale. A black and white checker marks pixels whose hit changed.");
-            w.WriteLine();
+            if (result.DiffImages.Count > 0)
+            {
+                w.WriteLine("Orange: the candidate costs more; blue: less; near-white: no change. All strategies of one counter " +
+                    "share one symmetric scale. A black and white checker marks pixels whose hit changed.");
+                w.WriteLine();
+            }
             foreach (var note in result.DiffNotes)
                 w.WriteLine($"- Note: {Cell(note)}");
             foreach (var image in result.DiffImages)
-                w.WriteLine($"- [{image}]({Uri.EscapeDataString(image)})");
+                w.WriteLine($"- [{image}]({ReportLinks.Href(result.LinkBase, image)})");
+        }
+        if (result.HtmlWritten)
+        {
+            w.WriteLine();
+            w.WriteLine($"The same comparison with every difference heatmap inline: [{CompareHtmlName}]({ReportLinks.Href(result.LinkBase, CompareHtmlName)}).");
         }
     }
+
+    /// <summary>The HTML page compare writes beside this file.</summary>
+    public const string CompareHtmlName = "compare.html";
 
     // Names come from report files; a '|' would split a table cell.
     private static string Cell(string text) => text.Replace("|", "\\|", StringComparison.Ordinal);

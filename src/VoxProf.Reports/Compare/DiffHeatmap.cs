@@ -1,38 +1,42 @@
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
+using VoxProf.Core.Statistics;
 using VoxProf.Reports.Images;
 
 namespace VoxProf.Reports.Compare;
 
 /// <summary>
-/// compare's per-pixel map: the report writers' <see cref="DifferenceImage"/> (diverging ramp, symmetric scale,
-/// legend) with the pixels whose hit changed marked on top.
+/// compare's per-pixel map: a <see cref="DifferenceImage"/> (diverging ramp, symmetric robust scale, title and
+/// legend) with the pixels whose hit changed drawn as a black and white checker.
 /// </summary>
 public static class DiffHeatmap
 {
-    public static readonly Rgba32 MarkDark = new(0, 0, 0, 255);
-    public static readonly Rgba32 MarkLight = new(255, 255, 255, 255);
+    public static readonly Rgba32 MarkDark = DifferenceImage.MarkDark;
+    public static readonly Rgba32 MarkLight = DifferenceImage.MarkLight;
 
-    /// <param name="hitChanged">Pixels whose hit changed, drawn as a one-pixel black and white checker: a pattern the
-    /// smooth ramp never produces, so the mark stays visible whatever colour surrounds it.</param>
-    /// <param name="maxAbs">Half-width of the scale; 0 (identical images) draws everything as "no change".</param>
-    public static Image<Rgba32> Render(ReadOnlySpan<long> diff, ReadOnlySpan<bool> hitChanged, int width, int height, long maxAbs)
+    /// <param name="maxAbs">Half-width of the scale (see <see cref="RobustRange"/>); 0 draws everything as "no change".</param>
+    /// <param name="rangeNote">Where <paramref name="maxAbs"/> comes from, for the title.</param>
+    public static Image<Rgba32> Render(ReadOnlySpan<long> diff, ReadOnlySpan<bool> hitChanged, int width, int height, double maxAbs, string rangeNote, ImageTitle title)
     {
         if (diff.Length != width * height || hitChanged.Length != diff.Length)
             throw new ArgumentException($"expected {width}x{height} = {width * height} pixels, got diff {diff.Length}, mask {hitChanged.Length}");
-        // Differences of counts stay exact in a double up to 2^53, far beyond the 33 bits a uint difference needs.
-        var values = new double[diff.Length];
-        for (var i = 0; i < diff.Length; i++)
-            values[i] = diff[i];
-        var image = DifferenceImage.Render(values, width, height, maxAbs);
-        for (var y = 0; y < height; y++)
-        {
-            for (var x = 0; x < width; x++)
-            {
-                if (hitChanged[y * width + x])
-                    image[x, y] = ((x + y) & 1) == 0 ? MarkDark : MarkLight;
-            }
-        }
-        return image;
+        return DifferenceImage.Render(diff, width, height, maxAbs, rangeNote, title, hitChanged);
+    }
+
+    /// <summary>
+    /// The scale's half-width for one difference image: the 99th percentile of |difference| over all pixels
+    /// (Hyndman &amp; Fan definition 7, as every percentile in VoxProf), rounded up to a whole count since the
+    /// differences are whole; the largest |difference| when that percentile is 0 (fewer than 1% of pixels changed).
+    /// One pixel that changed by a lot then no longer washes out the change everywhere else.
+    /// </summary>
+    public static double RobustRange(ReadOnlySpan<long> diff)
+    {
+        if (diff.IsEmpty)
+            return 0;
+        var magnitudes = new uint[diff.Length];
+        for (int i = 0; i < diff.Length; i++)
+            magnitudes[i] = (uint)Math.Min(Math.Abs(diff[i]), uint.MaxValue);
+        var s = CounterSummary.Compute(magnitudes);
+        return s.P99 > 0 ? Math.Ceiling(s.P99) : s.Max;
     }
 }

@@ -14,7 +14,11 @@ public interface ICompareExporter
 public static class CompareOutputs
 {
     public static IReadOnlyList<ICompareExporter> All { get; } =
-        [new CompareMarkdownExporter(), new CompareCsvExporter(), new CompareJsonExporter()];
+        [new CompareMarkdownExporter(), new CompareCsvExporter(), new CompareJsonExporter(), new Html.CompareHtmlExporter()];
+
+    /// <summary>The exporters of one run: all of them, or all but compare.html (--no-html).</summary>
+    public static IReadOnlyList<ICompareExporter> Chosen(bool html) =>
+        html ? All : All.Where(e => e is not Html.CompareHtmlExporter).ToArray();
 
     /// <returns>One message per file that could not be written (empty when all were).</returns>
     public static IReadOnlyList<string> WriteAll(OutputDirectory output, CompareResult result, IEnumerable<ICompareExporter> exporters)

@@ -1,15 +1,20 @@
 using System.Globalization;
 using VoxProf.Core;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
+
+/// <summary>A metric of a strategy left out of a comparison, and why ("not checked in base": a null value).</summary>
+public sealed record NotCompared(string Strategy, string Metric, string Reason);
 
 /// <summary>Two reports of the same view, metric by metric. Build with <see cref="Create"/>.</summary>
 public sealed class ReportComparison
 {
     private ReportComparison(LoadedReport @base, LoadedReport candidate, IReadOnlyList<string> notes,
-        IReadOnlyList<string> strategies, IReadOnlyList<MetricChange> changes)
+        IReadOnlyList<string> strategies, IReadOnlyList<MetricChange> changes, IReadOnlyList<NotCompared> notCompared)
     {
+        NotComparedMetrics = notCompared;
         Base = @base;
         Candidate = candidate;
         Notes = notes;
@@ -32,6 +37,9 @@ public sealed class ReportComparison
     /// <summary>Every metric present in both reports, largest regressions first.</summary>
     public IReadOnlyList<MetricChange> Changes { get; }
 
+    /// <summary>Metrics of a strategy in both reports that have no value in one of them, so they were left out.</summary>
+    public IReadOnlyList<NotCompared> NotComparedMetrics { get; }
+
     /// <summary>Refuses (with <see cref="InputException"/>) reports of different image sizes or cameras.</summary>
     public static ReportComparison Create(LoadedReport @base, LoadedReport candidate)
     {
@@ -49,38 +57,74 @@ public sealed class ReportComparison
             notes.Add($"prepass block differs: base {b.Run.PrepassBlock}, candidate {c.Run.PrepassBlock}");
         if (b.ToolVersion != c.ToolVersion)
             notes.Add($"voxprof version differs: base {b.ToolVersion}, candidate {c.ToolVersion}");
+        notes.AddRange(Calibration.CalibrationNotes.Compare(b, c));
 
         var candidateByName = c.Strategies.ToDictionary(s => s.Name, StringComparer.OrdinalIgnoreCase);
         var common = b.Strategies.Where(s => candidateByName.ContainsKey(s.Name)).Select(s => s.Name).ToArray();
         AddOnlyIn(notes, "strategies", b.Strategies.Select(s => s.Name), c.Strategies.Select(s => s.Name));
 
         var changes = new List<MetricChange>();
-        var missingMetrics = new SortedSet<string>(StringComparer.Ordinal);
+        var notCompared = new List<NotCompared>();
+        var candidateMetrics = c.Metrics.ToDictionary(m => m.Name, StringComparer.Ordinal);
+        var baseMetrics = b.Metrics.Select(m => m.Name).ToHashSet(StringComparer.Ordinal);
+        var comparable = new List<MetricDescriptor>();
+        var missingMetrics = new List<string>();
+        foreach (var m in b.Metrics)
+        {
+            if (!candidateMetrics.TryGetValue(m.Name, out var cm))
+                missingMetrics.Add($"{m.Name} (base only)");
+            else if (cm.Unit != m.Unit || cm.Better != m.Better)
+                notes.Add($"{m.Name} not compared: base measures it in {m.Unit} ({m.Better.ToString().ToLowerInvariant()} is better), candidate in {cm.Unit} ({cm.Better.ToString().ToLowerInvariant()} is better)");
+            else
+                comparable.Add(m);
+        }
+        missingMetrics.AddRange(c.Metrics.Where(m => !baseMetrics.Contains(m.Name)).Select(m => $"{m.Name} (candidate only)"));
+        if (missingMetrics.Count > 0)
+            notes.Add($"not compared, present in one report only: {string.Join(", ", missingMetrics)}");
+
         foreach (var bs in b.Strategies.Where(s => candidateByName.ContainsKey(s.Name)))
         {
             var cs = candidateByName[bs.Name];
-            var candidateValues = Metrics.Of(cs).ToDictionary(m => m.Metric.Key, StringComparer.OrdinalIgnoreCase);
-            var seen = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
-            foreach (var m in Metrics.Of(bs))
+            foreach (var m in comparable)
             {
-                seen.Add(m.Metric.Key);
-                if (candidateValues.TryGetValue(m.Metric.Key, out var cv))
-                    changes.Add(new MetricChange(bs.Name, m.Metric, m.Value, cv.Value));
+                // A null value was not measured (mismatch without the grid reference): not a 0, so not comparable.
+                if (bs.Value(m.Name) is { } bv && cs.Value(m.Name) is { } cv)
+                    changes.Add(new MetricChange(bs.Name, m, bv, cv));
                 else
-                    missingMetrics.Add($"{m.Metric.Group} (base only)");
+                    notCompared.Add(new NotCompared(bs.Name, m.Name, Missing(bs, m, "base") ?? Missing(cs, m, "candidate")!));
             }
-            foreach (var key in candidateValues.Keys.Where(k => !seen.Contains(k)))
-                missingMetrics.Add($"{candidateValues[key].Metric.Group} (candidate only)");
         }
-        if (missingMetrics.Count > 0)
-            notes.Add($"not compared, present in one report only: {string.Join(", ", missingMetrics)}");
+        foreach (var group in notCompared.GroupBy(n => (n.Metric, n.Reason)))
+            notes.Add($"{group.Key.Metric} not compared for {string.Join(", ", group.Select(n => n.Strategy))}: {group.Key.Reason}");
         notes.AddRange(b.Warnings.Select(w => $"base report warns: {w}"));
         notes.AddRange(c.Warnings.Select(w => $"candidate report warns: {w}"));
         if (b.Environment.Configuration != "Release" || c.Environment.Configuration != "Release")
             notes.Add($"build configuration: base {b.Environment.Configuration}, candidate {c.Environment.Configuration} (counts do not depend on it; timings do)");
 
-        return new ReportComparison(@base, candidate, notes, common, RegressionOrder.Sort(changes));
+        if (changes.Count == 0)
+            throw new InputException(NothingToCompare(@base, candidate, common, comparable));
+        return new ReportComparison(@base, candidate, notes, common, RegressionOrder.Sort(changes), notCompared);
     }
+
+    // A comparison of nothing would pass every rule: refuse it, naming what each side holds.
+    private static string NothingToCompare(LoadedReport @base, LoadedReport candidate, IReadOnlyList<string> common,
+        IReadOnlyList<MetricDescriptor> comparable)
+    {
+        static string Names(IEnumerable<string> names) => names.Any() ? string.Join(", ", names) : "none";
+        var b = @base.Document;
+        var c = candidate.Document;
+        if (common.Count == 0)
+        {
+            return $"nothing to compare: no strategy is in both reports (base {@base.File} holds {Names(b.Strategies.Select(s => s.Name))}; " +
+                $"candidate {candidate.File} holds {Names(c.Strategies.Select(s => s.Name))}); trace both with a strategy in common";
+        }
+        return comparable.Count == 0
+            ? $"nothing to compare: no metric is in both reports (base {@base.File} lists {b.Metrics.Count}, candidate {candidate.File} lists {c.Metrics.Count}, none with the same name, unit and direction)"
+            : $"nothing to compare: no metric of {Names(common)} has a value in both reports ({@base.File}, {candidate.File})";
+    }
+
+    private static string? Missing(StrategyReport s, MetricDescriptor m, string side) =>
+        !s.Values.ContainsKey(m.Name) ? $"no value in {side}" : s.Value(m.Name) is null ? $"not checked in {side}" : null;
 
     private static void RequireSameView(LoadedReport @base, LoadedReport candidate)
     {

@@ -1,6 +1,8 @@
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using VoxProf.Core;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Compare;
@@ -10,12 +12,21 @@ public sealed record LoadedReport(string File, ReportDocument Document)
 {
     /// <summary>The report directory (the directory of report.json): heatmaps and per-pixel files live beside it.</summary>
     public string Directory => Path.GetDirectoryName(Path.GetFullPath(File)) ?? ".";
+
+    /// <summary>The folder's manifest.json when it has one: files read beside report.json are checked against it.</summary>
+    public ReportManifest? Manifest { get; init; }
 }
 
-/// <summary>Reads report.json for <c>compare</c>; every problem becomes one <see cref="InputException"/> line.</summary>
+/// <summary>
+/// Reads report.json (the one reader of it); every problem becomes one <see cref="InputException"/> line. Reads the
+/// current schema only: a report of another schema is refused naming both versions.
+/// </summary>
 public static partial class ReportLoader
 {
     public const string FileName = OutputNames.ReportJson;
+
+    /// <summary>Largest report.json read: a report is tens of kilobytes; anything this large is not one.</summary>
+    public const long MaxBytes = 64L << 20;
 
     // The writer's options, made strict: a missing constructor field or a null where the model has none becomes
     // an error with its JSON path instead of a null that fails somewhere in the comparison.
@@ -36,30 +47,46 @@ public static partial class ReportLoader
                 : $"{path}: not found (expected a report directory or its {FileName})");
         }
 
-        var bytes = File.ReadAllBytes(file);
+        if (System.IO.Directory.Exists(file))
+            throw new InputException($"{file}: is a folder; expected a report.json written by `voxprof trace`");
+        var length = new FileInfo(file).Length;
+        if (length > MaxBytes)
+            throw new InputException($"{file}: holds {length} bytes; expected a report.json of at most {MaxBytes}");
+        var raw = File.ReadAllBytes(file);
+        var folder = Path.GetDirectoryName(Path.GetFullPath(file)) ?? ".";
+        var manifest = ReportManifest.Read(folder);
+        manifest?.Verify(folder, FileName, raw);
+        var bytes = JsonText.WithoutBom(raw);
+        if (JsonText.FindInvalidUtf8(bytes.Span) is { } notUtf8)
+            throw new InputException($"{file}: {notUtf8.Where}: {notUtf8.Problem}");
         CheckSchema(file, bytes);
         ReportDocument? doc;
         try
         {
-            doc = JsonSerializer.Deserialize<ReportDocument>(bytes, Options);
+            doc = JsonSerializer.Deserialize<ReportDocument>(bytes.Span, Options);
         }
         catch (JsonException ex)
         {
-            throw new InputException($"{file}: {Where(ex)}: {Problem(ex)}", ex);
+            var problem = ex.Path?.EndsWith(".better", StringComparison.Ordinal) == true ? "expected lower, higher or neutral" : Problem(ex);
+            throw new InputException($"{file}: {Where(ex)}: {problem}", ex);
         }
         if (doc is null)
             throw new InputException($"{file}: expected a report object, found null");
+        ReportValues.RequireItems(file, doc);
         Validate(file, doc);
-        return new LoadedReport(file, doc);
+        ReportValues.Validate(file, doc);
+        return new LoadedReport(file, doc) { Manifest = manifest };
     }
 
     // Read the schema version alone first, so a report from a later schema gets "version N not read" rather than
     // a confusing complaint about some field that schema renamed.
-    private static void CheckSchema(string file, byte[] bytes)
+    private static void CheckSchema(string file, ReadOnlyMemory<byte> bytes)
     {
         try
         {
             using var json = JsonDocument.Parse(bytes);
+            if (JsonText.FindLoneSurrogate(json.RootElement) is { } lone)
+                throw new InputException($"{file}: {lone.Where}: {lone.Problem}");
             if (json.RootElement.ValueKind != JsonValueKind.Object)
                 throw new InputException($"{file}: expected a JSON object at the top, found {json.RootElement.ValueKind.ToString().ToLowerInvariant()}");
             JsonElement? found = null;
@@ -71,9 +98,13 @@ public static partial class ReportLoader
             if (found is not { } version)
                 throw new InputException($"{file}: $.schemaVersion: missing; expected the report schema version ({ReportDocument.CurrentSchema})");
             if (version.ValueKind != JsonValueKind.Number || !version.TryGetInt32(out var v))
-                throw new InputException($"{file}: $.schemaVersion: expected an integer, found {version.GetRawText()}");
-            if (v < 1 || v > ReportDocument.CurrentSchema)
-                throw new InputException($"{file}: $.schemaVersion: report schema {v} is not read by this voxprof (it reads schema 1..{ReportDocument.CurrentSchema}); trace both runs with one voxprof version");
+                throw new InputException($"{file}: $.schemaVersion: expected an integer, found {MessageText.Excerpt(version.GetRawText())}");
+            if (v != ReportDocument.CurrentSchema)
+            {
+                var age = v < ReportDocument.CurrentSchema ? "an older" : "a newer";
+                throw new InputException($"{file}: $.schemaVersion: report schema {v} (written by {age} voxprof) is not read by this voxprof, " +
+                    $"which reads schema {ReportDocument.CurrentSchema} only; trace both runs with one voxprof version");
+            }
         }
         catch (JsonException ex)
         {
@@ -86,10 +117,11 @@ public static partial class ReportLoader
 
     // The parser stopped at the last byte: the text ended before the JSON did (a truncated or empty file), which
     // deserves a plainer message than the parser's complaint about what it expected next.
-    private static bool AtEnd(byte[] bytes, JsonException ex)
+    private static bool AtEnd(ReadOnlyMemory<byte> memory, JsonException ex)
     {
-        var lastBreak = Array.LastIndexOf(bytes, (byte)'\n');
-        var lines = bytes.Count(b => b == (byte)'\n');
+        var bytes = memory.Span;
+        var lastBreak = bytes.LastIndexOf((byte)'\n');
+        var lines = bytes.Count((byte)'\n');
         var lastLineLength = bytes.Length - (lastBreak + 1);
         return ex.LineNumber == lines && ex.BytePositionInLine >= lastLineLength;
     }
@@ -100,28 +132,32 @@ public static partial class ReportLoader
             throw new InputException($"{file}: $.run: image size {doc.Run.Width}x{doc.Run.Height} is not a positive WxH");
         if (doc.Camera.Eye.Length != 3 || doc.Camera.Target.Length != 3 || doc.Camera.Up.Length != 3)
             throw new InputException($"{file}: $.camera: eye, target and up must each have 3 numbers");
+        var metrics = new HashSet<string>(StringComparer.Ordinal);
+        for (var i = 0; i < doc.Metrics.Count; i++)
+        {
+            var m = doc.Metrics[i];
+            if (!MetricDescriptor.IsValidName(m.Name))
+                throw new InputException($"{file}: $.metrics[{i}].name: '{m.Name}' is not a metric name; expected lower-case words joined by '-', one or two of them joined by '.'");
+            if (!metrics.Add(m.Name))
+                throw new InputException($"{file}: $.metrics[{i}].name: metric '{m.Name}' appears twice");
+            if (!MetricDescriptor.IsValidFormat(m.NumberFormat))
+                throw new InputException($"{file}: $.metrics[{i}].numberFormat: '{m.NumberFormat}' is not a number format; expected 0, or 0. followed by 0s or #s");
+        }
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         for (var i = 0; i < doc.Strategies.Count; i++)
         {
             var s = doc.Strategies[i];
             if (!names.Add(s.Name))
                 throw new InputException($"{file}: $.strategies[{i}].name: strategy '{s.Name}' appears twice");
-            var counters = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
-            for (var c = 0; c < s.Counters.Count; c++)
+            foreach (var key in s.Values.Keys)
             {
-                if (!counters.Add(s.Counters[c].Counter))
-                    throw new InputException($"{file}: $.strategies[{i}].counters[{c}].counter: counter '{s.Counters[c].Counter}' appears twice");
-            }
-            var lanes = new HashSet<int>();
-            for (var w = 0; w < s.Waves.Count; w++)
-            {
-                if (s.Waves[w].Lanes <= 0 || !lanes.Add(s.Waves[w].Lanes))
-                    throw new InputException($"{file}: $.strategies[{i}].waves[{w}].lanes: expected a positive lane count once per strategy, found {s.Waves[w].Lanes}");
+                if (!metrics.Contains(key))
+                    throw new InputException($"{file}: $.strategies[{i}].values: '{key}' is not in $.metrics; expected values keyed by the metric names listed there");
             }
         }
     }
 
-    private static string Where(JsonException ex)
+    internal static string Where(JsonException ex)
     {
         // System.Text.Json counts lines and bytes from 0; editors count from 1.
         var place = ex.LineNumber is { } line
@@ -139,9 +175,9 @@ public static partial class ReportLoader
 
     // The serializer's messages end with a "Path: … | LineNumber: …" suffix already given by Where, and name
     // .NET types; keep the part a user can act on.
-    private static string Problem(JsonException ex)
+    internal static string Problem(JsonException ex)
     {
-        var message = ex.Message;
+        var message = MessageText.CutEchoes(ex.Message);
         var cut = message.IndexOf(" Path: ", StringComparison.Ordinal);
         if (cut < 0)
             cut = message.IndexOf(" LineNumber: ", StringComparison.Ordinal);

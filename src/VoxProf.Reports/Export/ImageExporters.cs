@@ -1,5 +1,6 @@
 using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
+using VoxProf.Core.Calibration;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
@@ -15,6 +16,7 @@ public sealed class HeatmapExporter : IReportExporter
     public void Export(ReportContext context, OutputDirectory output)
     {
         var run = context.Run;
+        CostModel? calibration = context.Options.Calibration?.Model;
         var jobs = new List<(StrategyResult Result, string Map, HeatmapScale Scale)>();
         foreach (string map in context.Options.Heatmaps)
         {
@@ -23,8 +25,11 @@ public sealed class HeatmapExporter : IReportExporter
         }
         Parallel.ForEach(jobs, job =>
         {
-            using Image<Rgba32> image = HeatmapImage.Render(Values(job.Result, job.Map), job.Result.Width, job.Result.Height, job.Scale);
             string strategy = job.Result.Strategy.Name();
+            var title = new ImageTitle(
+                [context.Run.Scene.Name, context.Run.Camera.Name, strategy, job.Map],
+                [UnitOf(job.Map), $"{job.Result.Width}×{job.Result.Height}"]);
+            using Image<Rgba32> image = HeatmapImage.Render(Values(job.Result, job.Map, calibration), job.Result.Width, job.Result.Height, job.Scale, title);
             Png.AddText(image, "Strategy", strategy);
             Png.AddText(image, "Counter", job.Map);
             Png.AddText(image, "Scale", FormattableString.Invariant($"{(job.Scale.Kind == ScaleKind.Log ? "log" : "linear")} {job.Scale.Min}..{job.Scale.Max}"));
@@ -33,9 +38,21 @@ public sealed class HeatmapExporter : IReportExporter
         });
     }
 
+    /// <summary>What one pixel of a map counts: "iterations per pixel", or for a lockstep-group map the tile maximum.</summary>
+    public static string UnitOf(string map)
+    {
+        if (map == HeatmapNames.PredictedCost)
+            return "predicted GPU time per pixel, picoseconds";
+        if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
+            return $"{Counter.Iterations.Name()} per pixel: the largest in its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes)";
+        Counter c = Parse(map);
+        return c.Unit() == "count" ? $"{c.Name()} per pixel" : $"{c.Unit()} per pixel ({c.Name()})";
+    }
+
     /// <summary>
     /// The fixed range if given, else 0 to the largest 99th percentile of the map over the strategies that share a
-    /// scale: a handful of extreme pixels would otherwise darken every image; the few above it take the top colour.
+    /// scale, rounded up to a whole count: a handful of extreme pixels would otherwise darken every image; the few
+    /// above it take the top colour.
     /// The tree strategies share one scale so they compare by eye; the grid reference, whose cost is one to two orders
     /// of magnitude higher, gets a scale of its own whenever another strategy is traced beside it (its legend says so).
     /// </summary>
@@ -50,19 +67,23 @@ public sealed class HeatmapExporter : IReportExporter
         {
             bool shares = ownScale ? r.Strategy == Strategy.Grid : r.Strategy != Strategy.Grid || context.Run.Results.Count == 1;
             if (shares)
-                top = Math.Max(top, Top(r, map));
+                top = Math.Max(top, Top(r, map, o.Calibration?.Model));
         }
-        return HeatmapScale.Auto(o.Scale, top);
+        return HeatmapScale.Auto(o.Scale, Math.Ceiling(top));
     }
 
     /// <summary>The 99th percentile (definition 7) of the map's values, or their maximum when that is 0.</summary>
-    public static double Top(StrategyResult r, string map)
+    public static double Top(StrategyResult r, string map, CostModel? calibration = null)
     {
         CounterSummary s;
-        if (HeatmapNames.IsWave(map, out WaveShape shape))
+        if (map == HeatmapNames.PredictedCost)
+        {
+            s = CounterSummary.Compute(Values(r, map, calibration));
+        }
+        else if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
         {
             var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-            WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+            SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
             s = CounterSummary.Compute(tiles);
         }
         else
@@ -72,14 +93,17 @@ public sealed class HeatmapExporter : IReportExporter
         return s.P99 > 0 ? s.P99 : s.Max;
     }
 
-    public static uint[] Values(StrategyResult r, string map)
+    /// <param name="calibration">Needed for <see cref="HeatmapNames.PredictedCost"/> only.</param>
+    public static uint[] Values(StrategyResult r, string map, CostModel? calibration = null)
     {
-        if (!HeatmapNames.IsWave(map, out WaveShape shape))
+        if (map == HeatmapNames.PredictedCost)
+            return (calibration ?? throw new ArgumentException($"the {map} map needs a calibration", nameof(calibration))).PixelPicoseconds(r);
+        if (!HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return r.Counters[(int)Parse(map)];
         var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-        WaveModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
         var pixels = new uint[r.Width * r.Height];
-        WaveModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
         return pixels;
     }
 
@@ -97,7 +121,10 @@ public sealed class PreviewExporter : IReportExporter
         StrategyResult? source = context.Run.Reference ?? context.Run.Results.FirstOrDefault();
         if (source is null)
             return;
-        using Image<Rgba32> image = PreviewImage.Render(source.Hits, source.Width, source.Height);
+        var title = new ImageTitle(
+            [context.Run.Scene.Name, context.Run.Camera.Name, $"preview ({source.Strategy.Name()})"],
+            ["material colours lit from above, shaded by the face the ray entered", $"{source.Width}×{source.Height}"]);
+        using Image<Rgba32> image = PreviewImage.Render(source.Hits, source.Width, source.Height, title);
         Png.AddText(image, "Strategy", source.Strategy.Name());
         Png.AddText(image, "Software", $"VoxProf {context.Options.ToolVersion}");
         output.Write(OutputNames.Preview, s => Png.Save(image, s));
@@ -116,13 +143,16 @@ public sealed class MismatchExporter : IReportExporter
             return;
         foreach (StrategyStatistics s in context.Statistics)
         {
-            if (s.MismatchPixels == 0)
+            if (s.MismatchPixels is not { } mismatched || mismatched == 0)
                 continue;
             StrategyResult r = context.Run.Results.First(x => x.Strategy == s.Strategy);
-            using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height);
+            var title = new ImageTitle(
+                [context.Run.Scene.Name, context.Run.Camera.Name, s.Strategy.Name()],
+                ["a hit differs when one ray hits and the other misses, or they hit different voxels", $"{r.Width}×{r.Height}"]);
+            using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height, reference.Strategy.Name(), title);
             Png.AddText(image, "Strategy", s.Strategy.Name());
             Png.AddText(image, "Reference", reference.Strategy.Name());
-            Png.AddText(image, "Mismatched pixels", s.MismatchPixels.ToString(System.Globalization.CultureInfo.InvariantCulture));
+            Png.AddText(image, "Mismatched pixels", mismatched.ToString(System.Globalization.CultureInfo.InvariantCulture));
             output.Write(OutputNames.Mismatch(s.Strategy.Name()), st => Png.Save(image, st));
         }
     }

@@ -1,73 +1,140 @@
 using VoxProf.Core;
+using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Export;
 
 /// <summary>
-/// A report directory that only ever shows complete files: each is written under a temporary name beside its final
-/// one and renamed over it when complete. Files it does not write are left alone. Safe for concurrent writers.
+/// An output folder that changes all at once (docs/reports.md, "The output folder"): a run writes into a hidden
+/// sibling folder and <see cref="Commit"/> swaps it in whole, with <see cref="ReportManifest.FileName"/> listing what
+/// it wrote, so a killed run leaves the previous folder as it was and two runs never mix their files. A second
+/// run into the same folder is refused while the first holds its lock. Safe for concurrent writes of different files.
 /// </summary>
-public sealed class OutputDirectory
+public sealed class OutputDirectory : IDisposable
 {
-    private readonly object _lock = new();
-    private readonly List<string> _written = [];
+    private readonly object _sync = new();
+    private readonly List<ManifestFile> _written = [];
+    private readonly FileStream _lock;
+    private readonly string _stage;
+    private readonly string _parent;
+    private readonly string _name;
+    private bool _committed;
+    private bool _disposed;
 
-    private OutputDirectory(string path) => FullPath = path;
+    private OutputDirectory(string path, string parent, string name, string stage, FileStream held)
+    {
+        FullPath = path;
+        _parent = parent;
+        _name = name;
+        _stage = stage;
+        _lock = held;
+        RunId = Guid.NewGuid().ToString("N");
+    }
 
+    /// <summary>The folder the files end up in (after <see cref="Commit"/>).</summary>
     public string FullPath { get; }
+
+    /// <summary>
+    /// Where this run's files are until <see cref="Commit"/> puts them at <see cref="FullPath"/>: an exporter that
+    /// reads a file written earlier in the run (a page inlining its images) reads it here.
+    /// </summary>
+    public string WorkingPath => _committed ? FullPath : _stage;
+
+    /// <summary>A fresh id for this run, written into the manifest.</summary>
+    public string RunId { get; }
 
     /// <summary>File names written so far, in completion order.</summary>
     public IReadOnlyList<string> Written
     {
         get
         {
-            lock (_lock)
-                return _written.ToList();
+            lock (_sync)
+                return _written.Select(f => f.Name).ToList();
         }
     }
 
-    /// <summary>Creates the directory if needed and proves it writable; one clear <see cref="InputException"/> if not.</summary>
+    /// <summary>Refuses an empty path (<c>--out ''</c>) or one naming a file, before any slow work.</summary>
+    public static void CheckPath(string? path, string option)
+    {
+        if (path is null)
+            return;
+        if (string.IsNullOrWhiteSpace(path))
+            throw new InputException($"{option}: empty; expected an output folder path");
+        if (path.Contains('\0', StringComparison.Ordinal))
+            throw new InputException($"{option}: the path contains a NUL character; expected an output folder path");
+        if (File.Exists(path))
+            throw new InputException($"{path}: is a file, expected an output directory");
+    }
+
+    /// <summary>
+    /// Locks the folder, removes what dead runs left beside it and prepares the hidden folder this run writes into,
+    /// proving the parent writable; one clear <see cref="InputException"/> if any of that fails.
+    /// </summary>
     public static OutputDirectory Open(string path)
     {
-        string full = Path.GetFullPath(path);
-        if (File.Exists(full))
-            throw new InputException($"{path}: is a file, expected an output directory");
+        CheckPath(path, "output folder");
+        string full = Path.TrimEndingDirectorySeparator(Path.GetFullPath(path));
+        // A link to a folder: replace the folder it points to, not the link.
+        if (Directory.Exists(full) && new DirectoryInfo(full).LinkTarget is not null
+            && new DirectoryInfo(full).ResolveLinkTarget(returnFinalTarget: true) is DirectoryInfo target)
+            full = Path.TrimEndingDirectorySeparator(target.FullName);
+        string? parent = Path.GetDirectoryName(full);
+        string name = Path.GetFileName(full);
+        if (parent is null || name.Length == 0)
+            throw new InputException($"{path}: is the root of a file system; expected a folder inside one");
+        if (FolderSwap.IsMountPoint(full))
+            throw new InputException($"{path}: is a mount point, which cannot be replaced by renaming; give a folder inside it");
+        FileStream? held = null;
         try
         {
-            Directory.CreateDirectory(full);
-            string probe = Path.Combine(full, $".voxprof-probe-{Guid.NewGuid():N}.tmp");
-            File.WriteAllBytes(probe, []);
-            File.Delete(probe);
+            Directory.CreateDirectory(parent);
+            held = FolderSwap.Lock(parent, name)
+                ?? throw new InputException($"{path}: another voxprof run is writing this folder (it holds {FolderSwap.LockPath(parent, name)}); wait for it to finish or choose another output folder");
+            FolderSwap.CleanUp(parent, name);
+            RequireOurs(path, full);
+            string stage = FolderSwap.NewSibling(parent, name, "stage");
+            Directory.CreateDirectory(stage);
+            return new OutputDirectory(full, parent, name, stage, held);
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException or NotSupportedException)
         {
+            held?.Dispose();
             throw new InputException($"{path}: cannot write the output directory ({ex.Message})", ex);
-        }
-        return new OutputDirectory(full);
-    }
-
-    /// <summary>Writes <paramref name="name"/> through <paramref name="write"/>; on any failure the old file (if any) stays.</summary>
-    public void Write(string name, Action<Stream> write)
-    {
-        if (name.IndexOfAny(['/', '\\']) >= 0 || name.StartsWith('.'))
-            throw new ArgumentException($"not a plain file name: {name}", nameof(name));
-        string final = Path.Combine(FullPath, name);
-        string temp = Path.Combine(FullPath, $".{name}.{Guid.NewGuid():N}.tmp");
-        try
-        {
-            using (var stream = new FileStream(temp, FileMode.CreateNew, FileAccess.Write, FileShare.None, 1 << 16))
-            {
-                write(stream);
-                stream.Flush(flushToDisk: false);
-            }
-            File.Move(temp, final, overwrite: true);
         }
         catch
         {
-            TryDelete(temp);
+            held?.Dispose();
             throw;
         }
-        lock (_lock)
-            _written.Add(name);
+    }
+
+    /// <summary>Writes <paramref name="name"/> through <paramref name="write"/> into this run's folder; a failed file is left out.</summary>
+    public void Write(string name, Action<Stream> write)
+    {
+        if (name.IndexOfAny(['/', '\\']) >= 0 || name.StartsWith('.') || name == ReportManifest.FileName)
+            throw new ArgumentException($"not a plain file name: {name}", nameof(name));
+        ObjectDisposedException.ThrowIf(_disposed, this);
+        if (_committed)
+            throw new InvalidOperationException("the output folder is already committed");
+        string path = Path.Combine(_stage, name);
+        ManifestFile entry;
+        try
+        {
+            using var file = new FileStream(path, FileMode.Create, FileAccess.Write, FileShare.None, 1 << 16);
+            using var hashing = new HashingWriteStream(file);
+            write(hashing);
+            hashing.Flush();
+            entry = new ManifestFile(name, hashing.Length, hashing.Hash());
+        }
+        catch
+        {
+            TryDelete(path);
+            throw;
+        }
+        lock (_sync)
+        {
+            _written.RemoveAll(f => f.Name == name);
+            _written.Add(entry);
+        }
     }
 
     public void WriteText(string name, Action<TextWriter> write) =>
@@ -77,6 +144,58 @@ public sealed class OutputDirectory
             write(w);
         });
 
+    /// <summary>Writes the manifest and puts this run's folder in place of the old one, whole; then releases the lock.</summary>
+    public void Commit()
+    {
+        ObjectDisposedException.ThrowIf(_disposed, this);
+        if (_committed)
+            throw new InvalidOperationException("the output folder is already committed");
+        ManifestFile[] files;
+        lock (_sync)
+            files = [.. _written.OrderBy(f => f.Name, StringComparer.Ordinal)];
+        var manifest = new ReportManifest("voxprof", ToolInfo.Version, RunId, files);
+        File.WriteAllBytes(Path.Combine(_stage, ReportManifest.FileName), manifest.ToJson());
+        FolderSwap.Replace(_stage, FullPath, _parent, _name);
+        _committed = true;
+        Dispose();
+    }
+
+    /// <summary>Without a commit, throws this run's files away and leaves the folder as it was.</summary>
+    public void Dispose()
+    {
+        if (_disposed)
+            return;
+        _disposed = true;
+        if (!_committed)
+            FolderSwap.DeleteTree(_stage);
+        _lock.Dispose();
+    }
+
+    // A folder voxprof did not write (a home folder, a repository given as --out by mistake), or a file someone put
+    // into a report folder, must never be swapped away: every entry must be listed in the folder's manifest or
+    // carry a name voxprof writes (a folder from before manifests).
+    private static void RequireOurs(string path, string full)
+    {
+        if (!Directory.Exists(full))
+            return;
+        var listed = new HashSet<string>(StringComparer.Ordinal);
+        try
+        {
+            foreach (ManifestFile f in ReportManifest.Read(full)?.Files ?? [])
+                listed.Add(f.Name);
+        }
+        catch (InputException)
+        {
+            // A damaged manifest vouches for nothing: the names alone decide.
+        }
+        foreach (string entry in Directory.EnumerateFileSystemEntries(full))
+        {
+            string name = Path.GetFileName(entry);
+            if (Directory.Exists(entry) || !(listed.Contains(name) || OutputNames.IsOwn(name)))
+                throw new InputException($"{path}: holds {(Directory.Exists(entry) ? "a folder" : "a file")} voxprof did not write ('{MessageText.Excerpt(name)}'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
+        }
+    }
+
     private static void TryDelete(string path)
     {
         try
@@ -85,7 +204,7 @@ public sealed class OutputDirectory
         }
         catch (Exception ex) when (ex is IOException or UnauthorizedAccessException)
         {
-            // Best effort: a leftover .tmp is hidden and never mistaken for a report file.
+            // Best effort: the stage folder is removed whole at the end.
         }
     }
 }

@@ -6,13 +6,17 @@ using VoxProf.Reports.Pixels;
 
 namespace VoxProf.Reports.Export;
 
-/// <summary>pixels-STRATEGY.bin.gz for every strategy: small, and what compare needs for per-pixel differences.</summary>
+/// <summary>
+/// pixels-STRATEGY.bin.gz for every strategy: what compare needs for per-pixel differences. Left out with --no-pixels.
+/// </summary>
 public sealed class PixelDataExporter : IReportExporter
 {
     public string Name => "pixel data";
 
     public void Export(ReportContext context, OutputDirectory output)
     {
+        if (!context.Options.PixelData)
+            return;
         foreach (StrategyResult r in context.Run.Results)
             output.Write(OutputNames.PixelData(r.Strategy.Name()), s => PixelDataFile.Write(PixelData.From(r), s));
     }

@@ -1,6 +1,7 @@
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Export;
@@ -16,19 +17,11 @@ public static class ReportBuilder
         var settings = run.Settings;
         string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
 
-        var strategies = new List<StrategyReport>();
-        foreach (StrategyStatistics s in stats)
-        {
-            var counterStats = CounterNames.All.Select(c =>
-            {
-                CounterSummary cs = s[c];
-                return new CounterStats(c.Name(), cs.Total, cs.Mean, cs.P50, cs.P90, cs.P99, cs.Max) { Unit = c.Unit() };
-            }).ToList();
-            var waves = s.Waves.Select(w => new WaveStats(
-                w.Shape.Lanes, w.Shape.TileWidth, w.Shape.TileHeight, w.Tiles, w.MeanTileMax, w.SimdEfficiency)
-            { MaxTileMax = w.MaxTileMax }).ToList();
-            strategies.Add(new StrategyReport(s.Strategy.Name(), s.HitRate, s.MismatchPixels, counterStats, waves, FilesOf(s, options)));
-        }
+        var calibration = options.Calibration?.Model;
+        var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
+        IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
+            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration)
+            : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
             ReportDocument.CurrentSchema,
@@ -38,7 +31,7 @@ public static class ReportBuilder
             new TreeInfo(tree.Branching, tree.Depth, tree.NodeCount, tree.SolidVoxels, tree.TotalBytes, tree.NodesPerLevel) { RootSize = tree.RootSize },
             new CameraInfo(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z],
                 [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees),
-            new RunInfo(settings.Width, settings.Height, settings.PrepassBlock, stats.Select(s => s.Strategy.Name()).ToArray(), counters)
+            new RunInfo(settings.Width, settings.Height, settings.PrepassBlock, stats.Select(s => s.Name).ToArray(), counters)
             {
                 Branching = settings.Branching,
                 Heatmaps = options.Heatmaps.ToArray(),
@@ -46,37 +39,70 @@ public static class ReportBuilder
                 RangeMin = options.RangeMin,
                 RangeMax = options.RangeMax,
                 Baseline = Baseline(stats, options.Baseline)?.Name(),
+                PixelData = options.PixelData,
+                Subgroups = SubgroupShape.Standard.Select(g =>
+                    new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
             },
+            metrics,
             strategies,
             options.Environment,
             new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name(), r => r.Elapsed.TotalSeconds))
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
             });
-        return ToolInfo.IsDebug(options.Environment) ? document with { Warnings = [ToolInfo.DebugWarning] } : document;
+        var warnings = new List<string>();
+        if (ToolInfo.IsDebug(options.Environment))
+            warnings.Add(ToolInfo.DebugWarning);
+        if (calibration?.ScopeWarning(settings.Branching, settings.Width, settings.Height) is { } scope)
+            warnings.Add(scope);
+        document = document with
+        {
+            ToolCommit = options.ToolCommit,
+            Files = options.Html
+                ? [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview, OutputNames.ReportHtml]
+                : [OutputNames.ReportJson, OutputNames.SummaryCsv, OutputNames.SummaryMarkdown, OutputNames.Preview],
+            CommandLine = options.CommandLine.ToArray(),
+            Warnings = warnings,
+            Calibration = options.Calibration?.Info,
+        };
+        return document with { Run = document.Run with { HeatmapRanges = Ranges(new ReportContext(run, stats, document, options)) } };
     }
 
-    /// <summary>The requested baseline if it was traced, otherwise the strategy with the largest wave32 mean tile max.</summary>
+    /// <summary>
+    /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid
+    /// reference, which costs an order of magnitude more, would all be tiny. Grid only when nothing else was traced.
+    /// </summary>
     public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
     {
         if (requested is { } r && stats.Any(s => s.Strategy == r))
             return r;
-        StrategyStatistics? slowest = null;
-        foreach (StrategyStatistics s in stats)
+        return stats.FirstOrDefault(s => s.Strategy != Strategy.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
+    }
+
+    /// <summary>The scale of every heatmap as the heatmap writer draws it (<see cref="HeatmapExporter.ScaleFor"/>).</summary>
+    private static HeatmapRange[] Ranges(ReportContext context)
+    {
+        var ranges = new List<HeatmapRange>();
+        foreach (string map in context.Options.Heatmaps)
         {
-            if (slowest is null || s.Waves[0].MeanTileMax > slowest.Waves[0].MeanTileMax)
-                slowest = s;
+            foreach (StrategyResult r in context.Run.Results)
+            {
+                HeatmapScale scale = HeatmapExporter.ScaleFor(map, context, r);
+                ranges.Add(new HeatmapRange(r.Strategy.Name(), map, OutputNames.Heatmap(r.Strategy, map),
+                    scale.Kind == ScaleKind.Log ? "log" : "linear", scale.Min, scale.Max));
+            }
         }
-        return slowest?.Strategy;
+        return ranges.ToArray();
     }
 
     private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
     {
-        string name = s.Strategy.Name();
+        string name = s.Name;
         var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
         if (s.MismatchPixels > 0)
             files.Add(OutputNames.Mismatch(name));
-        files.Add(OutputNames.PixelData(name));
+        if (options.PixelData)
+            files.Add(OutputNames.PixelData(name));
         if (options.PerPixel)
             files.Add(OutputNames.PixelCsv(name));
         return files;

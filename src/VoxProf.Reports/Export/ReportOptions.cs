@@ -1,7 +1,6 @@
-using System.Reflection;
-using System.Runtime.InteropServices;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Model;
 
@@ -17,33 +16,54 @@ public sealed record ReportOptions
 
     public double? RangeMax { get; init; }
 
-    /// <summary>Heatmaps per strategy: counter names and/or "wave32", "wave64" (see <see cref="HeatmapNames"/>).</summary>
+    /// <summary>Heatmaps per strategy: counter and subgroup names (see <see cref="HeatmapNames"/>).</summary>
     public IReadOnlyList<string> Heatmaps { get; init; } = HeatmapNames.Default;
 
     /// <summary>Also write pixels-STRATEGY.csv.</summary>
     public bool PerPixel { get; init; }
 
-    /// <summary>The strategy summary.md is relative to; null for the slowest.</summary>
+    /// <summary>The strategy summary.md's ratios are relative to; null for the first tree strategy traced.</summary>
     public Strategy? Baseline { get; init; }
+
+    /// <summary>Write pixels-STRATEGY.bin.gz (false with --no-pixels: compare then has no per-pixel differences).</summary>
+    public bool PixelData { get; init; } = true;
+
+    /// <summary>Write report.html (false with --no-html).</summary>
+    public bool Html { get; init; } = true;
+
+    /// <summary>Absolute URL that summary.md's image links start with (--link-base); null for links relative to the file.</summary>
+    public Uri? LinkBase { get; init; }
 
     public int Threads { get; init; }
 
+    /// <summary>The calibration behind predicted-ms and the predicted-cost map; null for none.</summary>
+    public AppliedCalibration? Calibration { get; init; }
+
     public string ToolVersion { get; init; } = ToolInfo.Version;
+
+    public string ToolCommit { get; init; } = ToolInfo.Commit;
+
+    /// <summary>The arguments the command was run with, as report.json records them (the program name left out).</summary>
+    public IReadOnlyList<string> CommandLine { get; init; } = [];
 
     public EnvironmentInfo Environment { get; init; } = ToolInfo.CurrentEnvironment();
 }
 
-/// <summary>Heatmap names accepted by --counters: every counter, plus the per-tile wave maxima.</summary>
+/// <summary>Heatmap names accepted by --counters: every counter, plus the per-tile maxima of each subgroup size.</summary>
 public static class HeatmapNames
 {
-    public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), "wave32", "wave64"];
+    public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static IReadOnlyList<string> All { get; } =
-        [.. CounterNames.All.Select(c => c.Name()), .. WaveShape.Standard.Select(WaveName)];
+        [.. CounterNames.All.Select(c => c.Name()), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static string ValidList => string.Join(", ", All);
 
-    public static string WaveName(WaveShape s) => $"wave{s.Lanes}";
+    /// <summary>
+    /// Each pixel's GPU time predicted by a calibration, in picoseconds: drawn with --calibration, not a --counters
+    /// choice (there is nothing to draw without one).
+    /// </summary>
+    public const string PredictedCost = "predicted-cost";
 
     public static bool TryParse(string text, out string name)
     {
@@ -51,11 +71,12 @@ public static class HeatmapNames
         return name.Length > 0;
     }
 
-    public static bool IsWave(string name, out WaveShape shape)
+    /// <summary>True for a subgroup map (each pixel shows its tile's largest loop iterations).</summary>
+    public static bool IsSubgroup(string name, out SubgroupShape shape)
     {
-        foreach (WaveShape s in WaveShape.Standard)
+        foreach (SubgroupShape s in SubgroupShape.Standard)
         {
-            if (WaveName(s) == name)
+            if (s.Name == name)
             {
                 shape = s;
                 return true;
@@ -64,21 +85,4 @@ public static class HeatmapNames
         shape = default;
         return false;
     }
-}
-
-public static class ToolInfo
-{
-    public static string Version { get; } =
-        typeof(ToolInfo).Assembly.GetCustomAttribute<AssemblyInformationalVersionAttribute>()?.InformationalVersion.Split('+')[0] ?? "0.0.0";
-
-    /// <summary>Build configuration of the assembly that holds the kernels: that is what sets the timings.</summary>
-    public static string Configuration { get; } =
-        typeof(Tracer).Assembly.GetCustomAttribute<AssemblyConfigurationAttribute>()?.Configuration ?? "unknown";
-
-    public static EnvironmentInfo CurrentEnvironment() =>
-        new(RuntimeInformation.FrameworkDescription, System.Environment.ProcessorCount, Configuration, RuntimeInformation.OSDescription);
-
-    public static bool IsDebug(EnvironmentInfo e) => string.Equals(e.Configuration, "Debug", StringComparison.OrdinalIgnoreCase);
-
-    public const string DebugWarning = "Debug build: timings are not representative; counts are still exact";
 }

@@ -24,22 +24,39 @@ public sealed class ReportWriter
     [
         new ReportJsonExporter(), new SummaryCsvExporter(), new SummaryMarkdownExporter(), new HeatmapExporter(),
         new PreviewExporter(), new MismatchExporter(), new PixelDataExporter(), new PixelCsvExporter(),
+        // Last: the page embeds the images the exporters above wrote.
+        new Html.HtmlReportExporter(),
     ];
 
-    /// <summary>The trace command's entry point: statistics, report document, then every file into <paramref name="directory"/>.</summary>
-    public static ReportResult WriteAll(TraceRun run, ReportOptions options, string directory)
+    /// <summary>Statistics, report document, then every file into <paramref name="directory"/>, swapped in whole.</summary>
+    /// <param name="step">Told "statistics" and each exporter's name as it starts, for a progress display.</param>
+    public static ReportResult WriteAll(TraceRun run, ReportOptions options, string directory, IProgress<string>? step = null)
     {
-        OutputDirectory output = OutputDirectory.Open(directory);
-        IReadOnlyList<StrategyStatistics> stats = StrategyStatistics.Compute(run);
-        var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
-        return new ReportWriter(DefaultExporters()).Write(context, output);
+        using OutputDirectory output = OutputDirectory.Open(directory);
+        return WriteAll(run, options, output, step);
     }
 
-    public ReportResult Write(ReportContext context, OutputDirectory output)
+    /// <summary>
+    /// The trace command's entry point: statistics, report document, every file, then <see cref="OutputDirectory.Commit"/>.
+    /// The folder is committed with the files that were written even when an exporter failed: it then holds one
+    /// run's files, and the failures are reported.
+    /// </summary>
+    public static ReportResult WriteAll(TraceRun run, ReportOptions options, OutputDirectory output, IProgress<string>? step = null)
+    {
+        step?.Report("computing statistics");
+        IReadOnlyList<StrategyStatistics> stats = StrategyStatistics.Compute(run);
+        var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
+        ReportResult result = new ReportWriter(DefaultExporters()).Write(context, output, step);
+        output.Commit();
+        return result;
+    }
+
+    public ReportResult Write(ReportContext context, OutputDirectory output, IProgress<string>? step = null)
     {
         var failures = new List<ExportFailure>();
         foreach (IReportExporter exporter in _exporters)
         {
+            step?.Report($"writing {exporter.Name}");
             try
             {
                 exporter.Export(context, output);

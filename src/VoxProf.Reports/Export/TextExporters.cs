@@ -24,5 +24,5 @@ public sealed class SummaryMarkdownExporter : IReportExporter
     public string Name => OutputNames.SummaryMarkdown;
 
     public void Export(ReportContext context, OutputDirectory output) =>
-        output.WriteText(OutputNames.SummaryMarkdown, w => w.Write(SummaryMarkdown.Render(context.Document, MetricTable.FromReport(context.Document))));
+        output.WriteText(OutputNames.SummaryMarkdown, w => w.Write(SummaryMarkdown.Render(context.Document, MetricTable.FromReport(context.Document), context.Options.LinkBase)));
 }

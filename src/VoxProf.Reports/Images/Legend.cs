@@ -7,71 +7,86 @@ namespace VoxProf.Reports.Images;
 public readonly record struct LegendTick(double Position, string Label);
 
 /// <summary>
-/// Draws the legend band under a heatmap: a colour bar across the width, tick marks, and labels in the pixel font.
-/// Used by the cost heatmaps (sequential ramp) and by compare's difference heatmaps (diverging ramp).
+/// The legend band under a heatmap: a colour bar across the width, tick marks, and labels in the pixel font. Used by
+/// the cost heatmaps (sequential ramp) and by compare's difference heatmaps (diverging ramp). Sizes are in font
+/// pixels, so the band grows with the font.
 /// </summary>
 public static class Legend
 {
-    public const int FontScale = 2;
-    public const int Margin = 8;
-    public const int BarTop = 6;
-    public const int BarHeight = 12;
-    public const int TickLength = 3;
-    public const int LabelTop = BarTop + BarHeight + TickLength + 2;
+    public const int Margin = 4;
+    public const int BarTop = 3;
+    public const int BarHeight = 6;
+    public const int TickLength = 2;
+    public const int LabelTop = BarTop + BarHeight + TickLength + 1;
+    public const int BottomPadding = 3;
 
-    /// <summary>Height of the band in pixels.</summary>
-    public const int Height = LabelTop + PixelFont.GlyphHeight * FontScale + 6;
+    /// <summary>Prefix of an end label whose value clips: every value beyond it takes the end colour.</summary>
+    public const string AtLeast = "≥", AtMost = "≤";
 
-    public static readonly Rgba32 Background = new(24, 24, 28, 255);
     public static readonly Rgba32 Ink = new(235, 235, 235, 255);
 
+    /// <summary>Height of the band in image pixels at font scale <paramref name="scale"/>.</summary>
+    public static int Height(int scale) => (LabelTop + PixelFont.CapHeight + BottomPadding) * scale;
+
     /// <summary>Left and right end (inclusive) of the bar for an image of this width.</summary>
-    public static (int Left, int Right) BarSpan(int imageWidth)
+    public static (int Left, int Right) BarSpan(int imageWidth, int scale)
     {
-        int margin = imageWidth > 4 * Margin ? Margin : 0;
-        return (margin, Math.Max(margin, imageWidth - 1 - margin));
+        int margin = Margin * scale;
+        return imageWidth > 4 * margin ? (margin, imageWidth - 1 - margin) : (0, Math.Max(0, imageWidth - 1));
     }
 
     /// <summary>The bar pixel column that shows <paramref name="position"/>.</summary>
-    public static int BarX(int imageWidth, double position)
+    public static int BarX(int imageWidth, int scale, double position)
     {
-        var (left, right) = BarSpan(imageWidth);
+        var (left, right) = BarSpan(imageWidth, scale);
         return left + (int)Math.Round(Math.Clamp(position, 0, 1) * (right - left));
+    }
+
+    /// <summary>Where a label's left edge goes: flush with the bar at either end, centred on its tick inside.</summary>
+    public static int LabelX(int imageWidth, int scale, LegendTick tick)
+    {
+        var (left, right) = BarSpan(imageWidth, scale);
+        int w = PixelFont.MeasureWidth(tick.Label, scale);
+        int x = tick.Position <= 0 ? left : tick.Position >= 1 ? right + 1 - w : BarX(imageWidth, scale, tick.Position) - w / 2;
+        return Math.Clamp(x, 0, Math.Max(0, imageWidth - w));
     }
 
     /// <summary>
     /// Fills rows [<paramref name="top"/>, top + <see cref="Height"/>) of <paramref name="image"/>.
-    /// <paramref name="colourAt"/> gives the colour at a bar position in [0, 1]. Labels that would overlap the one
-    /// before, or leave the image, are left out; tick marks are always drawn.
+    /// <paramref name="colourAt"/> gives the colour at a bar position in [0, 1]. The two end labels are drawn first
+    /// and always, inside the image; a label inside that would touch a label already drawn is left out (its tick
+    /// mark stays).
     /// </summary>
-    public static void Draw(Image<Rgba32> image, int top, Func<double, Rgba32> colourAt, IReadOnlyList<LegendTick> ticks)
+    public static void Draw(Image<Rgba32> image, int top, int scale, Func<double, Rgba32> colourAt, IReadOnlyList<LegendTick> ticks)
     {
         int width = image.Width;
-        for (int y = top; y < Math.Min(image.Height, top + Height); y++)
-            for (int x = 0; x < width; x++)
-                image[x, y] = Background;
-
-        var (left, right) = BarSpan(width);
+        var (left, right) = BarSpan(width, scale);
+        int barTop = top + BarTop * scale, barBottom = Math.Min(image.Height, barTop + BarHeight * scale);
         for (int x = left; x <= right; x++)
         {
-            double position = right == left ? 0 : (x - left) / (double)(right - left);
-            Rgba32 c = colourAt(position);
-            for (int y = top + BarTop; y < top + BarTop + BarHeight && y < image.Height; y++)
+            Rgba32 c = colourAt(right == left ? 0 : (x - left) / (double)(right - left));
+            for (int y = barTop; y < barBottom; y++)
                 image[x, y] = c;
         }
 
-        int lastLabelEnd = int.MinValue;
-        foreach (LegendTick tick in ticks)
+        var placed = new List<(int Left, int Right)>();
+        foreach (LegendTick tick in ticks.OrderBy(t => t.Position is <= 0 or >= 1 ? 0 : 1))
         {
-            int tx = BarX(width, tick.Position);
-            for (int y = top + BarTop + BarHeight; y < top + BarTop + BarHeight + TickLength && y < image.Height; y++)
-                image[tx, y] = Ink;
-            int w = PixelFont.MeasureWidth(tick.Label, FontScale);
-            int lx = Math.Clamp(tx - w / 2, 0, Math.Max(0, width - w));
-            if (lx <= lastLabelEnd + FontScale * 2 || lx + w > width)
+            int tx = BarX(width, scale, tick.Position);
+            for (int y = barBottom; y < Math.Min(image.Height, barBottom + TickLength * scale); y++)
+                for (int x = tx; x < Math.Min(width, tx + Math.Max(1, scale / 2)); x++)
+                    image[x, y] = Ink;
+            int lx = LabelX(width, scale, tick);
+            int rx = lx + PixelFont.MeasureWidth(tick.Label, scale);
+            int gap = 2 * PixelFont.Advance * scale;
+            if (rx > width || placed.Any(p => lx < p.Right + gap && rx + gap > p.Left))
                 continue;
-            PixelFont.Draw(image, lx, top + LabelTop, tick.Label, Ink, FontScale);
-            lastLabelEnd = lx + w;
+            PixelFont.Draw(image, lx, top + LabelTop * scale, tick.Label, Ink, scale);
+            placed.Add((lx, rx));
         }
     }
+
+    /// <summary>How many labels of about <paramref name="labelChars"/> characters the bar has room for.</summary>
+    public static int TickRoom(int imageWidth, int scale, int labelChars = 5) =>
+        Math.Clamp(imageWidth / ((labelChars + 3) * PixelFont.Advance * scale), 2, 11);
 }

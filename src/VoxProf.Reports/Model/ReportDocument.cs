@@ -1,10 +1,14 @@
+using System.Text.Json.Serialization;
+using VoxProf.Reports.Calibration;
+using VoxProf.Reports.Metrics;
+
 namespace VoxProf.Reports.Model;
 
 // report.json, as written by `trace` and read by `compare`. Counts are deterministic; everything that is not
 // (timings, thread count) lives in Timings so two reports can be compared field by field without it.
-// Bump SchemaVersion on any change a reader must know about. Members added after schema 1 are init-only
-// properties with defaults, so the positional constructors stay as they were.
+// Bump SchemaVersion on any change a reader must know about.
 
+/// <param name="Metrics">Every metric the strategies' values are keyed by, in report order (docs/reports.md).</param>
 public sealed record ReportDocument(
     int SchemaVersion,
     string ToolVersion,
@@ -12,14 +16,29 @@ public sealed record ReportDocument(
     TreeInfo Tree,
     CameraInfo Camera,
     RunInfo Run,
+    IReadOnlyList<MetricDescriptor> Metrics,
     IReadOnlyList<StrategyReport> Strategies,
     EnvironmentInfo Environment,
     TimingInfo Timings)
 {
-    public const int CurrentSchema = 1;
+    /// <summary>2: one metric list keyed by name (schema 1 had a record per counter and per lockstep group).</summary>
+    public const int CurrentSchema = 2;
 
     /// <summary>Reasons the numbers may mislead (a Debug build, say); empty when there are none.</summary>
     public IReadOnlyList<string> Warnings { get; init; } = [];
+
+    /// <summary>The git commit the tool was built from, or "unknown".</summary>
+    public string ToolCommit { get; init; } = "unknown";
+
+    /// <summary>Files of the whole run (report.json, summaries, preview, report.html); each strategy lists its own.</summary>
+    public IReadOnlyList<string> Files { get; init; } = [];
+
+    /// <summary>The command's arguments (the program name left out), so a reader can run the same trace again.</summary>
+    public IReadOnlyList<string> CommandLine { get; init; } = [];
+
+    /// <summary>The calibration predicted-ms comes from (trace --calibration); left out of the file without one.</summary>
+    [JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)]
+    public CalibrationInfo? Calibration { get; init; }
 }
 
 public sealed record SceneInfo(string Name, string? File, string? Sha256, int[] Extent);
@@ -31,12 +50,12 @@ public sealed record TreeInfo(int Branching, int Depth, long Nodes, long SolidVo
 
 public sealed record CameraInfo(string Name, float[] Eye, float[] Target, float[] Up, float FovDegrees);
 
-/// <param name="Counters">Every counter measured (each strategy reports statistics for all of them).</param>
+/// <param name="Counters">Every counter measured (each strategy reports metrics of all of them).</param>
 public sealed record RunInfo(int Width, int Height, int PrepassBlock, string[] Strategies, string[] Counters)
 {
     public int Branching { get; init; }
 
-    /// <summary>Heatmaps drawn: counter names, and "wave32"/"wave64" for the per-tile maximum maps.</summary>
+    /// <summary>Heatmaps drawn: counter names, and subgroup names for the per-tile maximum maps.</summary>
     public string[] Heatmaps { get; init; } = [];
 
     /// <summary>"linear" or "log".</summary>
@@ -47,32 +66,32 @@ public sealed record RunInfo(int Width, int Height, int PrepassBlock, string[] S
 
     public double? RangeMax { get; init; }
 
-    /// <summary>The strategy summary.md is relative to (the --baseline one, or the slowest by wave32 mean tile max).</summary>
+    /// <summary>The strategy summary.md's ratios are relative to (the --baseline one, or the first tree strategy traced).</summary>
     public string? Baseline { get; init; }
+
+    /// <summary>The subgroup sizes modelled, with their tiles over this image.</summary>
+    public IReadOnlyList<SubgroupInfo> Subgroups { get; init; } = [];
+
+    /// <summary>The range each heatmap was drawn with (fixed, or the one chosen from the data), one per strategy and map.</summary>
+    public IReadOnlyList<HeatmapRange> HeatmapRanges { get; init; } = [];
+
+    /// <summary>Whether pixels-STRATEGY.bin.gz files were written (false with --no-pixels); absent in older reports, so true.</summary>
+    public bool PixelData { get; init; } = true;
 }
 
+/// <summary>The scale one heatmap image was drawn with: values at or above <paramref name="Max"/> take the top colour.</summary>
+/// <param name="Scale">"linear" or "log".</param>
+public sealed record HeatmapRange(string Strategy, string Map, string File, string Scale, double Min, double Max);
+
+/// <summary>A subgroup size laid over the image: <paramref name="Tiles"/> tiles of TileWidth × TileHeight pixels, partial edge tiles included.</summary>
+public sealed record SubgroupInfo(string Name, int Lanes, int TileWidth, int TileHeight, int Tiles);
+
+/// <param name="Values">Every metric's value by metric name; null where nothing was measured (mismatch without grid).</param>
 /// <param name="Files">Files written for this strategy, relative to the report directory.</param>
-public sealed record StrategyReport(
-    string Name,
-    double HitRate,
-    long MismatchPixels,
-    IReadOnlyList<CounterStats> Counters,
-    IReadOnlyList<WaveStats> Waves,
-    IReadOnlyList<string> Files);
-
-/// <summary>Percentiles follow Hyndman &amp; Fan (1996) definition 7.</summary>
-public sealed record CounterStats(string Counter, long Total, double Mean, double P50, double P90, double P99, long Max)
+public sealed record StrategyReport(string Name, IReadOnlyDictionary<string, double?> Values, IReadOnlyList<string> Files)
 {
-    public string Unit { get; init; } = "count";
-}
-
-/// <summary>Lockstep-group statistics of loop iterations for one group size (see docs/reports.md).</summary>
-public sealed record WaveStats(int Lanes, int TileWidth, int TileHeight, int Tiles, double MeanTileMax, double SimdEfficiency)
-{
-    public long MaxTileMax { get; init; }
-
-    /// <summary>"wave32" or "wave64": the name used in summary.csv and heatmap file names.</summary>
-    public string Name => $"wave{Lanes}";
+    /// <summary>The metric's value; null when the strategy has none or nothing was measured.</summary>
+    public double? Value(string metric) => Values.TryGetValue(metric, out double? v) ? v : null;
 }
 
 public sealed record EnvironmentInfo(string Runtime, int ProcessorCount, string Configuration, string Os);

@@ -4,52 +4,30 @@ using CsvHelper;
 namespace VoxProf.Reports.Tables;
 
 /// <summary>
-/// Renders a <see cref="MetricTable"/> as summary.csv (RFC 4180, via CsvHelper): one record per strategy and group
-/// (a counter or a wave size), with the statistics of that group in their columns, empty where they do not apply,
-/// and the per-strategy facts repeated on every record of the strategy. "_hf7" marks Hyndman &amp; Fan definition 7.
+/// Renders a <see cref="MetricTable"/> as summary.csv (RFC 4180, via CsvHelper): one record per strategy, one column
+/// per metric named exactly as in report.json and gate rules, empty where nothing was measured.
 /// </summary>
 public static class SummaryCsv
 {
-    public static IReadOnlyList<string> Columns(MetricTable table) =>
-        ["strategy", "measure", "unit", .. table.Metrics.Select(m => m.Statistic).Distinct()];
+    public const string StrategyColumn = "strategy";
+
+    public static IReadOnlyList<string> Columns(MetricTable table) => [StrategyColumn, .. table.Metrics.Select(m => m.Name)];
 
     public static void Write(MetricTable table, TextWriter writer)
     {
-        IReadOnlyList<string> columns = Columns(table);
         using var csv = CsvWriter.Create(writer, null, leaveOpen: true);
-        csv.WriteHeader(columns.ToArray());
-        var perStrategy = Enumerable.Range(0, table.Metrics.Count).Where(m => table.Metrics[m].Group == MetricTable.StrategyGroup).ToList();
+        csv.WriteHeader(Columns(table).ToArray());
         for (int r = 0; r < table.Rows.Count; r++)
         {
-            foreach (var (group, unit) in table.Groups)
-            {
-                if (group == MetricTable.StrategyGroup)
-                    continue;
-                var fields = new string[columns.Count];
-                fields[0] = table.Rows[r];
-                fields[1] = group;
-                fields[2] = unit;
-                for (int m = 0; m < table.Metrics.Count; m++)
-                {
-                    if (table.Metrics[m].Group == group || perStrategy.Contains(m))
-                        fields[IndexOf(columns, table.Metrics[m].Statistic)] = Number(table[r, m]);
-                }
-                csv.WriteRecord(fields);
-            }
+            var fields = new string[table.Metrics.Count + 1];
+            fields[0] = table.Rows[r];
+            for (int m = 0; m < table.Metrics.Count; m++)
+                fields[m + 1] = Number(table[r, m]);
+            csv.WriteRecord(fields);
         }
         csv.Flush();
     }
 
-    /// <summary>Shortest text that parses back to the same double; empty for a missing value.</summary>
-    public static string Number(double v) => double.IsNaN(v) ? "" : v.ToString("R", CultureInfo.InvariantCulture);
-
-    private static int IndexOf(IReadOnlyList<string> columns, string name)
-    {
-        for (int i = 0; i < columns.Count; i++)
-        {
-            if (columns[i] == name)
-                return i;
-        }
-        throw new InvalidOperationException($"no column {name}");
-    }
+    /// <summary>Shortest text that parses back to the same double; empty for a value that was not measured.</summary>
+    public static string Number(double? v) => v is { } x ? x.ToString("R", CultureInfo.InvariantCulture) : "";
 }

@@ -1,26 +1,18 @@
 using System.Globalization;
 using System.Text;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Reports.Tables;
 
 /// <summary>
-/// Renders summary.md: strategies as rows, key metrics of the <see cref="MetricTable"/> as columns, each cost shown
-/// with its ratio to the baseline strategy, and relative links to every strategy's images.
+/// Renders summary.md: strategies as rows, the <see cref="MetricColumns.Summary"/> metrics of the
+/// <see cref="MetricTable"/> as columns named as in summary.csv and gate rules, each cost with its ratio to the
+/// baseline strategy, links to every strategy's images (relative, or under --link-base), and what each column means.
 /// </summary>
 public static class SummaryMarkdown
 {
-    /// <summary>Columns shown, by metric id; ids missing from the table are skipped.</summary>
-    public static IReadOnlyList<string> KeyMetrics { get; } =
-    [
-        "iterations.mean", "iterations.p90_hf7",
-        "wave32.mean_tile_max", "wave32.simd_efficiency",
-        "wave64.mean_tile_max", "wave64.simd_efficiency",
-        "node-fetches.mean", "slab-tests.mean", "cell-steps.mean",
-        "strategy.hit_rate", "strategy.mismatch_pixels",
-    ];
-
-    public static string Render(ReportDocument report, MetricTable table)
+    public static string Render(ReportDocument report, MetricTable table, Uri? linkBase = null)
     {
         var sb = new StringBuilder();
         var run = report.Run;
@@ -29,19 +21,21 @@ public static class SummaryMarkdown
 
         sb.Append(CultureInfo.InvariantCulture, $"# VoxProf trace: {Escape(report.Scene.Name)} / {Escape(report.Camera.Name)}\n\n");
         sb.Append(CultureInfo.InvariantCulture,
-            $"{run.Width}×{run.Height} pixels, branching {run.Branching}, prepass {(run.PrepassBlock == 0 ? "off" : run.PrepassBlock.ToString(CultureInfo.InvariantCulture))}, VoxProf {Escape(report.ToolVersion)} ({Escape(report.Environment.Configuration)} build).\n\n");
+            $"{run.Width}×{run.Height} pixels, branching {run.Branching}, prepass {(run.PrepassBlock == 0 ? "off" : run.PrepassBlock.ToString(CultureInfo.InvariantCulture))}, VoxProf {Escape(report.ToolVersion)} (commit {Escape(ShortCommit(report.ToolCommit))}, {Escape(report.Environment.Configuration)} build).\n\n");
         foreach (string w in report.Warnings)
             sb.Append(CultureInfo.InvariantCulture, $"> **Warning:** {Escape(w)}\n\n");
         sb.Append(CultureInfo.InvariantCulture,
-            $"Figures are per pixel; `×` is the ratio to **{Escape(baseline)}** (below 1 is less work; for SIMD efficiency, above 1 is better). ");
-        sb.Append("Percentiles: Hyndman & Fan (1996) definition 7. wave32 = 8×4 pixel tiles, wave64 = 8×8.\n\n");
+            $"`×` is the ratio to **{Escape(baseline)}** (below 1 is less work; for SIMD efficiency, above 1 is better). ");
+        sb.Append("Total work includes each pixel's share of the prepass's. ");
+        sb.Append("Column names are the metric names of summary.csv, report.json and `voxprof compare` rules; summary.csv has every metric.\n\n");
 
-        var columns = KeyMetrics.Select(table.IndexOf).Where(i => i >= 0).ToList();
+        var columns = MetricColumns.For(MetricColumns.Summary, run.PrepassBlock > 0)
+            .Select(c => (Column: c, Index: table.IndexOf(c.Metric))).Where(c => c.Index >= 0).ToList();
         sb.Append("| strategy |");
-        foreach (int m in columns)
-            sb.Append(' ').Append(Escape(table.Metrics[m].Title)).Append(" |");
+        foreach (var (c, _) in columns)
+            sb.Append(" `").Append(c.Metric).Append("` |");
         sb.Append(" images |\n|---|");
-        foreach (int _ in columns)
+        foreach (var _ in columns)
             sb.Append("---:|");
         sb.Append("---|\n");
 
@@ -49,39 +43,37 @@ public static class SummaryMarkdown
         {
             string name = table.Rows[r];
             sb.Append("| ").Append(Escape(name)).Append(r == baseRow ? " (baseline)" : "").Append(" |");
-            foreach (int m in columns)
-                sb.Append(' ').Append(Cell(table, r, m, baseRow)).Append(" |");
+            foreach (var (c, m) in columns)
+                sb.Append(' ').Append(table.Text(r, m, baseRow, c.Ratio)).Append(" |");
             var strategy = report.Strategies.FirstOrDefault(s => s.Name == name);
-            sb.Append(' ').Append(strategy is null ? "" : Links(strategy)).Append(" |\n");
+            sb.Append(' ').Append(strategy is null ? "" : Links(strategy, linkBase)).Append(" |\n");
         }
+
+        sb.Append('\n');
+        foreach (var (c, m) in columns)
+        {
+            MetricDescriptor d = table.Metrics[m];
+            sb.Append(CultureInfo.InvariantCulture, $"- `{d.Name}`: {Escape(d.Title)} ({Escape(d.Unit)}).\n");
+        }
+        sb.Append("- Percentiles: Hyndman & Fan (1996) definition 7. SIMD efficiency: Aila & Laine (2009).\n");
+        if (report.Files.Contains(OutputNames.ReportHtml))
+            sb.Append(CultureInfo.InvariantCulture, $"\nEvery heatmap, with a per-pixel readout: [{OutputNames.ReportHtml}]({ReportLinks.Href(linkBase, OutputNames.ReportHtml)}).\n");
         return sb.ToString();
     }
 
-    private static string Cell(MetricTable table, int row, int metric, int baseRow)
-    {
-        MetricDescriptor d = table.Metrics[metric];
-        double v = table[row, metric];
-        if (double.IsNaN(v))
-            return "";
-        string text = v.ToString(d.Format, CultureInfo.InvariantCulture);
-        if (d.LowerIsBetter is null || baseRow < 0)
-            return text;
-        double b = table[baseRow, metric];
-        if (!(b > 0))
-            return text;
-        return text + " ×" + (v / b).ToString("0.00", CultureInfo.InvariantCulture);
-    }
+    /// <summary>The first 12 hex digits: enough to find the commit, short enough for a line of text.</summary>
+    public static string ShortCommit(string commit) => commit.Length > 12 && commit.All(char.IsAsciiHexDigit) ? commit[..12] : commit;
 
-    private static string Links(StrategyReport s)
+    private static string Links(StrategyReport s, Uri? linkBase)
     {
         string prefix = $"heatmap-{s.Name}-";
         var links = new List<string>();
         foreach (string f in s.Files)
         {
             if (f.StartsWith(prefix, StringComparison.Ordinal) && f.EndsWith(".png", StringComparison.Ordinal))
-                links.Add($"[{Escape(f[prefix.Length..^4])}]({f})");
+                links.Add($"[{Escape(f[prefix.Length..^4])}]({ReportLinks.Href(linkBase, f)})");
             else if (f.StartsWith("mismatch-", StringComparison.Ordinal))
-                links.Add($"[mismatch]({f})");
+                links.Add($"[mismatch]({ReportLinks.Href(linkBase, f)})");
         }
         return string.Join(" · ", links);
     }

@@ -12,7 +12,7 @@ public class CompareSnapshotTests
         var b = ReportFixtures.Standard();
         var c = ReportFixtures.Standard(1.1) with { Scene = b.Scene with { Sha256 = "99ff" } };
         var cmp = ReportComparison.Create(new("base/report.json", b), new("candidate/report.json", c));
-        var verdict = GateRules.Evaluate(cmp, GateRules.Parse(["dda.iterations.mean:5%", "all.wave32.tile-max:20%"]));
+        var verdict = GateRules.Evaluate(cmp, GateRules.Parse(["dda.iterations.mean:5%", "all.subgroup32.tile-max-mean:20%"]));
         return new CompareResult(cmp, verdict) { DiffImages = ["diff-dda-iterations.png"] };
     }
 

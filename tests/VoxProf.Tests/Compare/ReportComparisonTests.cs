@@ -1,5 +1,6 @@
 using VoxProf.Core;
 using VoxProf.Reports.Compare;
+using VoxProf.Reports.Metrics;
 using VoxProf.Reports.Model;
 
 namespace VoxProf.Tests.Compare;
@@ -15,8 +16,8 @@ public class ReportComparisonTests
 
         var cmp = ReportComparison.Create(Loaded(doc), Loaded(doc));
 
-        // 3 strategies x (2 counters x 6 statistics + 2 wave groups x 2 statistics)
-        cmp.Changes.Should().HaveCount(3 * (12 + 4));
+        // 3 strategies x (2 counters x 6 statistics + 2 subgroup sizes x 3 statistics + hit rate + mismatch)
+        cmp.Changes.Should().HaveCount(3 * (12 + 6 + 2));
         cmp.Changes.Should().OnlyContain(c => c.Change == 0 && c.RelativeChange == 0 && !c.IsRegression);
         cmp.SceneChanged.Should().BeFalse();
         cmp.Notes.Should().BeEmpty();
@@ -27,7 +28,7 @@ public class ReportComparisonTests
     {
         // Relative change (x - x0) / |x0|, the usual definition (Törnqvist, Vartia & Vartia 1985,
         // "How should relative changes be measured?", The American Statistician 39(1)).
-        var change = new MetricChange("dda", new MetricDescriptor("iterations", "mean", "count", true, "0.###"), 8, 10);
+        var change = new MetricChange("dda", new MetricDescriptor("iterations.mean", "mean", "count", "0.00", Better.Lower), 8, 10);
         change.Change.Should().Be(2);
         change.RelativeChange.Should().Be(0.25);
 
@@ -81,8 +82,8 @@ public class ReportComparisonTests
 
         cmp.Changes[0].Strategy.Should().Be("hdda");
         cmp.Changes.Select(c => c.RelativeWorsening).Should().BeInDescendingOrder();
-        var hddaMean = cmp.Changes.Single(c => c.Strategy == "hdda" && c.Metric.Key == "iterations.mean");
-        var ddaMean = cmp.Changes.Single(c => c.Strategy == "dda" && c.Metric.Key == "iterations.mean");
+        var hddaMean = cmp.Changes.Single(c => c.Strategy == "hdda" && c.Metric.Name == "iterations.mean");
+        var ddaMean = cmp.Changes.Single(c => c.Strategy == "dda" && c.Metric.Name == "iterations.mean");
         cmp.Changes.ToList().IndexOf(hddaMean).Should().BeLessThan(cmp.Changes.ToList().IndexOf(ddaMean));
         hddaMean.RelativeChange.Should().BeApproximately(0.3, 1e-12);
     }
@@ -95,14 +96,14 @@ public class ReportComparisonTests
 
         var cmp = ReportComparison.Create(Loaded(a), Loaded(b));
 
-        var efficiency = cmp.Changes.Single(c => c.Metric.Key == "wave32.efficiency");
+        var efficiency = cmp.Changes.Single(c => c.Metric.Name == "subgroup32.simd-efficiency");
         efficiency.IsRegression.Should().BeTrue();
         efficiency.RelativeWorsening.Should().BeApproximately(0.2, 1e-12);
-        cmp.Changes.Single(c => c.Metric.Key == "wave32.tile-max").IsRegression.Should().BeFalse();
-        cmp.Changes.Single(c => c.Metric.Key == "iterations.mean").IsRegression.Should().BeFalse();
-        cmp.Changes.Where(c => c.IsRegression).Should().OnlyContain(c => c.Metric.Group.StartsWith("wave"));
-        // wave64 falls 0.45 -> 0.36: the same 20%, so the tie keeps the report order and wave32 leads.
-        cmp.Changes.Take(2).Select(c => c.Metric.Key).Should().Equal("wave32.efficiency", "wave64.efficiency");
+        cmp.Changes.Single(c => c.Metric.Name == "subgroup32.tile-max-mean").IsRegression.Should().BeFalse();
+        cmp.Changes.Single(c => c.Metric.Name == "iterations.mean").IsRegression.Should().BeFalse();
+        cmp.Changes.Where(c => c.IsRegression).Should().OnlyContain(c => c.Metric.Statistic == "simd-efficiency");
+        // subgroup64 falls 0.45 -> 0.36: the same 20%, so the tie keeps the report order and subgroup32 leads.
+        cmp.Changes.Take(2).Select(c => c.Metric.Name).Should().Equal("subgroup32.simd-efficiency", "subgroup64.simd-efficiency");
     }
 
     [Fact]
@@ -113,14 +114,14 @@ public class ReportComparisonTests
 
         var regressions = cmp.Changes.Where(c => c.IsRegression).ToArray();
         regressions.Select(c => c.Strategy).Should().StartWith(Enumerable.Repeat("grid", 12), "grid has 10 counter statistics and 2 tile maxima that rise; its maxima stay at 100");
-        regressions.Take(3).Select(c => c.Metric.Key).Should().Equal("iterations.total", "iterations.mean", "iterations.p50");
+        regressions.Take(3).Select(c => c.Metric.Name).Should().Equal("iterations.total", "iterations.mean", "iterations.p50");
     }
 
     [Fact]
     public void A_cost_that_appears_from_zero_sorts_before_any_finite_regression()
     {
-        var a = ReportFixtures.Report(ReportFixtures.Strategy("dda", 10) with { Counters = [ReportFixtures.Counter("iterations", 10), new("ascents", 0, 0, 0, 0, 0, 0)] });
-        var b = ReportFixtures.Report(ReportFixtures.Strategy("dda", 20) with { Counters = [ReportFixtures.Counter("iterations", 20), new("ascents", 5, 0.005, 0, 0, 0, 1)] });
+        var a = ReportFixtures.Report(ReportFixtures.Make("dda", ReportFixtures.Counter("iterations", 10), ReportFixtures.Counter("ascents", 0, max: 0)));
+        var b = ReportFixtures.Report(ReportFixtures.Make("dda", ReportFixtures.Counter("iterations", 20), ReportFixtures.Counter("ascents", 0.005, max: 1)));
 
         var cmp = ReportComparison.Create(Loaded(a), Loaded(b));
 
@@ -141,5 +142,29 @@ public class ReportComparisonTests
         cmp.Changes.Should().OnlyContain(c => c.Strategy == "dda");
         cmp.Notes.Should().Contain(n => n.Contains("only in base") && n.Contains("grid"))
             .And.Contain(n => n.Contains("only in candidate") && n.Contains("hdda"));
+    }
+
+    [Fact]
+    public void A_metric_in_one_report_only_is_noted_and_left_out()
+    {
+        var a = ReportFixtures.Report(ReportFixtures.Strategy("dda", 10));
+        var b = ReportFixtures.Report(ReportFixtures.Strategy("dda", 10).With(ReportFixtures.Counter("ascents", 1)));
+
+        var cmp = ReportComparison.Create(Loaded(a), Loaded(b));
+
+        cmp.Changes.Should().NotContain(c => c.Metric.Group == "ascents");
+        cmp.Notes.Should().ContainSingle(n => n.StartsWith("not compared, present in one report only: ascents.total (candidate only)", StringComparison.Ordinal));
+    }
+
+    [Fact]
+    public void A_metric_whose_direction_changed_is_not_compared()
+    {
+        var a = ReportFixtures.Standard();
+        var b = a with { Metrics = a.Metrics.Select(m => m.Name == "iterations.mean" ? m with { Better = Better.Higher } : m).ToArray() };
+
+        var cmp = ReportComparison.Create(Loaded(a), Loaded(b));
+
+        cmp.Changes.Should().NotContain(c => c.Metric.Name == "iterations.mean");
+        cmp.Notes.Should().Contain(n => n.StartsWith("iterations.mean not compared: base measures it in count (lower is better), candidate in count (higher is better)", StringComparison.Ordinal));
     }
 }

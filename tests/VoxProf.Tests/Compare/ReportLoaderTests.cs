@@ -17,8 +17,9 @@ public class ReportLoaderTests
 
         fromDir.File.Should().Be(fromFile.File);
         fromDir.Document.Strategies.Select(s => s.Name).Should().Equal("grid", "dda", "dda-mask");
-        fromDir.Document.Strategies[1].Counters[0].Mean.Should().Be(12);
-        fromDir.Document.Strategies[2].Waves[0].SimdEfficiency.Should().Be(0.45);
+        fromDir.Document.Strategies[1].Value("iterations.mean").Should().Be(12);
+        fromDir.Document.Strategies[2].Value("subgroup32.simd-efficiency").Should().Be(0.45);
+        fromDir.Document.Metrics.Should().BeEquivalentTo(ReportFixtures.Standard().Metrics, o => o.WithStrictOrdering());
     }
 
     [Fact]
@@ -59,15 +60,54 @@ public class ReportLoaderTests
         ex.Message.Should().NotContain("\n");
     }
 
-    [Fact]
-    public void An_unknown_schema_version_is_refused_with_the_version_read()
+    [Theory]
+    [InlineData(9, "a newer")]
+    [InlineData(1, "an older")]
+    public void A_report_of_another_schema_is_refused_with_both_versions(int version, string age)
     {
         using var tmp = new TempDir();
-        var dir = ReportFixtures.Write(tmp, "base", ReportFixtures.Standard() with { SchemaVersion = 9 });
+        var dir = ReportFixtures.Write(tmp, "base", ReportFixtures.Standard() with { SchemaVersion = version });
 
         var ex = Assert.Throws<InputException>(() => ReportLoader.Load(dir));
 
-        ex.Message.Should().Contain("schema 9").And.Contain($"reads schema 1..{ReportDocument.CurrentSchema}");
+        ex.Message.Should().Be($"{Path.Combine(dir, "report.json")}: $.schemaVersion: report schema {version} (written by {age} voxprof) " +
+            $"is not read by this voxprof, which reads schema {ReportDocument.CurrentSchema} only; trace both runs with one voxprof version");
+    }
+
+    [Fact]
+    public void A_written_report_round_trips_through_the_loader_to_an_equal_document()
+    {
+        using var tmp = new TempDir();
+        var doc = ReportFixtures.Report([.. ReportFixtures.Standard().Strategies, ReportFixtures.Strategy("hdda", 9).With(ReportFixtures.Facts(mismatch: null))]);
+        var dir = ReportFixtures.Write(tmp, "base", doc);
+
+        var back = ReportLoader.Load(dir).Document;
+
+        back.Should().BeEquivalentTo(doc);
+        back.Strategies[^1].Value("mismatch").Should().BeNull("a mismatch that was not checked stays null, not 0");
+        ReportJson.Serialize(back).Should().Be(ReportJson.Serialize(doc));
+    }
+
+    [Theory]
+    [InlineData("\"name\": \"iterations.mean\"", "\"name\": \"Iterations Mean\"", "$.metrics[1].name: 'Iterations Mean' is not a metric name")]
+    [InlineData("\"name\": \"iterations.p50\"", "\"name\": \"iterations.mean\"", "$.metrics[2].name: metric 'iterations.mean' appears twice")]
+    [InlineData("\"numberFormat\": \"0.00\"", "\"numberFormat\": \"{0}\"", "$.metrics[1].numberFormat: '{0}' is not a number format")]
+    [InlineData("\"better\": \"higher\"", "\"better\": \"up\"", "expected lower, higher or neutral")]
+    [InlineData("\"hit-rate\": 0.75", "\"hitrate\": 0.75", "$.strategies[0].values: 'hitrate' is not in $.metrics")]
+    public void A_bad_metric_list_or_value_key_is_refused_naming_its_place(string find, string replace, string message)
+    {
+        using var tmp = new TempDir();
+        var dir = ReportFixtures.Write(tmp, "base", ReportFixtures.Standard());
+        var file = Path.Combine(dir, "report.json");
+        var text = File.ReadAllText(file);
+        int at = text.IndexOf(find, StringComparison.Ordinal);
+        at.Should().BeGreaterThan(0);
+        File.WriteAllText(file, text[..at] + replace + text[(at + find.Length)..]);
+
+        var ex = Assert.Throws<InputException>(() => ReportLoader.Load(file));
+
+        ex.Message.Should().StartWith(file + ": ").And.Contain(message);
+        ex.Message.Should().NotContain("\n");
     }
 
     [Fact]
@@ -90,12 +130,12 @@ public class ReportLoaderTests
         using var tmp = new TempDir();
         var file = Path.Combine(tmp.Path, "report.json");
         var node = System.Text.Json.Nodes.JsonNode.Parse(ReportJson.Serialize(ReportFixtures.Standard()))!;
-        node["strategies"]![0]!["counters"] = null;
+        node["strategies"]![0]!["files"] = null;
         File.WriteAllText(file, node.ToJsonString());
 
         var ex = Assert.Throws<InputException>(() => ReportLoader.Load(file));
 
-        ex.Message.Should().Contain("$.strategies[0].counters").And.Contain("expected a value, found null");
+        ex.Message.Should().Contain("$.strategies[0].files").And.Contain("expected a value, found null");
     }
 
     [Fact]

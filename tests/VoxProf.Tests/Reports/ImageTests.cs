@@ -1,8 +1,5 @@
 using SixLabors.ImageSharp;
-using SixLabors.ImageSharp.Formats.Png;
 using SixLabors.ImageSharp.PixelFormats;
-using StbImageSharp;
-using VoxProf.Core.Traversal;
 using VoxProf.Reports.Colour;
 using VoxProf.Reports.Images;
 
@@ -10,60 +7,93 @@ namespace VoxProf.Tests.Reports;
 
 public class ImageTests
 {
-    private static ImageResult Decode(Image<Rgba32> image)
-    {
-        using var ms = new MemoryStream();
-        Png.Save(image, ms);
-        // StbImageSharp is an independent PNG decoder, so this checks the encoded file, not ImageSharp's own view of it.
-        return ImageResult.FromMemory(ms.ToArray(), ColorComponents.RedGreenBlueAlpha);
-    }
-
-    private static Rgba32 At(ImageResult img, int x, int y)
-    {
-        int i = (y * img.Width + x) * 4;
-        return new Rgba32(img.Data[i], img.Data[i + 1], img.Data[i + 2], img.Data[i + 3]);
-    }
+    private static readonly ImageTitle Title = new(["quarry", "gate", "dda", "iterations"], ["iterations per pixel", "20x10"]);
 
     [Fact]
-    public void Heatmap_decodes_to_image_size_plus_legend_with_ramp_colours_at_known_costs()
+    public void Heatmap_picture_takes_the_ramp_colour_of_each_cost_and_clamps_above_the_range()
     {
         uint[] values = new uint[20 * 10];
-        values[0] = 0;
         values[5] = 50;
         values[19] = 100;
-        values[9 * 20 + 3] = 500; // beyond the range: clamped to the top colour
-        var scale = new HeatmapScale(ScaleKind.Linear, 0, 100);
-        using var image = HeatmapImage.Render(values, 20, 10, scale);
+        values[9 * 20 + 3] = 500;
+        using var image = HeatmapImage.Render(values, 20, 10, new HeatmapScale(ScaleKind.Linear, 0, 100), Title);
 
-        ImageResult png = Decode(image);
+        var png = PngPicture.Encode(image);
 
-        png.Width.Should().Be(20);
-        png.Height.Should().Be(10 + Legend.Height);
-        At(png, 0, 0).Should().Be(SequentialRamp.Map(0));
-        At(png, 5, 0).Should().Be(SequentialRamp.Map(0.5));
-        At(png, 19, 0).Should().Be(SequentialRamp.Map(1));
-        At(png, 3, 9).Should().Be(SequentialRamp.Map(1));
+        (png.Width, png.Height).Should().Be((20, 10));
+        png.Pixel(0, 0).Should().Be(SequentialRamp.Map(0));
+        png.Pixel(5, 0).Should().Be(SequentialRamp.Map(0.5));
+        png.Pixel(19, 0).Should().Be(SequentialRamp.Map(1));
+        png.Pixel(3, 9).Should().Be(SequentialRamp.Map(1), "500 is beyond the range and takes the top colour");
     }
 
     [Fact]
-    public void Legend_bar_runs_from_the_lowest_to_the_highest_ramp_colour_with_labels_below()
+    public void An_image_is_a_title_band_the_picture_and_a_legend_band_and_its_picture_chunk_says_where()
     {
-        uint[] values = new uint[200 * 4];
-        using var image = HeatmapImage.Render(values, 200, 4, new HeatmapScale(ScaleKind.Linear, 0, 1000));
+        using var image = HeatmapImage.Render(new uint[640 * 30], 640, 30, new HeatmapScale(ScaleKind.Linear, 0, 100), Title);
 
-        ImageResult png = Decode(image);
+        var png = PngPicture.Encode(image);
 
-        int barY = 4 + Legend.BarTop + Legend.BarHeight / 2;
-        var (left, right) = Legend.BarSpan(200);
-        At(png, left, barY).Should().Be(SequentialRamp.Map(0));
-        At(png, right, barY).Should().Be(SequentialRamp.Map(1));
-        At(png, 0, barY).Should().Be(Legend.Background);
-        // The "0" label's top row sits centred under the first tick; its top-left pixel is set.
-        int labelY = 4 + Legend.LabelTop;
-        int zeroLeft = left - PixelFont.MeasureWidth("0", Legend.FontScale) / 2;
-        At(png, zeroLeft, labelY).Should().Be(Legend.Ink);
-        // Somewhere on the label row a "1k" label for the top tick has been drawn.
-        Enumerable.Range(150, 50).Count(x => At(png, x, labelY + 1) == Legend.Ink).Should().BeGreaterThan(0);
+        int scale = ImageLayout.FontScaleFor(640);
+        scale.Should().Be(2);
+        // Two lines at 640 pixels: the heading, then unit, size and scale on one line of at most 52 characters.
+        int title = TitleBand.Height(2, scale);
+        (png.X, png.Y, png.Width, png.Height).Should().Be((0, title, 640, 30));
+        png.Image.Height.Should().Be(title + 30 + Legend.Height(scale));
+        png.At(0, 0).Should().Be(ImageLayout.Background);
+        png.At(0, title + 30).Should().Be(ImageLayout.Background, "the legend band starts under the picture");
+    }
+
+    [Fact]
+    public void A_narrow_picture_gets_an_image_wide_enough_for_its_title_and_legend()
+    {
+        using var image = HeatmapImage.Render(new uint[16 * 8], 16, 8, new HeatmapScale(ScaleKind.Linear, 0, 10), Title);
+
+        var png = PngPicture.Encode(image);
+
+        png.Image.Width.Should().Be(ImageLayout.MinWidth);
+        png.Width.Should().Be(16);
+        png.At(16, png.Y).Should().Be(ImageLayout.Background, "the picture is left-aligned; the rest of its rows is background");
+    }
+
+    [Fact]
+    public void Legend_bar_runs_from_the_lowest_to_the_highest_ramp_colour()
+    {
+        using var image = HeatmapImage.Render(new uint[400 * 4], 400, 4, new HeatmapScale(ScaleKind.Linear, 0, 1000), Title);
+
+        var png = PngPicture.Encode(image);
+
+        int scale = ImageLayout.FontScaleFor(400);
+        int barY = png.Y + png.Height + (Legend.BarTop + Legend.BarHeight / 2) * scale;
+        var (left, right) = Legend.BarSpan(400, scale);
+        png.At(left, barY).Should().Be(SequentialRamp.Map(0));
+        png.At(right, barY).Should().Be(SequentialRamp.Map(1));
+        png.At(0, barY).Should().Be(ImageLayout.Background);
+    }
+
+    [Fact]
+    public void The_top_label_is_the_top_of_the_scale_marked_at_least_when_values_clip()
+    {
+        uint[] values = new uint[400 * 4];
+        values[7] = 116;
+        using var clipped = HeatmapImage.Render(values, 400, 4, new HeatmapScale(ScaleKind.Linear, 0, 115), Title);
+        values[7] = 115;
+        using var within = HeatmapImage.Render(values, 400, 4, new HeatmapScale(ScaleKind.Linear, 0, 115), Title);
+
+        TopLabel(PngPicture.Encode(clipped), "≥115").Should().BeNull();
+        TopLabel(PngPicture.Encode(within), "115").Should().BeNull();
+        HeatmapImage.LegendTicks(new HeatmapScale(ScaleKind.Linear, 0, 115), new ScaleClip(0, 1, 1600), 6).Select(t => t.Label)
+            .Should().Equal("0", "≥115", "20", "40", "60", "80", "100");
+    }
+
+    // The right end label ends flush with the bar's right end, on the label row of the legend band.
+    private static string? TopLabel(PngPicture png, string text)
+    {
+        int scale = ImageLayout.FontScaleFor(png.Image.Width);
+        var (_, right) = Legend.BarSpan(png.Image.Width, scale);
+        int x = right + 1 - PixelFont.MeasureWidth(text, scale);
+        int y = png.Y + png.Height + Legend.LabelTop * scale;
+        return TextInPixels.Mismatch(png, x, y, text, Legend.Ink, ImageLayout.Background, scale);
     }
 
     [Fact]
@@ -77,108 +107,76 @@ public class ImageTests
         (scale.Fraction(99) - scale.Fraction(9)).Should().BeApproximately(scale.Fraction(9) - scale.Fraction(0), 1e-12);
     }
 
+    [Fact]
+    public void Wide_images_draw_the_font_larger()
+    {
+        ImageLayout.FontScaleFor(320).Should().Be(2);
+        ImageLayout.FontScaleFor(1280).Should().Be(2);
+        ImageLayout.FontScaleFor(1920).Should().Be(3);
+        ImageLayout.FontScaleFor(3840).Should().Be(6);
+        using var image = HeatmapImage.Render(new uint[1920 * 2], 1920, 2, new HeatmapScale(ScaleKind.Linear, 0, 10), Title);
+        var png = PngPicture.Encode(image);
+        TextInPixels.Mismatch(png, TitleBand.TextLeft(3), TitleBand.LineTop(0, 3), "quarry · gate", TitleBand.HeadingInk, ImageLayout.Background, 3)
+            .Should().BeNull();
+    }
+
+    [Fact]
+    public void Every_font_pixel_of_the_bands_survives_a_half_size_view()
+    {
+        // Drawn at twice its size on even coordinates, each font pixel is a whole 2×2 block: halving the image (as a
+        // code review shows it inline) averages each block into one pixel of the same colour, so no stroke blurs away.
+        using var image = HeatmapImage.Render(new uint[640 * 30], 640, 30, new HeatmapScale(ScaleKind.Linear, 0, 100), Title);
+        var png = PngPicture.Encode(image);
+
+        for (int y = 0; y + 1 < png.Y; y += 2)
+        {
+            for (int x = 0; x + 1 < png.Image.Width; x += 2)
+            {
+                Rgba32 c = png.At(x, y);
+                (png.At(x + 1, y) == c && png.At(x, y + 1) == c && png.At(x + 1, y + 1) == c).Should().BeTrue($"block at ({x}, {y}) is one colour");
+            }
+        }
+    }
+
     [Theory]
     [InlineData(0, "0")]
     [InlineData(7, "7")]
     [InlineData(12.5, "12.5")]
+    [InlineData(1250, "1.25k")]
     [InlineData(1500, "1.5k")]
     [InlineData(2_000_000, "2M")]
     [InlineData(3e9, "3e9")]
     [InlineData(-250, "-250")]
     public void Tick_labels_are_short_and_culture_independent(double value, string expected)
     {
+        using var _ = new CultureScope("de-DE");
         TickFormat.Compact(value).Should().Be(expected);
         foreach (char c in expected)
             PixelFont.Supports(c).Should().BeTrue();
     }
 
-    [Fact]
-    public void Pixel_font_draws_the_digit_one_as_its_glyph()
+    [Theory]
+    [InlineData(115.39, "115.4")]
+    [InlineData(2314, "2314")]
+    [InlineData(0.5, "0.5")]
+    [InlineData(-17, "-17")]
+    public void Title_values_keep_four_significant_digits(double value, string expected)
     {
-        using var image = new Image<Rgba32>(3, 5);
-        PixelFont.Draw(image, 0, 0, "1", Legend.Ink, 1);
-        string[] rows = [".#.", "##.", ".#.", ".#.", "###"];
-        for (int y = 0; y < 5; y++)
-            for (int x = 0; x < 3; x++)
-                (image[x, y] == Legend.Ink).Should().Be(rows[y][x] == '#', $"pixel ({x},{y})");
+        using var _ = new CultureScope("de-DE");
+        TickFormat.Precise(value).Should().Be(expected);
     }
 
     [Fact]
     public void Png_text_metadata_carries_strategy_and_counter()
     {
-        using var image = HeatmapImage.Render(new uint[4], 2, 2, HeatmapScale.Auto(ScaleKind.Linear, 1));
+        using var image = HeatmapImage.Render(new uint[4], 2, 2, HeatmapScale.Auto(ScaleKind.Linear, 1), Title);
         Png.AddText(image, "Strategy", "dda-mask");
         Png.AddText(image, "Counter", "iterations");
-        using var ms = new MemoryStream();
-        Png.Save(image, ms);
 
-        ms.Position = 0;
-        using var back = Image.Load(ms);
-        var text = back.Metadata.GetPngMetadata().TextData.ToDictionary(t => t.Keyword, t => t.Value);
-        text["Strategy"].Should().Be("dda-mask");
-        text["Counter"].Should().Be("iterations");
-        // Independent check: the tEXt chunk is in the file as Latin-1 keyword NUL value.
-        System.Text.Encoding.Latin1.GetString(ms.ToArray()).Should().Contain("tEXtStrategy\0dda-mask");
-    }
+        var png = PngPicture.Encode(image);
 
-    [Fact]
-    public void Preview_shows_sky_for_misses_and_shades_faces_apart()
-    {
-        PixelHit[] hits = [new() { Hit = true, X = 1, Material = 3, Face = HitFace.PosY }, new(), new() { Hit = true, X = 2, Material = 3, Face = HitFace.NegX }];
-
-        ImageResult preview = Decode(PreviewImage.Render(hits, 3, 1));
-
-        At(preview, 1, 0).Should().Be(PreviewImage.Sky);
-        At(preview, 0, 0).Should().NotBe(At(preview, 2, 0), "faces are shaded differently");
-    }
-
-    [Fact]
-    public void Mismatch_image_marks_differing_pixels_rings_them_and_dims_the_rest()
-    {
-        const int w = 12, h = 6;
-        var reference = new PixelHit[w * h];
-        for (int i = 0; i < reference.Length; i++)
-            reference[i] = new PixelHit { Hit = true, X = i, Material = 2, Face = HitFace.PosY };
-        var hits = (PixelHit[])reference.Clone();
-        hits[2 * w + 3].X = 999;
-
-        ImageResult mismatch = Decode(PreviewImage.RenderMismatch(hits, reference, w, h));
-        ImageResult preview = Decode(PreviewImage.Render(reference, w, h));
-
-        At(mismatch, 3, 2).Should().Be(PreviewImage.Marker);
-        At(mismatch, 5, 4).Should().Be(PreviewImage.Halo, "two pixels away is inside the ring");
-        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Halo);
-        At(mismatch, 6, 2).Should().NotBe(PreviewImage.Marker);
-        Oklab.FromSrgb(At(mismatch, 10, 5)).L.Should().BeLessThan(Oklab.FromSrgb(At(preview, 10, 5)).L, "the preview is dimmed");
-    }
-}
-
-public class DifferenceImageTests
-{
-    [Fact]
-    public void Difference_image_is_near_white_at_zero_and_takes_the_ramp_ends_at_the_range()
-    {
-        double[] diffs = [0, -10, 10, 25, -5, 5];
-        using var image = DifferenceImage.Render(diffs, 3, 2, maxAbs: 10);
-
-        using var ms = new MemoryStream();
-        Png.Save(image, ms);
-        // StbImageSharp: an independent PNG decoder.
-        var png = ImageResult.FromMemory(ms.ToArray(), ColorComponents.RedGreenBlueAlpha);
-        Rgba32 At(int x, int y)
-        {
-            int i = (y * png.Width + x) * 4;
-            return new Rgba32(png.Data[i], png.Data[i + 1], png.Data[i + 2], png.Data[i + 3]);
-        }
-
-        png.Height.Should().Be(2 + Legend.Height);
-        At(0, 0).Should().Be(DivergingRamp.Map(0));
-        At(1, 0).Should().Be(DivergingRamp.Map(-1));
-        At(2, 0).Should().Be(DivergingRamp.Map(1));
-        At(0, 1).Should().Be(DivergingRamp.Map(1), "beyond the range takes the end colour");
-        Oklab.FromSrgb(At(1, 1)).L.Should().BeApproximately(Oklab.FromSrgb(At(2, 1)).L, 0.006);
-        DifferenceImage.LegendTicks(10, v => TickFormat.Compact(v, signed: true)).Select(t => t.Label)
-            .Should().Equal("-10", "-5", "0", "+5", "+10");
+        png.Text["Strategy"].Should().Be("dda-mask");
+        png.Text["Counter"].Should().Be("iterations");
     }
 }
 

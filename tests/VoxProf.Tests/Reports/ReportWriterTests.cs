@@ -33,26 +33,42 @@ public sealed class ReportWriterTests : IDisposable
         string[] names = Directory.GetFiles(_dir).Select(Path.GetFileName).ToArray()!;
         names.Should().BeEquivalentTo(
             "report.json", "summary.csv", "summary.md", "preview.png", "mismatch-dda.png",
-            "heatmap-grid-iterations.png", "heatmap-grid-wave32.png", "heatmap-grid-wave64.png",
-            "heatmap-dda-iterations.png", "heatmap-dda-wave32.png", "heatmap-dda-wave64.png",
-            "pixels-grid.bin.gz", "pixels-dda.bin.gz");
+            "heatmap-grid-iterations.png", "heatmap-grid-subgroup32.png", "heatmap-grid-subgroup64.png",
+            "heatmap-dda-iterations.png", "heatmap-dda-subgroup32.png", "heatmap-dda-subgroup64.png",
+            "pixels-grid.bin.gz", "pixels-dda.bin.gz", "report.html", "manifest.json");
         foreach (StrategyReport s in result.Document.Strategies)
             s.Files.Should().OnlyContain(f => names.Contains(f), "every file the report lists exists");
+        result.Document.Files.Should().OnlyContain(f => names.Contains(f), "every run-wide file the report lists exists");
     }
 
     [Fact]
-    public void A_second_run_replaces_its_own_files_and_leaves_unrelated_files_alone()
+    public void No_pixels_and_no_html_leave_out_exactly_those_files_and_report_json_says_so()
+    {
+        ReportResult result = WriteSmall(TestRuns.Options with { PixelData = false, Html = false });
+
+        result.Failures.Should().BeEmpty();
+        string[] names = Directory.GetFiles(_dir).Select(Path.GetFileName).ToArray()!;
+        names.Should().NotContain(n => n.StartsWith("pixels-") || n == "report.html");
+        names.Should().Contain(["report.json", "summary.md", "heatmap-dda-iterations.png"]);
+        result.Document.Run.PixelData.Should().BeFalse();
+        result.Document.Files.Should().NotContain("report.html");
+        result.Document.Strategies.SelectMany(s => s.Files).Should().NotContain(f => f.StartsWith("pixels-"));
+    }
+
+    [Fact]
+    public void A_second_run_replaces_the_whole_folder_so_no_file_of_the_first_run_stays()
     {
         Directory.CreateDirectory(_dir);
-        File.WriteAllText(Path.Combine(_dir, "notes.txt"), "mine");
         File.WriteAllText(Path.Combine(_dir, "summary.csv"), "stale");
+        File.WriteAllText(Path.Combine(_dir, "heatmap-slab-iterations.png"), "from a run with another strategy");
 
         WriteSmall();
         WriteSmall();
 
-        File.ReadAllText(Path.Combine(_dir, "notes.txt")).Should().Be("mine");
-        File.ReadAllText(Path.Combine(_dir, "summary.csv")).Should().StartWith("strategy,measure");
-        Directory.GetFiles(_dir, "*.tmp").Should().BeEmpty();
+        File.ReadAllText(Path.Combine(_dir, "summary.csv")).Should().StartWith("strategy,iterations.total");
+        File.Exists(Path.Combine(_dir, "heatmap-slab-iterations.png")).Should().BeFalse("a file this run did not write belongs to an older run");
+        Directory.GetFileSystemEntries(Path.GetDirectoryName(_dir)!, $".{Path.GetFileName(_dir)}.voxprof-*")
+            .Should().OnlyContain(p => p.EndsWith(".voxprof-lock", StringComparison.Ordinal), "no stage or old folder stays behind");
     }
 
     private sealed class FailingExporter : IReportExporter
@@ -71,7 +87,9 @@ public sealed class ReportWriterTests : IDisposable
         var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, TestRuns.Options), TestRuns.Options);
         var writer = new ReportWriter([new FailingExporter(), new SummaryCsvExporter(), new ReportJsonExporter()]);
 
-        ReportResult result = writer.Write(context, OutputDirectory.Open(_dir));
+        using OutputDirectory output = OutputDirectory.Open(_dir);
+        ReportResult result = writer.Write(context, output);
+        output.Commit();
 
         result.Failures.Should().ContainSingle().Which.Message.Should().Be("broken: disk full");
         File.Exists(Path.Combine(_dir, "summary.csv")).Should().BeTrue();
@@ -94,15 +112,15 @@ public sealed class ReportWriterTests : IDisposable
     public void Tree_strategies_share_a_scale_to_their_largest_99th_percentile_and_grid_has_its_own()
     {
         ReportResult result = WriteSmall();
-        double gridTop = result.Document.Strategies.Single(s => s.Name == "grid").Counters.Single(c => c.Counter == "iterations").P99;
-        double ddaTop = result.Document.Strategies.Single(s => s.Name == "dda").Counters.Single(c => c.Counter == "iterations").P99;
+        double gridTop = result.Document.Strategies.Single(s => s.Name == "grid").Value("iterations.p99")!.Value;
+        double ddaTop = result.Document.Strategies.Single(s => s.Name == "dda").Value("iterations.p99")!.Value;
         // Grid's p99 (values x + y + 1 up to 23) is above dda's (about half): the two scales must differ for this test.
         gridTop.Should().BeGreaterThan(ddaTop);
 
-        var grid = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(_dir, "heatmap-grid-iterations.png")), ColorComponents.RedGreenBlue);
-        var dda = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(_dir, "heatmap-dda-iterations.png")), ColorComponents.RedGreenBlue);
+        var grid = PngPicture.Read(Path.Combine(_dir, "heatmap-grid-iterations.png")).CropRgb();
+        var dda = PngPicture.Read(Path.Combine(_dir, "heatmap-dda-iterations.png")).CropRgb();
         grid.Width.Should().Be(16);
-        grid.Height.Should().Be(8 + Legend.Height);
+        grid.Height.Should().Be(8);
         Pixel(grid, 0, 0).Should().Be(Rgb(SequentialRamp.Map(1 / gridTop)));
         Pixel(grid, 15, 7).Should().Be(Rgb(SequentialRamp.Map(1)), "23 is above the p99 and takes the top colour");
         Pixel(dda, 3, 2).Should().Be(Rgb(SequentialRamp.Map(1)));
@@ -111,10 +129,10 @@ public sealed class ReportWriterTests : IDisposable
     }
 
     [Fact]
-    public void Wave_heatmap_paints_each_tile_with_its_slowest_lane()
+    public void Subgroup_heatmap_paints_each_tile_with_its_slowest_lane()
     {
         WriteSmall(TestRuns.Options with { Scale = ScaleKind.Linear, RangeMin = 0, RangeMax = 50 });
-        var img = ImageResult.FromMemory(File.ReadAllBytes(Path.Combine(_dir, "heatmap-dda-wave32.png")), ColorComponents.RedGreenBlue);
+        var img = PngPicture.Read(Path.Combine(_dir, "heatmap-dda-subgroup32.png")).CropRgb();
         // dda's top-left 8×4 tile holds the spike of 40 at (3, 2); every pixel of the tile shows it.
         Pixel(img, 0, 0).Should().Be(Rgb(SequentialRamp.Map(40 / 50.0)));
         Pixel(img, 7, 3).Should().Be(Rgb(SequentialRamp.Map(40 / 50.0)));

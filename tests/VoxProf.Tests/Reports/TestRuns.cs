@@ -1,7 +1,10 @@
 using System.Numerics;
+using VoxProf.Core.Calibration;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Model;
 
@@ -12,7 +15,19 @@ internal static class TestRuns
 {
     public static readonly EnvironmentInfo Environment = new("test-runtime", 2, "Release", "test-os");
 
-    public static ReportOptions Options => new() { ToolVersion = "0.1.0-test", Environment = Environment, Threads = 2 };
+    public static ReportOptions Options => new()
+    {
+        ToolVersion = "0.1.0-test",
+        ToolCommit = "0123456789abcdef0123456789abcdef01234567",
+        CommandLine = ["trace", "yard.json", "--size", "16x8"],
+        Environment = Environment,
+        Threads = 2,
+    };
+
+    /// <summary>A made-up calibration fitted on <see cref="Small"/>'s settings: 40 ns a pixel, 3 ns an iteration, 5 ns a node fetch.</summary>
+    public static AppliedCalibration Calibration { get; } = new("/calibrations/lab.json", new CostModel("lab card A, driver 9.1",
+        [new CostTerm(null, 40), new CostTerm(Measures.Find("iterations"), 3), new CostTerm(Measures.Find("node-fetches"), 5)],
+        new FitScope([4], [new ImageSize(16, 8)])));
 
     /// <summary>
     /// A 16×8 image with a grid and a dda result. Grid iterations are x + y + 1; dda takes half as many, plus a

@@ -30,7 +30,7 @@ public class SampleSceneTests
     {
         Scene scene = SceneLoader.Load(Path.Combine(Samples, file));
         scene.Name.Should().Be(file[..^SceneLoader.Extension.Length]);
-        scene.Cameras.Count.Should().BeInRange(2, 3);
+        scene.Cameras.Count.Should().BeInRange(2, 5);
         scene.Cameras.Select(c => c.Name).Should().OnlyHaveUniqueItems();
         scene.ContentHash.Should().MatchRegex("^[0-9a-f]{64}$");
         foreach (CameraSpec camera in scene.Cameras)
@@ -50,7 +50,9 @@ public class SampleSceneTests
             (scene.ExtentX, scene.ExtentY, scene.ExtentZ).Should().Be((2048, 512, 2048));
             scene.Cameras[0].Name.Should().Be("main-street");
             scene.Description.Should().StartWith("Stonebrook");
-            scene.Layers.Select(l => l.Kind).Should().Contain(["terrain", "caves", "scatter", "box", "cylinder", "sphere"]);
+            scene.Layers.Select(l => l.Kind).Should().Contain(["terrain", "caves", "scatter", "box", "cylinder", "sphere", "heightmap", "mesh"]);
+            scene.Cameras.Select(c => c.Name).Should().StartWith(["main-street", "hill-overview", "horizon-graze"])
+                .And.EndWith(["stone-bridge", "spoil-heaps"]);
         }
         else
         {

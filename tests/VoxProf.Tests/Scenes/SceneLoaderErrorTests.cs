@@ -30,7 +30,7 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("{'kind': 'cone', 'material': 1}"));
         ex.Where.Should().Be("$.layers[0].kind");
-        ex.Problem.Should().Be("expected one of: \"box\", \"sphere\", \"cylinder\", \"terrain\", \"caves\", \"scatter\", \"raw\", found \"cone\"");
+        ex.Problem.Should().Be("expected one of: \"box\", \"sphere\", \"cylinder\", \"terrain\", \"caves\", \"scatter\", \"raw\", \"mesh\", \"heightmap\", found \"cone\"");
     }
 
     [Fact]
@@ -120,7 +120,7 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("{'kind': 'raw', 'material': 1, 'file': 'absent.raw', 'size': [2, 2, 2]}"));
         ex.Where.Should().Be("$.layers[0].file");
-        ex.Problem.Should().StartWith("raw volume file not found: ").And.EndWith("absent.raw");
+        ex.Problem.Should().StartWith("raw volume file not found: ").And.EndWith("absent.raw (paths are relative to the scene file's folder)");
     }
 
     [Fact]
@@ -154,9 +154,21 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("", "{'name': 'down', 'eye': [5, 20, 5], 'target': [5, 0, 5]}"));
         ex.Where.Should().Be("$.cameras[0].target", "without an up key the default [0, 1, 0] is used, so the target is at fault");
-        ex.Problem.Should().StartWith("up is parallel to the view direction");
-        Reject(TempScene.With("", "{'name': 'down', 'eye': [5, 20, 5], 'target': [5, 0, 5], 'up': [0, -2, 0]}"))
-            .Where.Should().Be("$.cameras[0].up");
+        ex.Problem.Should().StartWith("the camera looks along the default up direction (0, 1, 0)");
+        var opposite = Reject(TempScene.With("", "{'name': 'down', 'eye': [5, 20, 5], 'target': [5, 0, 5], 'up': [0, -2, 0]}"));
+        opposite.Where.Should().Be("$.cameras[0].up");
+        opposite.Problem.Should().Be("lies along the view direction (sine of the angle between them 0, below 0.001); expected an up direction across the view");
+    }
+
+    [Theory]
+    [InlineData("'eye': [0, 20, 0], 'target': [32, 20, 32], 'up': [1e-30, 1e-30, 0]", "$.cameras[0].up", "has length 1.41E-30, which single precision cannot turn into a camera basis")]
+    [InlineData("'eye': [0, 0, 0], 'target': [1e-30, 0, 0]", "$.cameras[0].target", "lies 1E-30 voxels from the eye, too close to give a view direction in single precision")]
+    [InlineData("'eye': [0, 20, 0], 'target': [32, 20, 32], 'up': [1, 0.00003, 1]", "$.cameras[0].up", "lies along the view direction (sine of the angle between them 2.12E-05, below 0.001)")]
+    public void Camera_vectors_too_short_or_too_close_to_the_view_for_a_float_basis_are_rejected(string camera, string where, string problem)
+    {
+        var ex = Reject(TempScene.With("", "{'name': 'tiny', " + camera + "}"));
+        ex.Where.Should().Be(where);
+        ex.Problem.Should().StartWith(problem);
     }
 
     [Fact]
@@ -181,7 +193,7 @@ public class SceneLoaderErrorTests
     {
         var ex = Reject(TempScene.With("", "{'name': 'a', 'eye': [1, 2, 3], 'target': [9, 2, 3], 'fovY': 180}"));
         ex.Where.Should().Be("$.cameras[0].fovY");
-        ex.Problem.Should().Be("expected a vertical field of view in degrees, from 1 to 179, found 180");
+        ex.Problem.Should().Be("expected a vertical field of view from 1 to 179 degrees, found 180");
     }
 
     [Fact]

@@ -13,6 +13,8 @@ public sealed class BoxLayer : Layer
 
     public override string Kind => "box";
 
+    public override LayerCost Cost(in Box3i extent) => LayerCost.OfSurface(LayerCost.InnerFaceArea(Bounds, extent), "a box surface");
+
     public override Coverage Classify(in Box3i region)
     {
         if (!Bounds.Intersects(region))

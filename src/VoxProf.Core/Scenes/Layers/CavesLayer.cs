@@ -51,6 +51,21 @@ public sealed class CavesLayer : Layer
 
     public override string Kind => "caves";
 
+    /// <summary>
+    /// Every voxel of the region (classification cannot settle any part of it), one 3D noise sample per octave each,
+    /// about nine voxel tests (a second field for tunnels where the first passes); none when the threshold settles it.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        if (_inside != Coverage.Partial || Bounds.IsEmpty)
+            return LayerCost.None;
+        double volume = Bounds.Volume;
+        double perVoxel = 9.0 * Settings.Octaves * (Settings.Shape == CaveShape.Tunnels ? 1.3 : 1);
+        // Caves leave the region full of mixed bricks; trees of the sample caves hold about 0.12 bytes per voxel.
+        return new LayerCost(volume * perVoxel, volume * 0.03, 0,
+            $"a region of {LayerCost.Figure(volume)} voxels × {Settings.Octaves} octave{(Settings.Octaves == 1 ? "" : "s")} of 3D noise");
+    }
+
     public override Coverage Classify(in Box3i region)
     {
         if (region.IsEmpty || !Bounds.Intersects(region) || _inside == Coverage.None)

@@ -35,6 +35,13 @@ public sealed class CylinderLayer : Layer
 
     public override string Kind => "cylinder";
 
+    /// <summary>The cylinder's area (side and ends), but no more than its clipped bounds' surface (a convex shape).</summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        double area = 2 * Math.PI * _r2 + 2 * Math.PI * Math.Sqrt(_r2) * (_axialMax - _axialMin);
+        return LayerCost.OfSurface(Math.Min(area, ShapeMath.BoxArea(Bounds)), "a cylinder surface");
+    }
+
     public Axis Axis => _axis;
 
     public override Coverage Classify(in Box3i region)

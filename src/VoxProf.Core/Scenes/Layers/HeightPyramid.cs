@@ -1,3 +1,5 @@
+using VoxProf.Core.Geometry;
+
 namespace VoxProf.Core.Scenes.Layers;
 
 /// <summary>
@@ -38,6 +40,42 @@ internal sealed class HeightPyramid
     }
 
     public int Height(int x, int z) => _heights[(z - _z0) * _width + (x - _x0)];
+
+    /// <summary>
+    /// Classifies a region against columns solid for <c>bounds.MinY ≤ y &lt; height(x, z)</c>, columns inside
+    /// <paramref name="bounds"/> only: exact for the tree builder's aligned regions, conservative for others.
+    /// </summary>
+    public Coverage Classify(in Box3i region, in Box3i bounds)
+    {
+        Box3i r = region.Intersect(bounds);
+        if (r.IsEmpty)
+            return Coverage.None;
+        var (min, max) = Range(r.MinX, r.MaxX, r.MinZ, r.MaxZ);
+        if (max <= r.MinY)
+            return Coverage.None;
+        return region.MaxY <= min && bounds.ContainsBox(region) ? Coverage.Full : Coverage.Partial;
+    }
+
+    /// <summary>Fills the inside test of the same columns, reading each column's height once.</summary>
+    public void Fill(in Box3i region, in Box3i bounds, Span<bool> inside)
+    {
+        inside[..checked((int)region.Volume)].Clear();
+        Box3i r = region.Intersect(bounds);
+        if (r.IsEmpty)
+            return;
+        int sx = region.SizeX, sxy = sx * region.SizeY;
+        for (int z = r.MinZ; z < r.MaxZ; z++)
+        {
+            for (int x = r.MinX; x < r.MaxX; x++)
+            {
+                // One height per column, then a run of solid voxels from the bottom of the block up.
+                int top = Math.Min(Height(x, z), r.MaxY);
+                int i = (z - region.MinZ) * sxy + (r.MinY - region.MinY) * sx + (x - region.MinX);
+                for (int y = r.MinY; y < top; y++, i += sx)
+                    inside[i] = true;
+            }
+        }
+    }
 
     /// <summary>Bounds on the heights of columns [x0, x1) × [z0, z1), which must lie inside the footprint.</summary>
     public (int Min, int Max) Range(int x0, int x1, int z0, int z1)

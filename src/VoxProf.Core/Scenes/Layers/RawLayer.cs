@@ -36,6 +36,15 @@ public sealed class RawLayer : Layer
 
     public override string Kind => "raw";
 
+    /// <summary>The volume's mixed 8³ bricks (known from the prefix sums): each is evaluated whole, and its faces are surface.</summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        double mixed = Sum(_anyPrefix, 0, 0, 0, _bx, _by, _bz) - Sum(_allPrefix, 0, 0, 0, _bx, _by, _bz);
+        return new LayerCost(mixed * 512 * 2, mixed * 64, 0, $"{LayerCost.Figure(mixed)} mixed bricks of 8³ voxels");
+    }
+
+    public override string Details => FormattableString.Invariant($"{_sx} x {_sy} x {_sz} samples");
+
     public override Coverage Classify(in Box3i region)
     {
         Box3i r = region.Intersect(Bounds);

@@ -51,6 +51,19 @@ public sealed class ScatterLayer : Layer
 
     public override string Kind => "scatter";
 
+    /// <summary>
+    /// The clumps' surfaces (filled by runs, about four voxel tests per surface voxel) and a few blocks set up per
+    /// clump, from the clumps as placed.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        double surface = 0;
+        foreach (Box3i c in _clumps)
+            surface += 2.0 * ((double)c.SizeX * c.SizeY + (double)c.SizeY * c.SizeZ + (double)c.SizeZ * c.SizeX);
+        return new LayerCost(surface * 4 + _clumps.Length * 512.0, surface, 0,
+            $"{LayerCost.Figure(_clumps.Length)} clumps with a surface of about {LayerCost.Figure(surface)} voxels");
+    }
+
     /// <summary>The placed clumps (already clipped to the layer's bounds).</summary>
     public IReadOnlyList<Box3i> Clumps => _clumps;
 

@@ -19,6 +19,10 @@ internal static class ShapeMath
         return 0;
     }
 
+    /// <summary>Surface area of a box of voxels (0 when empty).</summary>
+    public static double BoxArea(in Box3i b) =>
+        b.IsEmpty ? 0 : 2.0 * ((double)b.SizeX * b.SizeY + (double)b.SizeY * b.SizeZ + (double)b.SizeZ * b.SizeX);
+
     /// <summary>Offset from <paramref name="c"/> to the farthest voxel centre among voxels [min, max).</summary>
     public static double FarthestOffset(int min, int max, double c)
     {

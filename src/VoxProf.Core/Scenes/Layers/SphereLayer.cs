@@ -21,6 +21,20 @@ public sealed class SphereLayer : Layer
 
     public override string Kind => "sphere";
 
+    /// <summary>
+    /// The sphere's area, but no more than its clipped bounds' surface: the boundary of a convex shape inside a box
+    /// has no more area than the box. Nothing when the ball holds the whole extent.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        double fx = ShapeMath.FarthestOffset(extent.MinX, extent.MaxX, _cx);
+        double fy = ShapeMath.FarthestOffset(extent.MinY, extent.MaxY, _cy);
+        double fz = ShapeMath.FarthestOffset(extent.MinZ, extent.MaxZ, _cz);
+        if (fx * fx + fy * fy + fz * fz <= _r2)
+            return LayerCost.None;
+        return LayerCost.OfSurface(Math.Min(4 * Math.PI * _r2, ShapeMath.BoxArea(Bounds)), "a sphere surface");
+    }
+
     public override Coverage Classify(in Box3i region)
     {
         if (region.IsEmpty || !Bounds.Intersects(region))

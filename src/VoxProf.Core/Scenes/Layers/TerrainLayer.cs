@@ -32,6 +32,33 @@ public sealed class TerrainLayer : Layer
 
     public override string Kind => "terrain";
 
+    /// <summary>
+    /// Every column's height (one 2D noise sample per octave, about two voxel tests each) and the surface: the
+    /// columns, plus the walls the relief raises between neighbours, at most the terrain's height range.
+    /// </summary>
+    public override LayerCost Cost(in Box3i extent)
+    {
+        if (Bounds.IsEmpty)
+            return LayerCost.None;
+        double columns = (double)Bounds.SizeX * Bounds.SizeZ;
+        var s = Settings;
+        // Slope of the normalised fractal sum: each octave's weight times its frequency (gradient noise changes by
+        // about its bound per lattice cell, common practice for a rough bound).
+        double slope = 0, weight = 1, frequency = s.Frequency, weights = 0;
+        for (int o = 0; o < s.Octaves; o++)
+        {
+            slope += weight * frequency;
+            weights += weight;
+            weight *= s.Gain;
+            frequency *= s.Lacunarity;
+        }
+        double relief = Math.Min(Bounds.SizeY, Math.Abs(s.Amplitude) * GradientNoise.Bound * slope / weights);
+        double surface = columns * (1 + relief);
+        double heights = columns * s.Octaves * 2;
+        return new LayerCost(surface * LayerCost.DenseSide + heights, surface, columns * sizeof(ushort) * 4 / 3,
+            $"{LayerCost.Figure(columns)} columns × {s.Octaves} octave{(s.Octaves == 1 ? "" : "s")} and a surface of about {LayerCost.Figure(surface)} voxels");
+    }
+
     /// <summary>Height of column (x, z) straight from the noise (the definition the stored heights must equal).</summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int ComputeHeight(int x, int z)
@@ -46,16 +73,8 @@ public sealed class TerrainLayer : Layer
             ? 0
             : _pyramid.Value.Height(x, z);
 
-    public override Coverage Classify(in Box3i region)
-    {
-        Box3i r = region.Intersect(Bounds);
-        if (r.IsEmpty)
-            return Coverage.None;
-        var (min, max) = _pyramid.Value.Range(r.MinX, r.MaxX, r.MinZ, r.MaxZ);
-        if (max <= r.MinY)
-            return Coverage.None;
-        return region.MaxY <= min && Bounds.ContainsBox(region) ? Coverage.Full : Coverage.Partial;
-    }
+    public override Coverage Classify(in Box3i region) =>
+        Bounds.IsEmpty ? Coverage.None : _pyramid.Value.Classify(region, Bounds);
 
     // Before the heights exist, one column is computed on its own: a few spot checks through
     // Scene.EvaluateMaterial should not pay for the whole heightfield. The two agree exactly.
@@ -64,23 +83,10 @@ public sealed class TerrainLayer : Layer
 
     public override void Fill(in Box3i region, Span<bool> inside)
     {
-        inside[..checked((int)region.Volume)].Clear();
-        Box3i r = region.Intersect(Bounds);
-        if (r.IsEmpty)
-            return;
-        HeightPyramid pyramid = _pyramid.Value;
-        int sx = region.SizeX, sxy = sx * region.SizeY;
-        for (int z = r.MinZ; z < r.MaxZ; z++)
-        {
-            for (int x = r.MinX; x < r.MaxX; x++)
-            {
-                // One height per column, then a run of solid voxels from the bottom of the block up.
-                int top = Math.Min(pyramid.Height(x, z), r.MaxY);
-                int i = (z - region.MinZ) * sxy + (r.MinY - region.MinY) * sx + (x - region.MinX);
-                for (int y = r.MinY; y < top; y++, i += sx)
-                    inside[i] = true;
-            }
-        }
+        if (Bounds.IsEmpty)
+            inside[..checked((int)region.Volume)].Clear();
+        else
+            _pyramid.Value.Fill(region, Bounds, inside);
     }
 
     private HeightPyramid BuildPyramid()

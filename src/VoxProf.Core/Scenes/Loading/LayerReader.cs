@@ -1,3 +1,4 @@
+using System.Diagnostics;
 using System.Globalization;
 using System.Security.Cryptography;
 using VoxProf.Core.Geometry;
@@ -6,9 +7,10 @@ using VoxProf.Core.Scenes.Layers;
 namespace VoxProf.Core.Scenes.Loading;
 
 /// <summary>Turns one entry of <c>"layers"</c> into a <see cref="Layer"/>, checking every key.</summary>
-internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i extent, IncrementalHash hash)
+internal sealed partial class LayerReader(string sceneFile, string sceneDirectory, Box3i extent, IncrementalHash hash,
+    bool confineFiles = false)
 {
-    public static readonly string[] Kinds = ["box", "sphere", "cylinder", "terrain", "caves", "scatter", "raw"];
+    public static readonly string[] Kinds = ["box", "sphere", "cylinder", "terrain", "caves", "scatter", "raw", "mesh", "heightmap"];
 
     /// <summary>Largest terrain footprint in columns (the heights are kept in one array).</summary>
     public const long MaxTerrainColumns = 1L << 30;
@@ -17,6 +19,7 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
 
     public Layer Read(JsonValue value)
     {
+        long start = Stopwatch.GetTimestamp();
         JsonObjectReader o = value.AsObject("an object holding a layer");
         string kind = o.Required("kind", "a layer kind: " + string.Join(", ", Kinds)).Choice(Kinds);
         o.AllowOnly($"for a {kind} layer", [.. Common, .. KeysOf(kind)]);
@@ -36,9 +39,13 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
             "terrain" => ReadTerrain(o, op, material),
             "caves" => ReadCaves(o, op, material),
             "scatter" => ReadScatter(o, op, material),
+            "mesh" => ReadMesh(o, op, material),
+            "heightmap" => ReadHeightmap(o, op, material),
             _ => ReadRaw(o, op, material),
         };
         layer.Label = label;
+        layer.File = o.Optional("file")?.String();
+        layer.LoadTime = Stopwatch.GetElapsedTime(start);
         return layer;
     }
 
@@ -51,7 +58,9 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
         "terrain" => ["seed", "octaves", "frequency", "amplitude", "baseHeight", "gain", "lacunarity", "footprint"],
         "caves" => ["seed", "shape", "threshold", "octaves", "frequency", "verticalScale", "region"],
         "scatter" => ["seed", "count", "size", "region"],
-        _ => ["file", "size", "origin"],
+        "mesh" => ["file", "format", "scale", "offset", "rotate", "fit", "up", "fill"],
+        "heightmap" => ["file", "origin", "cellSize", "height"],
+        _ => ["file", "size", "origin", "type", "endian", "threshold"],
     };
 
     private BoxLayer ReadBox(JsonObjectReader o, LayerOp op, byte material)
@@ -145,36 +154,6 @@ internal sealed class LayerReader(string sceneFile, string sceneDirectory, Box3i
         }
         Box3i region = o.Optional("region") is { } r ? Region(r, 3) : extent;
         return new ScatterLayer(op, material, seed, count, minSize, maxSize, region, extent);
-    }
-
-    private RawLayer ReadRaw(JsonObjectReader o, LayerOp op, byte material)
-    {
-        JsonValue fileValue = o.Required("file", "a raw volume file path");
-        string file = fileValue.String("a raw volume file path (relative to the scene file)");
-        JsonValue sizeValue = o.Required("size", "[x, y, z] dimensions of the raw volume");
-        int[] size = sizeValue.Ints("[x, y, z] dimensions of the raw volume", 3, 1, Scene.MaxExtent,
-            $"an integer from 1 to {Scene.MaxExtent.ToString(CultureInfo.InvariantCulture)}");
-        long voxels = (long)size[0] * size[1] * size[2];
-        if (voxels > RawLayer.MaxVoxels)
-            throw sizeValue.Error($"volume too large; expected at most {RawLayer.MaxVoxels.ToString(CultureInfo.InvariantCulture)} voxels");
-        int[] origin = o.Optional("origin") is { } ov
-            ? ov.Ints("[x, y, z] voxel where the volume starts", 3, -Scene.MaxExtent, Scene.MaxExtent,
-                $"an integer from {(-Scene.MaxExtent).ToString(CultureInfo.InvariantCulture)} to {Scene.MaxExtent.ToString(CultureInfo.InvariantCulture)}")
-            : [0, 0, 0];
-
-        string full = Path.GetFullPath(Path.Combine(sceneDirectory, file));
-        // Check the length before reading, so a wrong multi-gigabyte file is refused without loading it.
-        long length = File.Exists(full) ? new FileInfo(full).Length : -1;
-        if (length >= 0 && length != voxels)
-        {
-            throw fileValue.Error(string.Create(CultureInfo.InvariantCulture,
-                $"raw volume file {file} holds {length} bytes; expected {voxels} ({size[0]} × {size[1]} × {size[2]} from {sizeValue.Path})"));
-        }
-        byte[] data = SceneLoader.ReadFile(sceneFile, full, fileValue.Path, "raw volume file");
-        if (data.LongLength != voxels)
-            throw fileValue.Error("raw volume file changed while it was being read");
-        hash.AppendData(data);
-        return new RawLayer(op, material, data, size[0], size[1], size[2], origin[0], origin[1], origin[2], extent);
     }
 
     private static ulong Seed(JsonObjectReader o) =>

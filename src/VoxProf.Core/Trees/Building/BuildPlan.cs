@@ -9,7 +9,7 @@ internal sealed class BuildPlan
 {
     // Dense blocks are at least this many voxels on a side: below it, classifying cell by cell costs more than
     // evaluating the block (common practice for brick builders; 16³ fits a per-thread buffer in L1/L2).
-    private const int MinDenseSide = 16;
+    internal const int MinDenseSide = 16;
 
     // Subtrees handed to worker threads are at least this many voxels on a side: a few thousand tasks for a
     // large terrain, enough to balance two to sixteen cores, few enough that the top levels cost nothing.

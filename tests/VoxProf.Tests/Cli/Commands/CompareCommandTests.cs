@@ -27,8 +27,11 @@ public class CompareCommandTests : IDisposable
 
         code.Should().Be(ExitCodes.Ok);
         _err.ToString().Should().BeEmpty();
-        _out.ToString().Should().Contain("no change in any of 48 metrics").And.Contain("verdict: pass");
-        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json"]);
+        _out.ToString().Should().Contain("no change in any of 60 metrics").And.Contain("verdict: pass");
+        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["compare.md", "compare.csv", "compare.json", "compare.html", "manifest.json"]);
+        string html = File.ReadAllText(Path.Combine(OutDir, "compare.html"));
+        html.Should().Contain($"content=\"{VoxProf.Reports.Html.HtmlPage.ContentSecurityPolicy}\"").And.Contain("The gate holds")
+            .And.NotContain("<link").And.NotContain(" src=\"http");
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(OutDir, "compare.json")));
         json.RootElement.GetProperty("changes").EnumerateArray().Should().OnlyContain(c => c.GetProperty("change").GetDouble() == 0);
     }
@@ -39,10 +42,10 @@ public class CompareCommandTests : IDisposable
         var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
         var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Standard(1.1));
 
-        var code = Run(a, b, "--fail-on", "dda-mask.iterations.mean:5%", "--fail-on", "all.wave32.tile-max:20%");
+        var code = Run(a, b, "--fail-on", "dda-mask.iterations.mean:5%", "--fail-on", "all.subgroup32.tile-max-mean:20%");
 
         code.Should().Be(ExitCodes.RuleBroken);
-        _out.ToString().Should().Contain("broken: dda-mask.iterations.mean:5%: dda-mask iterations.mean: 8 -> 8.8 (+0.8, +10%)")
+        _out.ToString().Should().Contain("broken: dda-mask.iterations.mean:5%: dda-mask iterations.mean: 8.00 -> 8.80 (+0.80, +10%)")
             .And.Contain("verdict: fail (1 of 2 rules broken)");
     }
 
@@ -101,7 +104,7 @@ public class CompareCommandTests : IDisposable
     {
         var doc = ReportFixtures.Standard();
         var a = ReportFixtures.Write(_tmp, "base", doc);
-        var b = ReportFixtures.Write(_tmp, "cand", doc with { Run = doc.Run with { Width = 64 } });
+        var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Resized(doc, 64, 25));
 
         var code = Run(a, b);
 
@@ -130,7 +133,7 @@ public class CompareCommandTests : IDisposable
         var code = Run(a, a, "--fail-on", "dda.steps.mean:5%");
 
         code.Should().Be(ExitCodes.BadInput);
-        ErrorLines.Should().NotContain("\n").And.Contain("unknown counter or wave group 'steps'").And.Contain("iterations, node-fetches, wave32, wave64");
+        ErrorLines.Should().NotContain("\n").And.Contain("unknown metric group 'steps'").And.Contain("iterations, node-fetches, subgroup32, subgroup64");
     }
 
     [Fact]
@@ -165,18 +168,58 @@ public class CompareCommandTests : IDisposable
     }
 
     [Fact]
-    public void A_second_run_replaces_the_compare_files_and_leaves_other_files_alone()
+    public void A_second_run_replaces_the_compare_files()
     {
         var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
         var b = ReportFixtures.Write(_tmp, "cand", ReportFixtures.Standard(1.1));
-        Directory.CreateDirectory(OutDir);
-        File.WriteAllText(Path.Combine(OutDir, "notes.txt"), "mine");
 
         Run(a, a).Should().Be(ExitCodes.Ok);
         Run(a, b, "--fail-on", "all.iterations.mean:50%").Should().Be(ExitCodes.Ok);
 
-        File.ReadAllText(Path.Combine(OutDir, "notes.txt")).Should().Be("mine");
         File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain("+10%");
-        Directory.GetFiles(OutDir).Should().HaveCount(4, "no temporary file is left behind");
+        Directory.GetFiles(OutDir).Should().HaveCount(5, "four outputs and the manifest; no temporary file is left behind");
+    }
+
+    [Fact]
+    public void An_out_folder_holding_files_voxprof_did_not_write_is_refused_and_left_alone()
+    {
+        var a = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
+        Directory.CreateDirectory(OutDir);
+        File.WriteAllText(Path.Combine(OutDir, "notes.txt"), "mine");
+
+        Run(a, a).Should().Be(ExitCodes.BadInput);
+
+        ErrorLines.Should().Be($"voxprof: error: {OutDir}: holds a file voxprof did not write ('notes.txt'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
+        Directory.GetFiles(OutDir).Select(Path.GetFileName).Should().BeEquivalentTo(["notes.txt"]);
+    }
+
+    [Fact]
+    public void A_report_traced_without_pixels_compares_and_says_plainly_that_pixel_differences_are_unavailable()
+    {
+        var plain = ReportFixtures.Standard();
+        var a = ReportFixtures.Write(_tmp, "base", plain);
+        var b = ReportFixtures.Write(_tmp, "cand", plain with { Run = plain.Run with { PixelData = false } });
+
+        Run(a, b).Should().Be(ExitCodes.Ok, _err.ToString());
+
+        _err.ToString().Should().BeEmpty();
+        const string note = "per-pixel differences are unavailable: the candidate report was traced with --no-pixels";
+        _out.ToString().Should().Contain(note);
+        File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain(note);
+        File.ReadAllText(Path.Combine(OutDir, "compare.html")).Should().Contain(note);
+        Directory.GetFiles(OutDir, "diff-*.png").Should().BeEmpty();
+    }
+
+    [Fact]
+    public void No_html_leaves_out_compare_html_and_a_link_base_makes_compare_md_links_absolute()
+    {
+        var dir = ReportFixtures.Write(_tmp, "base", ReportFixtures.Standard());
+
+        Run(dir, dir, "--no-html", "--link-base", "https://ci.example.org/cmp/").Should().Be(ExitCodes.Ok, _err.ToString());
+
+        File.Exists(Path.Combine(OutDir, "compare.html")).Should().BeFalse();
+        _out.ToString().Should().Contain("wrote compare.md, compare.csv, compare.json to");
+        VoxProf.Cli.Cli.Run(["compare", dir, dir, "--out", OutDir, "--link-base", "https://ci.example.org/cmp/"], _out, _err).Should().Be(ExitCodes.Ok);
+        File.ReadAllText(Path.Combine(OutDir, "compare.md")).Should().Contain("(https://ci.example.org/cmp/compare.html)");
     }
 }

@@ -59,4 +59,35 @@ public class InspectCommandTests
         doc.RootElement.GetProperty("solidVoxels").GetInt64().Should().Be(solid).And.BeGreaterThan(0);
         doc.RootElement.GetProperty("branching").GetInt32().Should().Be(int.Parse(branching));
     }
+
+    [Fact]
+    public void A_malformed_mesh_file_is_one_line_naming_the_file_and_line_and_exit_code_2()
+    {
+        using var scene = new VoxProf.Tests.Scenes.TempScene(
+            "{'extent': [16, 16, 16], 'layers': [{'kind': 'mesh', 'material': 1, 'file': 'bad.obj'}], 'cameras': ["
+            + VoxProf.Tests.Scenes.TempScene.Camera + "]}");
+        scene.WriteSideFile("bad.obj", System.Text.Encoding.ASCII.GetBytes("v 0 0 0\nv 1 0 0\nv 0 1 0\nf 1 2 9\n"));
+        (int code, string output, string error) = Run("inspect", scene.Path);
+        code.Should().Be(ExitCodes.BadInput);
+        output.Should().BeEmpty();
+        error.TrimEnd().Should().NotContain("\n").And.Contain(Path.Combine(scene.Folder, "bad.obj") + ": line 4: vertex index 9 is out of range");
+    }
+
+    [Fact]
+    public void Text_output_lists_every_layer_and_camera_of_the_scene()
+    {
+        string path = Path.Combine(AppContext.BaseDirectory, "samples", "ring-post.vpscene.json");
+        (int code, string output, string error) = Run("inspect", path);
+        code.Should().Be(ExitCodes.Ok, error);
+        Scene scene = SceneLoader.Load(path);
+        string[] lines = output.Split('\n');
+        foreach (Layer layer in scene.Layers)
+        {
+            string label = layer.Label![..Math.Min(20, layer.Label!.Length)];
+            lines.Should().Contain(l => l.Contains(label, StringComparison.Ordinal) && l.Contains(layer.Kind, StringComparison.Ordinal));
+        }
+        foreach (CameraSpec camera in scene.Cameras)
+            lines.Should().Contain(l => l.StartsWith(camera.Name + " ", StringComparison.Ordinal));
+        output.Should().Contain("voxelise time").And.Contain("build time");
+    }
 }

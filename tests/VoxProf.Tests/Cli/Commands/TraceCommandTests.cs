@@ -22,7 +22,7 @@ public sealed class TraceCommandTests : IDisposable
 
     /// <summary>Stands in for scene loading, tree building and tracing with hand-made results.</summary>
     private TracePipeline Fake(bool terminal = false) => new(
-        _ =>
+        (_, _) =>
         {
             _sceneLoaded = true;
             return TestRuns.Small().Scene;
@@ -53,7 +53,7 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--size 0x720", "--size: '0x720' is not a valid size")]
     [InlineData("--size 20000x10", "--size: '20000x10' is not a valid size")]
     [InlineData("--size wide", "--size: 'wide' is not a valid size")]
-    [InlineData("--strategy dda,warp", "--strategy: unknown strategy 'warp'; expected one of: grid, slab, dda, dda-mask, hdda")]
+    [InlineData("--strategy dda,zigzag", "--strategy: unknown strategy 'zigzag'; expected one of: grid, slab, dda, dda-mask, hdda")]
     [InlineData("--counters iterations,steps", "--counters: unknown counter 'steps'; expected one of: iterations,")]
     [InlineData("--prepass 3", "--prepass: 3 is not valid, expected 2, 4 or 8")]
     [InlineData("--branching 8", "--branching: 8 is not valid, expected 2 or 4")]
@@ -61,15 +61,22 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--range 9:1", "--range: '9:1' is not a valid range")]
     [InlineData("--baseline hdda --strategy grid,dda", "--baseline: hdda is not among the traced strategies")]
     [InlineData("--eye 1,2,3", "--target: missing")]
+    [InlineData("--fov 0.5", "--fov: 0.5 is not valid, expected a vertical field of view from 1 to 179 degrees")]
+    [InlineData("--fov 179.5", "--fov: 179.5 is not valid, expected a vertical field of view from 1 to 179 degrees")]
     public void Bad_options_exit_2_with_one_line_before_the_scene_is_read(string options, string message)
     {
-        var (code, output, error) = Run($"trace scene.json {options}");
+        ExpectOneLineBadInput($"trace scene.json {options}", message);
+        _sceneLoaded.Should().BeFalse();
+    }
+
+    private void ExpectOneLineBadInput(string args, string message)
+    {
+        var (code, output, error) = Run(args);
 
         code.Should().Be(ExitCodes.BadInput);
         error.Should().StartWith("voxprof: error: " + message);
         error.TrimEnd('\n').Should().NotContain("\n", "one line");
         output.Should().BeEmpty();
-        _sceneLoaded.Should().BeFalse();
     }
 
     [Fact]
@@ -103,12 +110,13 @@ public sealed class TraceCommandTests : IDisposable
         code.Should().Be(ExitCodes.Ok, error);
         error.Should().BeEmpty();
         string[] lines = output.Split('\n', StringSplitOptions.RemoveEmptyEntries);
-        lines[0].Should().StartWith("strategy").And.Contain("w32 eff");
-        lines[1].Should().StartWith("grid");
-        lines[2].Should().StartWith("dda");
+        lines[0].Should().Contain("total-iterations.").And.Contain("subgroup32.");
+        lines[1].Should().StartWith("strategy").And.Contain("tile-max-mean").And.Contain("simd-efficiency");
+        lines[2].Should().StartWith("grid");
+        lines[3].Should().StartWith("dda");
         lines[^1].Should().StartWith("wrote ").And.EndWith(_dir);
         File.Exists(Path.Combine(_dir, "report.json")).Should().BeTrue();
-        File.Exists(Path.Combine(_dir, "heatmap-dda-wave64.png")).Should().BeTrue();
+        File.Exists(Path.Combine(_dir, "heatmap-dda-subgroup64.png")).Should().BeTrue();
         _requests.Should().ContainSingle().Which.Width.Should().Be(32);
         _requests[0].Camera.Name.Should().Be("gate", "the scene's first camera is the default");
     }
@@ -116,7 +124,9 @@ public sealed class TraceCommandTests : IDisposable
     [Fact]
     public void Progress_goes_to_stderr_only_on_a_terminal_and_not_when_quiet()
     {
-        Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: true).Err.Should().Contain("rows");
+        string progress = Run($"trace scene.json --size 16x8 --strategy grid,dda --out {_dir}", terminal: true).Err;
+        progress.Should().Contain("building the tree of yard").And.Contain("tracing dda (2/2): 8/8 rows")
+            .And.Contain("writing heatmaps").And.Contain("writing report.html");
         Run($"trace scene.json --size 16x8 --strategy grid --out {_dir}", terminal: false).Err.Should().BeEmpty();
         Run($"trace scene.json --size 16x8 --strategy grid --out {_dir} --quiet", terminal: true).Err.Should().BeEmpty();
     }
@@ -130,5 +140,64 @@ public sealed class TraceCommandTests : IDisposable
         var (code, _, error) = Run($"trace scene.json --camera tower --out {_dir}");
         code.Should().Be(ExitCodes.BadInput);
         error.Should().Be("voxprof: error: --camera: no camera 'tower' in /scenes/yard.json; cameras: gate\n");
+    }
+
+    // The reproducer (looking straight down with the default up) and its relatives: each camera would give
+    // NaN rays or an undefined image orientation, and must stop before tracing with one line naming the option.
+    [Theory]
+    [InlineData("--eye 32,60,32 --target 32,0,32", "--target 32,0,32: the camera looks along the default up direction (0, 1, 0)")]
+    [InlineData("--eye 32,60,32 --target 32,0,32 --up 0,-1,0", "--up 0,-1,0: lies along the view direction")]
+    [InlineData("--eye 32,60,32 --target 32,0,32 --up 0,1,0", "--up 0,1,0: lies along the view direction")]
+    [InlineData("--eye 0,20,0 --target 32,20,32 --up 1e-30,1e-30,0", "--up 1e-30,1e-30,0: has length 1.41E-30, which single precision cannot turn into a camera basis")]
+    [InlineData("--eye 0,0,0 --target 1e-30,0,0", "--target 1e-30,0,0: lies 1E-30 voxels from the eye")]
+    [InlineData("--eye 5,5,5 --target 5,5,5", "--target 5,5,5: equals the eye")]
+    [InlineData("--up 30.5,-12,62", "--up 30.5,-12,62: lies along the view direction")]
+    [InlineData("--up 0,0,0", "--up 0,0,0: zero vector")]
+    public void A_command_line_camera_gets_the_scene_file_checks_and_exits_2_before_tracing(string options, string message)
+    {
+        ExpectOneLineBadInput($"trace scene.json --out {_dir} {options}", message);
+        _requests.Should().BeEmpty("nothing is traced with a broken camera");
+    }
+
+    [Fact]
+    public void An_up_option_that_breaks_a_scene_camera_names_that_camera()
+    {
+        var (_, _, error) = Run($"trace scene.json --out {_dir} --up 30.5,-12,62");
+
+        error.TrimEnd('\n').Should().EndWith("(camera 'gate' of /scenes/yard.json)");
+    }
+
+    [Fact]
+    public void Short_options_do_what_their_long_names_do()
+    {
+        var (code, _, error) = Run($"trace scene.json --size 16x8 -s grid,dda -c gate -b grid -q -o {_dir}");
+
+        code.Should().Be(ExitCodes.Ok, error);
+        _requests.Single().Strategies.Should().Equal(Strategy.Grid, Strategy.Dda);
+        File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("| grid (baseline) |");
+    }
+
+    [Fact]
+    public void No_pixels_and_no_html_skip_those_files_and_report_json_keeps_the_command_line()
+    {
+        var (code, _, error) = Run($"trace scene.json --size 16x8 --strategy grid --no-pixels --no-html --out {_dir}");
+
+        code.Should().Be(ExitCodes.Ok, error);
+        Directory.GetFiles(_dir).Select(Path.GetFileName).Should().NotContain(n => n!.StartsWith("pixels-") || n == "report.html")
+            .And.Contain("report.json");
+        string json = File.ReadAllText(Path.Combine(_dir, "report.json"));
+        json.Should().Contain("\"pixelData\": false");
+        using var doc = System.Text.Json.JsonDocument.Parse(json);
+        doc.RootElement.GetProperty("commandLine").EnumerateArray().Select(e => e.GetString()).Should()
+            .Equal("trace", "scene.json", "--size", "16x8", "--strategy", "grid", "--no-pixels", "--no-html", "--out", _dir);
+    }
+
+    [Fact]
+    public void A_link_base_turns_summary_links_absolute_and_a_relative_one_is_refused()
+    {
+        Run($"trace scene.json --size 16x8 --strategy dda --out {_dir} --link-base https://ci.example.org/run-7/").Code.Should().Be(0);
+        File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("(https://ci.example.org/run-7/heatmap-dda-iterations.png)");
+
+        ExpectOneLineBadInput($"trace scene.json --out {_dir} --link-base run-7/", "--link-base: 'run-7/' is not an absolute http or https URL");
     }
 }

@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Numerics;
 using System.Text.Json;
 using VoxProf.Cli.Formatting;
 using VoxProf.Core.Geometry;
@@ -14,13 +15,18 @@ public class TreeSummaryTests
     private static (Scene Scene, BrickTree Tree) Slab(int branching)
     {
         var extent = new Box3i(0, 0, 0, 20, 10, 20);
-        Scene scene = new(20, 10, 20, [new BoxLayer(LayerOp.Add, 1, new Box3i(0, 0, 0, 20, 5, 20), extent)], [], "slab");
+        Scene scene = new(20, 10, 20, [new BoxLayer(LayerOp.Add, 1, new Box3i(0, 0, 0, 20, 5, 20), extent)],
+            [new CameraSpec("side", new Vector3(-5, 2.5f, 10), new Vector3(10, 2.5f, 10), Vector3.UnitY, 50)], "slab");
         BrickTree built = TreeBuilder.Build(scene, branching, threads: 1);
         // Fix the one measured value so the output can be compared whole.
         var tree = new BrickTree(built.Branching, built.Depth, built.ExtentX, built.ExtentY, built.ExtentZ,
             built.Nodes, built.Materials, built.Stats with { BuildTime = TimeSpan.FromMilliseconds(12.5) });
         return (scene, tree);
     }
+
+    // The census of the one layer, with its measured time fixed.
+    private static LayerTally[] Census(Scene scene) =>
+        [.. LayerCensus.Run(scene, threads: 1).Select(t => t with { Voxelise = TimeSpan.FromMilliseconds(3.5) })];
 
     // Worked by hand: the root's cells are 16 wide, so the slab touches 4 of them (x and z below 20, y below 16).
     // Their 4-wide cells: a full layer y 0..3 (16 + 4 + 4 + 1 = 25 solid cells) and a layer y 4..7 holding the slab's
@@ -39,6 +45,14 @@ public class TreeSummaryTests
         solid voxels           2000
         bytes per solid voxel  0.5725
         build time             12.5 ms
+        voxelise time          3.5 ms (time in the layers' Classify and Fill, summed over threads)
+        load time              0.0 ms (reading and preparing the layers)
+
+        layer  kind       label                     file                  op             voxels    load ms  voxelise ms  details
+            0  test-box   -                         -                     add              2000        0.0          3.5
+
+        camera            eye                     target                  up                fovY
+        side              -5, 2.5, 10             10, 2.5, 10             0, 1, 0           50
 
         """;
 
@@ -46,7 +60,7 @@ public class TreeSummaryTests
     public void Text_summary_lists_every_level_and_the_totals()
     {
         (Scene scene, BrickTree tree) = Slab(4);
-        TreeSummary.Text(scene, tree).ReplaceLineEndings("\n").Should().Be(ExpectedText);
+        TreeSummary.Text(scene, tree, Census(scene)).ReplaceLineEndings("\n").Should().Be(ExpectedText);
     }
 
     [Fact]
@@ -57,7 +71,7 @@ public class TreeSummaryTests
         try
         {
             CultureInfo.CurrentCulture = CultureInfo.GetCultureInfo("de-DE");
-            TreeSummary.Text(scene, tree).ReplaceLineEndings("\n").Should().Be(ExpectedText);
+            TreeSummary.Text(scene, tree, Census(scene)).ReplaceLineEndings("\n").Should().Be(ExpectedText);
         }
         finally
         {
@@ -71,7 +85,7 @@ public class TreeSummaryTests
     public void Json_summary_carries_the_same_numbers(int branching)
     {
         (Scene scene, BrickTree tree) = Slab(branching);
-        using JsonDocument doc = JsonDocument.Parse(TreeSummary.Json(scene, tree));
+        using JsonDocument doc = JsonDocument.Parse(TreeSummary.Json(scene, tree, Census(scene)));
         JsonElement root = doc.RootElement;
         root.GetProperty("scene").GetString().Should().Be("slab");
         root.GetProperty("extent").EnumerateArray().Select(e => e.GetInt32()).Should().Equal(20, 10, 20);
@@ -86,5 +100,10 @@ public class TreeSummaryTests
         levels.Should().HaveCount(tree.Depth);
         levels.Sum(l => l.GetProperty("nodes").GetInt64()).Should().Be(tree.Nodes.Length);
         levels[^1].GetProperty("cellSide").GetInt32().Should().Be(1);
+        root.GetProperty("voxeliseMilliseconds").GetDouble().Should().Be(3.5);
+        JsonElement layer = root.GetProperty("layers").EnumerateArray().Single();
+        (layer.GetProperty("kind").GetString(), layer.GetProperty("voxels").GetInt64(), layer.GetProperty("op").GetString())
+            .Should().Be(("test-box", 2000L, "add"));
+        root.GetProperty("cameras")[0].GetProperty("eye").EnumerateArray().Select(e => e.GetSingle()).Should().Equal(-5f, 2.5f, 10f);
     }
 }

@@ -2,41 +2,51 @@ using System.Buffers;
 
 namespace VoxProf.Core.Statistics;
 
-/// <summary>A lockstep group of GPU lanes laid over the image as a tile of pixels.</summary>
-public readonly record struct WaveShape(int TileWidth, int TileHeight)
+/// <summary>
+/// A subgroup (the lanes a GPU runs in lockstep) laid over the image as a tile of pixels. The lane-to-pixel layout
+/// (8×4 for 32 lanes, 8×8 for 64) is a modelling choice, common practice for screen-space dispatches, not a property
+/// of any one device.
+/// </summary>
+public readonly record struct SubgroupShape(int TileWidth, int TileHeight)
 {
-    /// <summary>32 lanes as 8×4 pixels (NVIDIA warps; AMD RDNA wave32).</summary>
-    public static WaveShape Lanes32 => new(8, 4);
+    /// <summary>32 lanes as 8×4 pixels.</summary>
+    public static SubgroupShape Lanes32 => new(8, 4);
 
-    /// <summary>64 lanes as 8×8 pixels (AMD GCN wave64).</summary>
-    public static WaveShape Lanes64 => new(8, 8);
+    /// <summary>64 lanes as 8×8 pixels.</summary>
+    public static SubgroupShape Lanes64 => new(8, 8);
 
-    public static IReadOnlyList<WaveShape> Standard { get; } = [Lanes32, Lanes64];
+    /// <summary>The shapes every report models, in report order.</summary>
+    public static IReadOnlyList<SubgroupShape> Standard { get; } = [Lanes32, Lanes64];
 
     public int Lanes => TileWidth * TileHeight;
+
+    /// <summary>"subgroup32", "subgroup64": the name of the shape in reports, heatmaps and gate rules.</summary>
+    public string Name => $"subgroup{Lanes}";
 
     public int TilesX(int width) => (width + TileWidth - 1) / TileWidth;
 
     public int TilesY(int height) => (height + TileHeight - 1) / TileHeight;
 }
 
-/// <summary>What one group size predicts for one strategy's loop-iteration image.</summary>
+/// <summary>What one subgroup size predicts for one strategy's loop-iteration image.</summary>
 /// <param name="Tiles">Tiles covering the image, partial edge tiles included.</param>
-/// <param name="MeanTileMax">Mean over tiles of the largest lane cost in the tile: a group runs until its slowest lane ends.</param>
+/// <param name="MeanTileMax">Mean over tiles of the largest lane cost in the tile: a subgroup runs until its slowest lane ends.</param>
 /// <param name="SimdEfficiency">Lane work done over lane slots spent: Σ lane cost / (lanes × Σ tile max), in [0, 1].</param>
 /// <param name="MaxTileMax">The costliest tile.</param>
-public readonly record struct WaveSummary(WaveShape Shape, int Tiles, double MeanTileMax, double SimdEfficiency, uint MaxTileMax);
+public readonly record struct SubgroupSummary(SubgroupShape Shape, int Tiles, double MeanTileMax, double SimdEfficiency, uint MaxTileMax);
 
 /// <summary>
-/// Lockstep model of a per-pixel cost image. A partial tile at the right or bottom edge counts as a whole group whose
-/// lanes outside the image are idle (cost 0 but still occupying their slot), as a GPU dispatch rounds up to whole groups.
-/// A tile whose lanes all cost 0 counts in the mean tile max as 0 and adds nothing to either side of the efficiency;
-/// an image with no work at all has efficiency 1 (no slot was wasted).
+/// Lockstep model of a per-pixel cost image. SIMD efficiency is the measure of Aila &amp; Laine (2009), "Understanding
+/// the efficiency of ray traversal on GPUs": the share of lane slots that do useful work, here counted in loop
+/// iterations. A partial tile at the right or bottom edge counts as a whole subgroup whose lanes outside the image
+/// are idle (cost 0 but still occupying their slot), as a dispatch rounds up to whole groups. A tile whose lanes all
+/// cost 0 counts in the mean tile max as 0 and adds nothing to either side of the efficiency; an image with no work
+/// at all has efficiency 1 (no slot was wasted).
 /// </summary>
-public static class WaveModel
+public static class SubgroupModel
 {
     /// <summary>Writes each tile's maximum into <paramref name="tileMax"/> (TilesX × TilesY, row-major).</summary>
-    public static void TileMax(ReadOnlySpan<uint> costs, int width, int height, WaveShape shape, Span<uint> tileMax)
+    public static void TileMax(ReadOnlySpan<uint> costs, int width, int height, SubgroupShape shape, Span<uint> tileMax)
     {
         int tilesX = shape.TilesX(width);
         int tilesY = shape.TilesY(height);
@@ -59,7 +69,7 @@ public static class WaveModel
     }
 
     /// <summary>Per-pixel image in which every pixel holds its tile's maximum, for a heatmap at image size.</summary>
-    public static void ExpandTiles(ReadOnlySpan<uint> tileMax, int width, int height, WaveShape shape, Span<uint> pixels)
+    public static void ExpandTiles(ReadOnlySpan<uint> tileMax, int width, int height, SubgroupShape shape, Span<uint> pixels)
     {
         int tilesX = shape.TilesX(width);
         if (pixels.Length != width * height)
@@ -73,11 +83,11 @@ public static class WaveModel
         }
     }
 
-    public static WaveSummary Summarise(ReadOnlySpan<uint> costs, int width, int height, WaveShape shape)
+    public static SubgroupSummary Summarise(ReadOnlySpan<uint> costs, int width, int height, SubgroupShape shape)
     {
         int tiles = shape.TilesX(width) * shape.TilesY(height);
         if (tiles == 0)
-            return new WaveSummary(shape, 0, 0, 1, 0);
+            return new SubgroupSummary(shape, 0, 0, 1, 0);
         uint[] rented = ArrayPool<uint>.Shared.Rent(tiles);
         try
         {
@@ -94,7 +104,7 @@ public static class WaveModel
                 maxMax = Math.Max(maxMax, m);
             }
             double efficiency = maxSum == 0 ? 1.0 : work / ((double)shape.Lanes * maxSum);
-            return new WaveSummary(shape, tiles, (double)maxSum / tiles, efficiency, maxMax);
+            return new SubgroupSummary(shape, tiles, (double)maxSum / tiles, efficiency, maxMax);
         }
         finally
         {

@@ -2,16 +2,18 @@ using VoxProf.Core.Statistics;
 
 namespace VoxProf.Tests.Statistics;
 
-public class WaveModelTests
+public class SubgroupModelTests
 {
-    // Worked example of the definition: 31 lanes × 10 + 40 = 350 lane iterations over 32 lanes × 40 = 1280 slots.
+    // SIMD efficiency as defined by Aila & Laine (2009), "Understanding the efficiency of ray traversal on GPUs": the
+    // share of lane slots doing useful work. Worked by hand: 31 lanes × 10 + 40 = 350 lane iterations over
+    // 32 lanes × 40 = 1280 slots.
     [Fact]
     public void A_32_lane_tile_with_one_slow_lane_has_efficiency_350_over_1280()
     {
         uint[] costs = Enumerable.Repeat(10u, 32).ToArray();
         costs[13] = 40;
 
-        WaveSummary s = WaveModel.Summarise(costs, 8, 4, WaveShape.Lanes32);
+        SubgroupSummary s = SubgroupModel.Summarise(costs, 8, 4, SubgroupShape.Lanes32);
 
         s.Tiles.Should().Be(1);
         s.MeanTileMax.Should().Be(40);
@@ -29,7 +31,7 @@ public class WaveModelTests
                 costs[y * 16 + x] = x < 8 ? 2u : 6u;
         costs[2 * 16 + 12] = 10;
 
-        WaveSummary s = WaveModel.Summarise(costs, 16, 4, WaveShape.Lanes32);
+        SubgroupSummary s = SubgroupModel.Summarise(costs, 16, 4, SubgroupShape.Lanes32);
 
         s.Tiles.Should().Be(2);
         s.MeanTileMax.Should().Be(6);
@@ -44,7 +46,7 @@ public class WaveModelTests
         // 9×4: one full tile plus a one-column tile whose 4 real lanes cost 5.
         uint[] costs = Enumerable.Repeat(5u, 9 * 4).ToArray();
 
-        WaveSummary s = WaveModel.Summarise(costs, 9, 4, WaveShape.Lanes32);
+        SubgroupSummary s = SubgroupModel.Summarise(costs, 9, 4, SubgroupShape.Lanes32);
 
         s.Tiles.Should().Be(2);
         s.MeanTileMax.Should().Be(5);
@@ -59,11 +61,11 @@ public class WaveModelTests
             for (int x = 0; x < 8; x++)
                 costs[y * 16 + x] = 3;
 
-        WaveSummary s = WaveModel.Summarise(costs, 16, 8, WaveShape.Lanes64);
+        SubgroupSummary s = SubgroupModel.Summarise(costs, 16, 8, SubgroupShape.Lanes64);
 
         s.MeanTileMax.Should().Be(1.5);
         s.SimdEfficiency.Should().Be(1.0);
-        WaveModel.Summarise(new uint[64], 8, 8, WaveShape.Lanes64).SimdEfficiency.Should().Be(1.0);
+        SubgroupModel.Summarise(new uint[64], 8, 8, SubgroupShape.Lanes64).SimdEfficiency.Should().Be(1.0);
     }
 
     [Fact]
@@ -72,16 +74,23 @@ public class WaveModelTests
         uint[] costs = new uint[10 * 5];
         costs[0] = 7;
         costs[4 * 10 + 9] = 3;
-        var shape = WaveShape.Lanes32;
+        var shape = SubgroupShape.Lanes32;
         uint[] tiles = new uint[shape.TilesX(10) * shape.TilesY(5)];
-        WaveModel.TileMax(costs, 10, 5, shape, tiles);
+        SubgroupModel.TileMax(costs, 10, 5, shape, tiles);
         tiles.Should().Equal(7u, 0u, 0u, 3u);
 
         uint[] pixels = new uint[costs.Length];
-        WaveModel.ExpandTiles(tiles, 10, 5, shape, pixels);
+        SubgroupModel.ExpandTiles(tiles, 10, 5, shape, pixels);
         pixels[3 * 10 + 7].Should().Be(7);
         pixels[3 * 10 + 8].Should().Be(0);
         pixels[4 * 10 + 0].Should().Be(0);
         pixels[4 * 10 + 8].Should().Be(3);
+    }
+
+    [Fact]
+    public void Shapes_are_named_by_their_lane_count()
+    {
+        SubgroupShape.Standard.Select(s => (s.Name, s.Lanes, s.TileWidth, s.TileHeight))
+            .Should().Equal(("subgroup32", 32, 8, 4), ("subgroup64", 64, 8, 8));
     }
 }
