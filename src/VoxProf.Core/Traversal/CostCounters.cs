@@ -14,7 +14,9 @@ public interface ICostCounters
     void SlabTest();
     void Descent();
     void Ascent();
-    void NodeFetch(int count);
+    /// <summary>One node record read; <paramref name="nodeIndex"/> is its place in the tree's node array, in the
+    /// order the builder wrote them, so a memory model can replay a ray's reads as addresses.</summary>
+    void NodeFetch(int nodeIndex);
     void MaskCulled(int cells);
     void MaskSkipped();
 }
@@ -27,7 +29,7 @@ public struct NoCounters : ICostCounters
     public void SlabTest() { }
     public void Descent() { }
     public void Ascent() { }
-    public void NodeFetch(int count) { }
+    public void NodeFetch(int nodeIndex) { }
     public void MaskCulled(int cells) { }
     public void MaskSkipped() { }
 }
@@ -49,7 +51,7 @@ public struct CostCounts : ICostCounters
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void SlabTest() => SlabTests++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Descent() => Descents++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Ascent() => Ascents++;
-    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void NodeFetch(int count) => NodeFetches += (uint)count;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void NodeFetch(int nodeIndex) => NodeFetches++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskCulled(int cells) => MaskCulledCells += (uint)cells;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => MaskSkippedNodes++;
 

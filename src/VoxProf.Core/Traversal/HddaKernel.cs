@@ -34,7 +34,7 @@ public static class HddaKernel
         // One DDA state: global cell coordinates at the current level, the next plane on each axis (an integer-valued
         // double), its crossing time, and the signed cell size
         ref readonly Node root = ref view.Nodes[0];
-        counters.NodeFetch(1);
+        counters.NodeFetch(0);
         ulong childMask = root.ChildMask, solidMask = root.SolidMask;
         int firstChild = root.FirstChild, firstMaterial = root.FirstMaterial;
         int shift = view.RootShift;
@@ -61,8 +61,9 @@ public static class HddaKernel
                 // Descend: refine the cell by the crossing order at the walk's key, keep t
                 ref WalkFrame f = ref path[depth++];
                 f.ChildMask = childMask; f.SolidMask = solidMask; f.FirstChild = firstChild; f.FirstMaterial = firstMaterial;
-                ref readonly Node node = ref view.Nodes[firstChild + BrickTree.Rank(childMask, bit)];
-                counters.NodeFetch(1);
+                int nodeIndex = firstChild + BrickTree.Rank(childMask, bit);
+                ref readonly Node node = ref view.Nodes[nodeIndex];
+                counters.NodeFetch(nodeIndex);
                 counters.Descent();
                 childMask = node.ChildMask; solidMask = node.SolidMask;
                 firstChild = node.FirstChild; firstMaterial = node.FirstMaterial;

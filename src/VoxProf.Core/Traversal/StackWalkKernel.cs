@@ -36,7 +36,7 @@ public static class StackWalkKernel
 
         // Enter the root at the start point
         ref readonly Node root = ref view.Nodes[0];
-        counters.NodeFetch(1);
+        counters.NodeFetch(0);
         ulong childMask = root.ChildMask, solidMask = root.SolidMask;
         int firstChild = root.FirstChild, firstMaterial = root.FirstMaterial;
         int ox = 0, oy = 0, oz = 0;
@@ -72,8 +72,9 @@ public static class StackWalkKernel
                 f.ChildMask = childMask; f.SolidMask = solidMask; f.FirstChild = firstChild; f.FirstMaterial = firstMaterial;
                 f.Ox = ox; f.Oy = oy; f.Oz = oz; f.Cx = cx; f.Cy = cy; f.Cz = cz;
                 f.TMaxX = tMaxX; f.TMaxY = tMaxY; f.TMaxZ = tMaxZ;
-                ref readonly Node node = ref view.Nodes[firstChild + BrickTree.Rank(childMask, bit)];
-                counters.NodeFetch(1);
+                int nodeIndex = firstChild + BrickTree.Rank(childMask, bit);
+                ref readonly Node node = ref view.Nodes[nodeIndex];
+                counters.NodeFetch(nodeIndex);
                 counters.Descent();
                 ox += cx << shift; oy += cy << shift; oz += cz << shift;
                 int span = 1 << shift;

@@ -44,7 +44,7 @@ public readonly struct TreeView
         while (true)
         {
             ref readonly Node node = ref Nodes[index];
-            counters.NodeFetch(1);
+            counters.NodeFetch(index);
             int bit = CellBit((x >> shift) & m, (y >> shift) & m, (z >> shift) & m);
             ulong b = 1UL << bit;
             if ((node.SolidMask & b) != 0)
