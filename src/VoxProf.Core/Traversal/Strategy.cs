@@ -1,3 +1,5 @@
+using VoxProf.Core.Strategies;
+
 namespace VoxProf.Core.Traversal;
 
 /// <summary>A traversal strategy. <see cref="Grid"/> is the reference every other strategy must agree with.</summary>
@@ -42,6 +44,8 @@ public static class StrategyNames
         strategy = default;
         return false;
     }
+
+    public static StrategyDefinition Definition(this Strategy s) => BuiltInStrategies.All[(int)s];
 
     public static string ValidList => string.Join(", ", All.Select(s => s.Name()));
 }

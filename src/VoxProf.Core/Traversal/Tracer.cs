@@ -2,6 +2,7 @@ using System.Diagnostics;
 using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Core.Traversal;
@@ -43,7 +44,7 @@ public static class Tracer
         // The prepass depends only on geometry and camera, so every strategy that uses it shares one map.
         PrepassMap? prepass = null;
         TimeSpan prepassTime = TimeSpan.Zero;
-        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s != Strategy.Grid))
+        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s.Definition().UsesPrepass))
         {
             var watch = Stopwatch.StartNew();
             prepass = PrepassMap.Compute(view, camera, request.PrepassBlock, options);
@@ -54,12 +55,14 @@ public static class Tracer
         long pixelsDone = 0;
         foreach (Strategy strategy in request.Strategies)
         {
+            StrategyDefinition definition = strategy.Definition();
             var sw = Stopwatch.StartNew();
-            var counters = new uint[CounterNames.Count][];
+            var counters = new uint[definition.CounterNames.Count][];
             for (int c = 0; c < counters.Length; c++)
                 counters[c] = new uint[request.Width * request.Height];
             var hits = new PixelHit[request.Width * request.Height];
-            PrepassMap? map = strategy == Strategy.Grid ? null : prepass;
+            PrepassMap? map = definition.UsesPrepass ? prepass : null;
+            var job = new TileJob(view, camera, map, counters, hits, request.CountWork);
 
             int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
             long before = pixelsDone;
@@ -67,10 +70,7 @@ public static class Tracer
             {
                 int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
                 int x1 = Math.Min(request.Width, x0 + TileSize), y1 = Math.Min(request.Height, y0 + TileSize);
-                if (request.CountWork)
-                    TraceTile<CostCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
-                else
-                    TraceTile<NoCounters>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                definition.TraceTile(job, x0, y0, x1, y1);
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
@@ -83,11 +83,18 @@ public static class Tracer
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
     }
 
-    private static void TraceTile<TCounters>(in TreeView view, Camera camera, Strategy strategy, PrepassMap? prepass,
-        int x0, int y0, int x1, int y1, uint[][] buffers, PixelHit[] hits)
-        where TCounters : struct, ICostCounters
+    /// <summary>The tile loop of one strategy, specialised per strategy, branching and counter type.</summary>
+    internal static void TraceTile<TStrategy, TBranching, TCounters>(in TileJob job, int x0, int y0, int x1, int y1)
+        where TStrategy : struct, IStrategy
+        where TBranching : struct, IBranching
+        where TCounters : struct, ICostCounters, ICountFlush
     {
-        Span<WalkFrame> stack = stackalloc WalkFrame[view.Depth + 1];
+        TreeView view = job.View;
+        Camera camera = job.Camera;
+        PrepassMap? prepass = job.Prepass;
+        PixelHit[] hits = job.Hits;
+        uint[][] buffers = job.Counters;
+        Span<Node> path = stackalloc Node[view.Depth + 1];
         int width = camera.Width;
         for (int y = y0; y < y1; y++)
         {
@@ -96,20 +103,13 @@ public static class Tracer
                 int pixel = y * width + x;
                 RaySetup ray = camera.Ray(x, y);
                 double tMin = prepass?.Start(x, y) ?? 0;
-                TCounters counters = default;
                 ref PixelHit hit = ref hits[pixel];
-                switch (strategy)
-                {
-                    case Strategy.Grid: GridKernel.Trace(view, ray, tMin, ref counters, ref hit); break;
-                    case Strategy.Slab: StackWalkKernel.Trace<SlabMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.Dda: StackWalkKernel.Trace<DdaMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.DdaMask: StackWalkKernel.Trace<MaskedDdaMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.Hdda: HddaKernel.Trace(view, ray, tMin, stack, ref counters, ref hit); break;
-                }
+                hit = default;
+                TCounters counters = TStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
-                if (typeof(TCounters) == typeof(CostCounts))
+                if (typeof(TCounters) != typeof(NoCounters))
                 {
-                    Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
+                    counters.Flush(buffers, pixel);
                     if (prepass != null)
                     {
                         buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);
@@ -140,3 +140,6 @@ public static class Tracer
             throw new ArgumentException("the tree was not built from this scene", nameof(r));
     }
 }
+
+/// <summary>What every tile of one strategy's trace shares: the tree, the rays, the prepass and the result buffers.</summary>
+internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork);

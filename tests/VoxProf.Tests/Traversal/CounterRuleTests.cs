@@ -202,12 +202,12 @@ public class CounterRuleTests
         var view = new TreeView(tree);
         var counters = new NoCounters();
         RayStart.Clip(view, ray, 0, ref counters, out RayStart start).Should().BeTrue();
-        var walk = DdaWalk.Start(ray, start.T, start.X, start.Y, start.Z, 1.0);
+        var walk = DdaState.Start(ray, start.T, start.FaceAxis, start.X, start.Y, start.Z, 0);
         uint sum = 0;
         for (int v = 0; v < voxels; v++)
         {
             sum += (uint)LookupDepth(tree, walk.X, walk.Y, walk.Z);
-            walk.TryStep(double.PositiveInfinity);
+            walk.TryStep(ray, double.PositiveInfinity);
         }
         return sum;
     }
