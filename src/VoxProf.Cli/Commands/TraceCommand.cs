@@ -5,6 +5,7 @@ using VoxProf.Core;
 using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Calibration;
@@ -44,7 +45,9 @@ public static class TraceCommand
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
         var fov = new Option<float?>("--fov") { Description = $"Vertical field of view in degrees, {CameraChecks.MinFovDegrees} to {CameraChecks.MaxFovDegrees} (custom camera default 60)." };
         var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
-        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
+        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {new StrategyCatalog().ValidList}, and those of --strategy-file and --strategy-assembly." };
+        var strategyFile = new Option<string[]>("--strategy-file") { Description = "C# file of strategies of your own, compiled before the trace (docs/writing-a-strategy.md); repeatable. Its code runs as yours." };
+        var strategyAssembly = new Option<string[]>("--strategy-assembly") { Description = "Built .NET library of strategies of your own; repeatable. Its code runs as yours." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
         var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
         var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
@@ -62,7 +65,7 @@ public static class TraceCommand
 
         var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries, report.json and report.html.")
         {
-            scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
+            scene, camera, eye, target, up, fov, size, strategy, strategyFile, strategyAssembly, prepass, branching, counters, scale, range, outDir, threads,
             quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration,
         };
         var sceneOptions = new SceneOptions();
@@ -73,11 +76,17 @@ public static class TraceCommand
             {
                 // Option values first: a mistake is reported before any slow work starts.
                 var (width, height) = OptionParsing.Size(parse.GetValue(size)!);
-                List<Strategy> strategies = parse.GetValue(strategy) is { } s
-                    ? OptionParsing.List<Strategy>(s, "--strategy", "strategy", StrategyNames.TryParse, StrategyNames.ValidList)
-                    : [.. StrategyNames.All];
+                StrategyCatalog catalog = LoadStrategies(parse.GetValue(strategyFile) ?? [], parse.GetValue(strategyAssembly) ?? []);
+                List<StrategyDefinition> strategies = parse.GetValue(strategy) is { } s
+                    ? OptionParsing.List<StrategyDefinition>(s, "--strategy", "strategy", catalog.TryParse, catalog.ValidList)
+                    : [.. catalog.All];
+                IReadOnlyList<string> mapNames = HeatmapNames.For(strategies);
                 List<string> heatmaps = parse.GetValue(counters) is { } c
-                    ? OptionParsing.List<string>(c, "--counters", "counter", HeatmapNames.TryParse, HeatmapNames.ValidList)
+                    ? OptionParsing.List<string>(c, "--counters", "counter", (string text, out string name) =>
+                    {
+                        name = mapNames.FirstOrDefault(n => string.Equals(n, text, StringComparison.OrdinalIgnoreCase)) ?? "";
+                        return name.Length > 0;
+                    }, string.Join(", ", mapNames))
                     : [.. HeatmapNames.Default];
                 int prepassBlock = parse.GetValue(prepass) ?? 0;
                 if (parse.GetValue(prepass) is { } k && k is not (2 or 4 or 8))
@@ -90,13 +99,13 @@ public static class TraceCommand
                     throw new InputException($"--threads: {threadCount} is not valid, expected 0 (every processor) or more");
                 ScaleKind scaleKind = OptionParsing.Choice(parse.GetValue(scale)!, "--scale", "linear", "log") == "log" ? ScaleKind.Log : ScaleKind.Linear;
                 (double Min, double Max)? fixedRange = parse.GetValue(range) is { } r ? OptionParsing.Range(r) : null;
-                Strategy? baselineStrategy = null;
+                StrategyDefinition? baselineStrategy = null;
                 if (parse.GetValue(baseline) is { } b)
                 {
-                    if (!StrategyNames.TryParse(b.Trim(), out Strategy bs))
-                        throw new InputException($"--baseline: unknown strategy '{b}'; expected one of: {StrategyNames.ValidList}");
+                    if (!catalog.TryParse(b.Trim(), out StrategyDefinition bs))
+                        throw new InputException($"--baseline: unknown strategy '{b}'; expected one of: {catalog.ValidList}");
                     if (!strategies.Contains(bs))
-                        throw new InputException($"--baseline: {bs.Name()} is not among the traced strategies ({string.Join(", ", strategies.Select(x => x.Name()))})");
+                        throw new InputException($"--baseline: {bs.Name} is not among the traced strategies ({string.Join(", ", strategies.Select(x => x.Name))})");
                     baselineStrategy = bs;
                 }
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
@@ -121,7 +130,7 @@ public static class TraceCommand
                 string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
-                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
+                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name).ToArray()) : null;
                 ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
                 var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
@@ -158,6 +167,17 @@ public static class TraceCommand
             });
         });
         return cmd;
+    }
+
+    /// <summary>The built-in strategies plus those of every file and library named, in the order given.</summary>
+    private static StrategyCatalog LoadStrategies(IEnumerable<string> files, IEnumerable<string> assemblies)
+    {
+        var catalog = new StrategyCatalog();
+        foreach (string file in files)
+            catalog.Add(StrategyFiles.Compile(file));
+        foreach (string assembly in assemblies)
+            catalog.Add(StrategyFiles.LoadAssembly(assembly));
+        return catalog;
     }
 
     private static string SafeName(string name)

@@ -17,7 +17,7 @@ public sealed record TraceRequest(
     CameraSpec Camera,
     int Width,
     int Height,
-    IReadOnlyList<Strategy> Strategies,
+    IReadOnlyList<StrategyDefinition> Strategies,
     int PrepassBlock = 0,
     int Threads = 0,
     bool CountWork = true);
@@ -44,7 +44,7 @@ public static class Tracer
         // The prepass depends only on geometry and camera, so every strategy that uses it shares one map.
         PrepassMap? prepass = null;
         TimeSpan prepassTime = TimeSpan.Zero;
-        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s.Definition().UsesPrepass))
+        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s.UsesPrepass))
         {
             var watch = Stopwatch.StartNew();
             prepass = PrepassMap.Compute(view, camera, request.PrepassBlock, options);
@@ -53,9 +53,8 @@ public static class Tracer
 
         var results = new List<StrategyResult>();
         long pixelsDone = 0;
-        foreach (Strategy strategy in request.Strategies)
+        foreach (StrategyDefinition definition in request.Strategies)
         {
-            StrategyDefinition definition = strategy.Definition();
             var sw = Stopwatch.StartNew();
             var counters = new uint[definition.CounterNames.Count][];
             for (int c = 0; c < counters.Length; c++)
@@ -77,7 +76,7 @@ public static class Tracer
             pixelsDone = before + (long)request.Width * request.Height;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
-            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, elapsed));
+            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed));
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
@@ -136,6 +135,12 @@ public static class Tracer
             throw new ArgumentOutOfRangeException(nameof(r), "image size must be positive");
         if (r.PrepassBlock is not (0 or 2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(r), "prepass block must be 0, 2, 4 or 8");
+        var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        foreach (StrategyDefinition s in r.Strategies)
+        {
+            if (!names.Add(s.Name))
+                throw new ArgumentException($"strategy '{s.Name}' is requested twice", nameof(r));
+        }
         if (r.Tree.ExtentX != r.Scene.ExtentX || r.Tree.ExtentY != r.Scene.ExtentY || r.Tree.ExtentZ != r.Scene.ExtentZ)
             throw new ArgumentException("the tree was not built from this scene", nameof(r));
     }

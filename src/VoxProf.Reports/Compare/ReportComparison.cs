@@ -87,6 +87,9 @@ public sealed class ReportComparison
             var cs = candidateByName[bs.Name];
             foreach (var m in comparable)
             {
+                // A counter of another strategy's own: neither side measures it for this strategy.
+                if (!bs.Values.ContainsKey(m.Name) && !cs.Values.ContainsKey(m.Name))
+                    continue;
                 // A null value was not measured (mismatch without the grid reference): not a 0, so not comparable.
                 if (bs.Value(m.Name) is { } bv && cs.Value(m.Name) is { } cv)
                     changes.Add(new MetricChange(bs.Name, m, bv, cv));

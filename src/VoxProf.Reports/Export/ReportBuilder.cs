@@ -1,4 +1,5 @@
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Metrics;
@@ -15,12 +16,14 @@ public static class ReportBuilder
         var tree = run.Tree;
         var cam = run.Camera;
         var settings = run.Settings;
-        string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
+        string[] counters = CounterNames.All.Select(c => c.Name()).Concat(run.Results.SelectMany(r => r.CounterNames))
+            .Distinct(StringComparer.OrdinalIgnoreCase).ToArray();
 
         var calibration = options.Calibration?.Model;
         var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
-            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration)
+            ? MetricCatalogue.Describe(stats.SelectMany(s => s.Measures.Select(m => m.Measure)).DistinctBy(m => m.Name, StringComparer.OrdinalIgnoreCase),
+                stats[0].Subgroups.Select(g => g.Shape), calibration)
             : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
@@ -38,7 +41,7 @@ public static class ReportBuilder
                 Scale = options.Scale == ScaleKind.Log ? "log" : "linear",
                 RangeMin = options.RangeMin,
                 RangeMax = options.RangeMax,
-                Baseline = Baseline(stats, options.Baseline)?.Name(),
+                Baseline = Baseline(stats, options.Baseline)?.Name,
                 PixelData = options.PixelData,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
@@ -46,7 +49,7 @@ public static class ReportBuilder
             metrics,
             strategies,
             options.Environment,
-            new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name(), r => r.Elapsed.TotalSeconds))
+            new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name, r => r.Elapsed.TotalSeconds))
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
             });
@@ -72,11 +75,11 @@ public static class ReportBuilder
     /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid
     /// reference, which costs an order of magnitude more, would all be tiny. Grid only when nothing else was traced.
     /// </summary>
-    public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
+    public static StrategyDefinition? Baseline(IReadOnlyList<StrategyStatistics> stats, StrategyDefinition? requested)
     {
         if (requested is { } r && stats.Any(s => s.Strategy == r))
             return r;
-        return stats.FirstOrDefault(s => s.Strategy != Strategy.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
+        return stats.FirstOrDefault(s => s.Strategy != BuiltInStrategies.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
     }
 
     /// <summary>The scale of every heatmap as the heatmap writer draws it (<see cref="HeatmapExporter.ScaleFor"/>).</summary>
@@ -85,10 +88,10 @@ public static class ReportBuilder
         var ranges = new List<HeatmapRange>();
         foreach (string map in context.Options.Heatmaps)
         {
-            foreach (StrategyResult r in context.Run.Results)
+            foreach (StrategyResult r in context.Run.Results.Where(r => HeatmapNames.AppliesTo(map, r.Strategy)))
             {
                 HeatmapScale scale = HeatmapExporter.ScaleFor(map, context, r);
-                ranges.Add(new HeatmapRange(r.Strategy.Name(), map, OutputNames.Heatmap(r.Strategy, map),
+                ranges.Add(new HeatmapRange(r.Strategy.Name, map, OutputNames.Heatmap(r.Strategy.Name, map),
                     scale.Kind == ScaleKind.Log ? "log" : "linear", scale.Min, scale.Max));
             }
         }
@@ -98,7 +101,7 @@ public static class ReportBuilder
     private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
     {
         string name = s.Name;
-        var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
+        var files = options.Heatmaps.Where(h => HeatmapNames.AppliesTo(h, s.Strategy)).Select(h => OutputNames.Heatmap(name, h)).ToList();
         if (s.MismatchPixels > 0)
             files.Add(OutputNames.Mismatch(name));
         if (options.PixelData)

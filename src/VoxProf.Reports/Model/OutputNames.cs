@@ -20,7 +20,6 @@ public static partial class OutputNames
 
     public static string PixelCsv(string strategy) => $"pixels-{strategy}.csv";
 
-    public static string Heatmap(Strategy s, string map) => Heatmap(s.Name(), map);
 
     /// <summary>
     /// Whether a file name is one voxprof writes into an output folder (report, compare and HTML files, images, pixel

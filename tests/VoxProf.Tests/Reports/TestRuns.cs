@@ -2,6 +2,7 @@ using System.Numerics;
 using VoxProf.Core.Calibration;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Calibration;
@@ -41,12 +42,12 @@ internal static class TestRuns
         var settings = new TraceSettings(width, height, 4, 0, 2);
         return new TraceRun(scene, camera, settings, tree,
         [
-            Result(Strategy.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30),
-            Result(Strategy.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10),
+            Result(BuiltInStrategies.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30),
+            Result(BuiltInStrategies.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10),
         ]);
     }
 
-    public static StrategyResult Result(Strategy s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)
+    public static StrategyResult Result(StrategyDefinition s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)
     {
         var counters = new uint[CounterNames.Count][];
         for (int c = 0; c < counters.Length; c++)

@@ -1,6 +1,7 @@
 using System.Globalization;
 using System.Text;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -33,7 +34,7 @@ public class CountPinTests
                     CameraSpec cam = KernelAgreementTests.RandomCamera(rng, size, inside: c % 2 == 0);
                     int prepass = c == 3 ? 4 : 0;
                     lines.AddRange(Pins($"b{branching} s{seed} c{c} p{prepass}",
-                        Tracer.Run(new TraceRequest(scene, tree, cam, 40, 28, [.. StrategyNames.All], prepass, 2))));
+                        Tracer.Run(new TraceRequest(scene, tree, cam, 40, 28, [.. BuiltInStrategies.All], prepass, 2))));
                 }
             }
         }
@@ -52,7 +53,7 @@ public class CountPinTests
             {
                 int prepass = cam.Name == "main-street" ? 4 : 0;
                 lines.AddRange(Pins($"b{branching} {cam.Name} p{prepass}",
-                    Tracer.Run(new TraceRequest(scene, tree, cam, 48, 27, [.. StrategyNames.All], prepass, 2))));
+                    Tracer.Run(new TraceRequest(scene, tree, cam, 48, 27, [.. BuiltInStrategies.All], prepass, 2))));
             }
         }
         Check(lines, DemoPins, "demo");
@@ -93,7 +94,7 @@ public class CountPinTests
                 hits = Fnv(hits, (uint)(t >> 32));
                 hits = Fnv(hits, (uint)(h.Material | ((int)h.Face << 8) | (h.Hit ? 1 << 16 : 0)));
             }
-            yield return $"{label} {r.Strategy.Name()}{totals} {hash:x16} {hits:x16}";
+            yield return $"{label} {r.Strategy.Name}{totals} {hash:x16} {hits:x16}";
         }
     }
 

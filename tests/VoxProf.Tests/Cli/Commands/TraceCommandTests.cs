@@ -2,6 +2,7 @@ using System.CommandLine;
 using VoxProf.Cli;
 using VoxProf.Cli.Commands;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Tests.Reports;
@@ -173,7 +174,7 @@ public sealed class TraceCommandTests : IDisposable
         var (code, _, error) = Run($"trace scene.json --size 16x8 -s grid,dda -c gate -b grid -q -o {_dir}");
 
         code.Should().Be(ExitCodes.Ok, error);
-        _requests.Single().Strategies.Should().Equal(Strategy.Grid, Strategy.Dda);
+        _requests.Single().Strategies.Should().Equal(BuiltInStrategies.Grid, BuiltInStrategies.Dda);
         File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("| grid (baseline) |");
     }
 
