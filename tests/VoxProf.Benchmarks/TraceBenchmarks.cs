@@ -24,7 +24,7 @@ public class TraceBenchmarks
     [Params(0, 1)]
     public int CameraIndex { get; set; }
 
-    public static IEnumerable<string> Strategies => BuiltInStrategies.All.Where(s => s != VoxProf.Core.Traversal.BuiltInStrategies.Grid).Select(s => s.Name);
+    public static IEnumerable<string> Strategies => BuiltInStrategies.All.Where(s => s != VoxProf.Core.Strategies.BuiltInStrategies.Grid).Select(s => s.Name);
 
     [GlobalSetup]
     public void Setup()

@@ -24,7 +24,7 @@ public static class StrategyFiles
         SyntaxTree tree = CSharpSyntaxTree.ParseText(text, new CSharpParseOptions(LanguageVersion.Latest), path: path);
         var compilation = CSharpCompilation.Create(
             "voxprof-strategies-" + Path.GetFileNameWithoutExtension(path),
-            [tree],
+            [tree, ImplicitUsings],
             References.Value,
             new CSharpCompilationOptions(OutputKind.DynamicallyLinkedLibrary, optimizationLevel: OptimizationLevel.Release,
                 nullableContextOptions: NullableContextOptions.Enable));
@@ -101,6 +101,11 @@ public static class StrategyFiles
         }
         return definitions;
     }
+
+    /// <summary>The namespaces a new .NET project imports by default, so a strategy file reads like one of its files.</summary>
+    private static readonly SyntaxTree ImplicitUsings = CSharpSyntaxTree.ParseText(
+        "global using System; global using System.Collections.Generic; global using System.Linq;",
+        new CSharpParseOptions(LanguageVersion.Latest), path: "implicit-usings.cs");
 
     private static string ReadText(string path)
     {
