@@ -11,8 +11,6 @@ public class SampleStrategyTests
 {
     private static readonly string Samples = Path.Combine(AppContext.BaseDirectory, "samples");
 
-    private static readonly Lazy<Scene> Demo = new(() => SceneLoader.Load(Path.Combine(Samples, "stonebrook-quarry.vpscene.json")));
-
     internal static readonly Lazy<StrategyDefinition> HddaAgain = new(() =>
         StrategyFiles.Compile(Path.Combine(Samples, "strategies", "hdda-again.cs")).Single());
 
@@ -24,10 +22,10 @@ public class SampleStrategyTests
     [InlineData(4)]
     public void The_sample_that_writes_hdda_again_counts_exactly_what_hdda_counts(int branching)
     {
-        BrickTree tree = TreeBuilder.Build(Demo.Value, branching, 2);
-        foreach (CameraSpec cam in Demo.Value.Cameras)
+        BrickTree tree = DemoTrees.Tree(branching);
+        foreach (CameraSpec cam in DemoTrees.Scene.Cameras)
         {
-            TraceRun run = Tracer.Run(new TraceRequest(Demo.Value, tree, cam, 48, 27, [BuiltInStrategies.Hdda, HddaAgain.Value], 0, 2));
+            TraceRun run = Tracer.Run(new TraceRequest(DemoTrees.Scene, tree, cam, 48, 27, [BuiltInStrategies.Hdda, HddaAgain.Value], 0, 2));
             StrategyResult hdda = run.Results[0], again = run.Results[1];
             again.Strategy.Source.Should().EndWith("hdda-again.cs");
             again.CounterNames.Should().Equal(hdda.CounterNames);
@@ -43,13 +41,13 @@ public class SampleStrategyTests
     [InlineData(4)]
     public void The_box_skip_sample_hits_what_grid_hits_on_every_pixel_of_the_demo_and_skips_children(int branching)
     {
-        BrickTree tree = TreeBuilder.Build(Demo.Value, branching, 2);
+        BrickTree tree = DemoTrees.Tree(branching);
         long skips = 0, tests = 0;
-        foreach (CameraSpec cam in Demo.Value.Cameras)
+        foreach (CameraSpec cam in DemoTrees.Scene.Cameras)
         {
             foreach (int prepass in new[] { 0, 4 })
             {
-                TraceRun run = Tracer.Run(new TraceRequest(Demo.Value, tree, cam, 48, 27,
+                TraceRun run = Tracer.Run(new TraceRequest(DemoTrees.Scene, tree, cam, 48, 27,
                     [BuiltInStrategies.Grid, BoxSkip.Value], prepass, 2));
                 KernelAgreementTests.Mismatches(run, BoxSkip.Value).Should().Be(0, $"camera {cam.Name}, prepass {prepass}");
                 StrategyResult r = run.Results[1];

@@ -4,6 +4,7 @@ using VoxProf.Core.Scenes;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
+using VoxProf.Tests.Strategies;
 
 namespace VoxProf.Tests.Traversal;
 
@@ -15,8 +16,6 @@ namespace VoxProf.Tests.Traversal;
 /// </summary>
 public class CountPinTests
 {
-    private static readonly string Samples = Path.Combine(AppContext.BaseDirectory, "samples");
-
     [Fact]
     public void Seeded_scenes_count_exactly_what_the_kernels_counted_before_the_rebuild()
     {
@@ -44,11 +43,11 @@ public class CountPinTests
     [Fact]
     public void The_demo_scene_counts_exactly_what_the_kernels_counted_before_the_rebuild()
     {
-        Scene scene = SceneLoader.Load(Path.Combine(Samples, "stonebrook-quarry.vpscene.json"));
+        Scene scene = DemoTrees.Scene;
         var lines = new List<string>();
         foreach (int branching in new[] { 2, 4 })
         {
-            BrickTree tree = TreeBuilder.Build(scene, branching, 2);
+            BrickTree tree = DemoTrees.Tree(branching);
             foreach (CameraSpec cam in scene.Cameras)
             {
                 int prepass = cam.Name == "main-street" ? 4 : 0;
