@@ -56,30 +56,44 @@ public struct DdaState
 
     /// <summary>Advances to the next cell along the smallest t; false (and no change) when that cell starts after <paramref name="tEnd"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public bool TryStep(in RaySetup ray, double tEnd)
+    public bool TryStep(in RaySetup ray, double tEnd) => TryStep<Branching2>(ray, tEnd, out _);
+
+    /// <summary>
+    /// As <see cref="TryStep(in RaySetup, double)"/>, and tells whether the step left the node that held the cell
+    /// (<see cref="LeftNode{TBranching}"/>), worked out in the branch that knows the axis.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool TryStep<TBranching>(in RaySetup ray, double tEnd, out bool leftNode) where TBranching : struct, IBranching
     {
         // One comparison chain, then the next plane's time in closed form; the cell moves in the same branch.
         // A parallel axis keeps +∞ and is never chosen: some axis is not parallel, and its time is finite.
+        int last = NodeCells<TBranching>.Last;
         if (TMaxX <= TMaxY && TMaxX <= TMaxZ)
         {
+            leftNode = false;
             if (TMaxX > tEnd) return false;
             T = TMaxX; X += ray.StepX; LastAxis = 0;
             PlaneX += PlaneStepX;
             TMaxX = CrossingOrder.Time(PlaneX, ray.Ox, ray.Ix);
+            leftNode = (X & last) == (ray.StepX > 0 ? 0 : last);
         }
         else if (TMaxY <= TMaxZ)
         {
+            leftNode = false;
             if (TMaxY > tEnd) return false;
             T = TMaxY; Y += ray.StepY; LastAxis = 1;
             PlaneY += PlaneStepY;
             TMaxY = CrossingOrder.Time(PlaneY, ray.Oy, ray.Iy);
+            leftNode = (Y & last) == (ray.StepY > 0 ? 0 : last);
         }
         else
         {
+            leftNode = false;
             if (TMaxZ > tEnd) return false;
             T = TMaxZ; Z += ray.StepZ; LastAxis = 2;
             PlaneZ += PlaneStepZ;
             TMaxZ = CrossingOrder.Time(PlaneZ, ray.Oz, ray.Iz);
+            leftNode = (Z & last) == (ray.StepZ > 0 ? 0 : last);
         }
         return true;
     }

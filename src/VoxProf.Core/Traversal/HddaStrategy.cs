@@ -54,10 +54,10 @@ public struct HddaStrategy : IStrategy
             }
 
             // Advance to the next cell at this level along the smallest t
-            if (!dda.TryStep(ray, tExit))
+            if (!dda.TryStep<TBranching>(ray, tExit, out bool leftNode))
                 return counters;
             counters.CellStep();
-            if (!dda.LeftNode<TBranching>(ray))
+            if (!leftNode)
                 continue;
 
             // Ascend while the new cell lies outside the current node: a shift names the neighbouring coarse cell

@@ -79,13 +79,16 @@ public static class StackWalk
                 // Advance to the next cell of this node
                 if (TMode.StepsWithDda)
                 {
-                    if (!dda.TryStep(ray, tExit))
+                    if (!dda.TryStep<TBranching>(ray, tExit, out leftNode))
                         return counters;
                 }
-                else if (!SlabStep(ray, ref dda, tExit, ref counters))
-                    return counters;
+                else
+                {
+                    if (!SlabStep(ray, ref dda, tExit, ref counters))
+                        return counters;
+                    leftNode = dda.LeftNode<TBranching>(ray);
+                }
                 counters.CellStep();
-                leftNode = dda.LeftNode<TBranching>(ray);
                 if (!leftNode &&
                     (!TMode.CullsWithMask || MaskAdmits<TBranching, TCounters>(view, node, octant, dda.CellBit<TBranching>(), ref counters, countCulled: false)))
                     continue;
