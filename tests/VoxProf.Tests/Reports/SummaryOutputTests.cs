@@ -84,7 +84,7 @@ public class SummaryOutputTests
             doc.Strategies.Should().OnlyContain(s => s.Values.ContainsKey(m.Name));
             VoxProf.Reports.Compare.GateRule.Parse($"dda.{m.Name}:5%").MatchesMetric(m.Name).Should().BeTrue(m.Name);
         }
-        foreach (var c in MetricColumns.For(MetricColumns.Summary, prepass: false))
+        foreach (var c in MetricColumns.For(MetricColumns.Summary, prepass: false, memory: false))
             md.Should().Contain($" `{c.Metric}` |");
     }
 

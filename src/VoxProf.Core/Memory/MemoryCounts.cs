@@ -1,0 +1,86 @@
+using System.Runtime.CompilerServices;
+using VoxProf.Core.Traversal;
+
+namespace VoxProf.Core.Memory;
+
+/// <summary>
+/// The pixel's node reads of one tracer tile, in traversal order: pixels in the order the tracer runs them (row by row
+/// within the tile), each pixel's reads one after another. Reused from tile to tile, so tracing allocates only while a
+/// buffer is still growing.
+/// </summary>
+public sealed class TileReads
+{
+    private int[] _reads = new int[4096];
+    private int[] _pixelEnds = new int[Tracer.TileSize * Tracer.TileSize];
+
+    /// <summary>The model's buffers that travel with this recorder, so one thread's tile needs no others.</summary>
+    internal TileScratch Scratch { get; } = new();
+
+    public int X0 { get; private set; }
+    public int Y0 { get; private set; }
+    public int X1 { get; private set; }
+    public int Y1 { get; private set; }
+
+    /// <summary>Pixels finished so far.</summary>
+    public int Pixels { get; private set; }
+
+    /// <summary>Reads recorded so far.</summary>
+    public int Count { get; private set; }
+
+    /// <summary>Starts the tile [x0, x1) × [y0, y1), forgetting the last one.</summary>
+    public void Begin(int x0, int y0, int x1, int y1)
+    {
+        (X0, Y0, X1, Y1) = (x0, y0, x1, y1);
+        int pixels = (x1 - x0) * (y1 - y0);
+        if (_pixelEnds.Length < pixels)
+            _pixelEnds = new int[pixels];
+        Scratch.EnsurePixels(pixels);
+        Pixels = 0;
+        Count = 0;
+    }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void Add(int nodeIndex)
+    {
+        if (Count == _reads.Length)
+            Array.Resize(ref _reads, _reads.Length * 2);
+        _reads[Count++] = nodeIndex;
+    }
+
+    /// <summary>Closes the current pixel: the reads since the last call are its own.</summary>
+    public void EndPixel() => _pixelEnds[Pixels++] = Count;
+
+    /// <summary>The node indices pixel <paramref name="k"/> of the tile read (k counts row by row from the tile's corner).</summary>
+    public ReadOnlySpan<int> Of(int k)
+    {
+        int start = k == 0 ? 0 : _pixelEnds[k - 1];
+        return _reads.AsSpan(start, _pixelEnds[k] - start);
+    }
+}
+
+/// <summary>
+/// Counts like <see cref="CostCounts"/> and also records each node read's index in the tile's <see cref="TileReads"/>,
+/// for the memory model. Only the recording differs, so the counts are exactly those of a run without the model.
+/// </summary>
+public struct MemoryCounts : ICostCounters
+{
+    public CostCounts Counts;
+    public readonly TileReads Reads;
+
+    public MemoryCounts(TileReads reads) => Reads = reads;
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Iteration() => Counts.Iteration();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void CellStep() => Counts.CellStep();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void SlabTest() => Counts.SlabTest();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Descent() => Counts.Descent();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Ascent() => Counts.Ascent();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskCulled(int cells) => Counts.MaskCulled(cells);
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => Counts.MaskSkipped();
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void NodeFetch(int nodeIndex)
+    {
+        Counts.NodeFetch(nodeIndex);
+        Reads.Add(nodeIndex);
+    }
+}
