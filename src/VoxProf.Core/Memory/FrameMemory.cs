@@ -34,18 +34,25 @@ public sealed class FrameMemory
         _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
     }
 
-    /// <summary>A recorder for the tile [x0, x1) × [y0, y1); hand it back through <see cref="EndTile"/>.</summary>
+    /// <summary>
+    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts"/> until
+    /// <see cref="EndTile"/>, which must run on the same thread.
+    /// </summary>
     public TileReads BeginTile(int x0, int y0, int x1, int y1)
     {
         if (!_pool.TryTake(out TileReads? reads))
             reads = new TileReads();
         reads.Begin(x0, y0, x1, y1);
+        MemoryCounts.Attach(reads);
         return reads;
     }
 
     /// <summary>Models the recorded tile, writing each pixel's distinct lines into <paramref name="cacheLines"/> (the image's buffer).</summary>
     public void EndTile(TileReads reads, uint[] cacheLines)
     {
+        MemoryCounts.Attach(null);
+        if (reads.Pixels != (reads.X1 - reads.X0) * (reads.Y1 - reads.Y0))
+            throw new InvalidOperationException($"the tile's {reads.Pixels} pixels were not all flushed");
         TileScratch scratch = reads.Scratch;
         PixelLines(reads, scratch, cacheLines);
         for (int i = 0; i < _groupLines.Length; i++)

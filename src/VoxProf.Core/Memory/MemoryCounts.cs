@@ -59,15 +59,21 @@ public sealed class TileReads
 }
 
 /// <summary>
-/// Counts like <see cref="CostCounts"/> and also records each node read's index in the tile's <see cref="TileReads"/>,
-/// for the memory model. Only the recording differs, so the counts are exactly those of a run without the model.
+/// Counts like <see cref="CostCounts"/> and also records each node read's index in the <see cref="TileReads"/> the
+/// current thread's tile attached. Kernels count in a local they start from <c>default</c>, so the recorder cannot
+/// travel inside the struct: it is found through a thread-static field that <see cref="FrameMemory"/> sets for the
+/// length of one tile on the thread that traces it. Only the recording differs, so the counts are exactly those of a
+/// run without the model.
 /// </summary>
 public struct MemoryCounts : ICostCounters
 {
-    public CostCounts Counts;
-    public readonly TileReads Reads;
+    [ThreadStatic]
+    private static TileReads? _current;
 
-    public MemoryCounts(TileReads reads) => Reads = reads;
+    public CostCounts Counts;
+
+    /// <summary>Makes <paramref name="reads"/> the recorder of this thread's node reads (null to detach).</summary>
+    internal static void Attach(TileReads? reads) => _current = reads;
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Iteration() => Counts.Iteration();
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void CellStep() => Counts.CellStep();
@@ -81,6 +87,13 @@ public struct MemoryCounts : ICostCounters
     public void NodeFetch(int nodeIndex)
     {
         Counts.NodeFetch(nodeIndex);
-        Reads.Add(nodeIndex);
+        _current!.Add(nodeIndex);
+    }
+
+    /// <summary>Writes the ray's counts like <see cref="CostCounts.Flush"/> and closes the pixel's reads.</summary>
+    public readonly void Flush(uint[][] buffers, int pixel)
+    {
+        Counts.Flush(buffers, pixel);
+        _current!.EndPixel();
     }
 }

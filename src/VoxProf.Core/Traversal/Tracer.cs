@@ -76,16 +76,16 @@ public static class Tracer
                 {
                     // The memory model: the same kernels, with a counter that also records each node read.
                     TileReads reads = memory.BeginTile(x0, y0, x1, y1);
-                    TraceTile(view, camera, strategy, map, x0, y0, x1, y1, counters, hits, new MemoryCounts(reads));
+                    TraceTile<MemoryCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
                     memory.EndTile(reads, counters[(int)Counter.CacheLines]);
                 }
                 else if (request.CountWork)
                 {
-                    TraceTile<CostCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits, default);
+                    TraceTile<CostCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
                 }
                 else
                 {
-                    TraceTile<NoCounters>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits, default);
+                    TraceTile<NoCounters>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
                 }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
@@ -100,7 +100,7 @@ public static class Tracer
     }
 
     private static void TraceTile<TCounters>(in TreeView view, Camera camera, Strategy strategy, PrepassMap? prepass,
-        int x0, int y0, int x1, int y1, uint[][] buffers, PixelHit[] hits, TCounters start)
+        int x0, int y0, int x1, int y1, uint[][] buffers, PixelHit[] hits)
         where TCounters : struct, ICostCounters
     {
         Span<WalkFrame> stack = stackalloc WalkFrame[view.Depth + 1];
@@ -112,7 +112,7 @@ public static class Tracer
                 int pixel = y * width + x;
                 RaySetup ray = camera.Ray(x, y);
                 double tMin = prepass?.Start(x, y) ?? 0;
-                TCounters counters = start;
+                TCounters counters = default;
                 ref PixelHit hit = ref hits[pixel];
                 switch (strategy)
                 {
@@ -126,15 +126,9 @@ public static class Tracer
                 if (typeof(TCounters) == typeof(CostCounts) || typeof(TCounters) == typeof(MemoryCounts))
                 {
                     if (typeof(TCounters) == typeof(MemoryCounts))
-                    {
-                        ref MemoryCounts recorded = ref Unsafe.As<TCounters, MemoryCounts>(ref counters);
-                        recorded.Counts.Flush(buffers, pixel);
-                        recorded.Reads.EndPixel();
-                    }
+                        Unsafe.As<TCounters, MemoryCounts>(ref counters).Flush(buffers, pixel);
                     else
-                    {
                         Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
-                    }
                     if (prepass != null)
                     {
                         buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);

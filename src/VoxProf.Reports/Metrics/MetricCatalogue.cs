@@ -120,12 +120,13 @@ public static class MetricCatalogue
             s => s.MismatchPixels));
         if (memory is not null)
         {
-            string cache = string.Create(CultureInfo.InvariantCulture, $"a {memory.CacheBytes / 1024.0:0.##} KiB {memory.Ways}-way LRU cache of {memory.LineBytes}-byte lines, empty at each {Tracer.TileSize}×{Tracer.TileSize}-pixel tile");
-            entries.Add(new(new MetricDescriptor(Name(Cache, CacheAccesses), $"line requests of {memory.Group.Lanes}-lane lockstep steps replayed through {cache}",
+            string cache = string.Create(CultureInfo.InvariantCulture,
+                $"{memory.CacheBytes / 1024.0:0.##} KiB, {memory.Ways}-way LRU, {memory.LineBytes}-byte lines, empty at each {Tracer.TileSize}×{Tracer.TileSize}-pixel tile");
+            entries.Add(new(new MetricDescriptor(Name(Cache, CacheAccesses), $"line requests of {memory.Group.Lanes}-lane lockstep steps replayed through the simulated cache ({cache})",
                 "requests", "0", Better.Lower), s => s.Memory?.Accesses));
-            entries.Add(new(new MetricDescriptor(Name(Cache, CacheHitRate), $"share of those requests {cache} served", "ratio", "0.0000", Better.Higher),
+            entries.Add(new(new MetricDescriptor(Name(Cache, CacheHitRate), $"share of its line requests the simulated cache served ({cache})", "ratio", "0.0000", Better.Higher),
                 s => s.Memory?.HitRate));
-            entries.Add(new(new MetricDescriptor(Name(Cache, CacheBytesFetched), $"bytes the misses of {cache} fetched from the next level",
+            entries.Add(new(new MetricDescriptor(Name(Cache, CacheBytesFetched), $"bytes the simulated cache's misses fetched from the next level ({cache})",
                 "bytes", "0", Better.Lower), s => s.Memory?.BytesFetched));
         }
         if (calibration is not null)

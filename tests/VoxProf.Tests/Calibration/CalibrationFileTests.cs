@@ -68,8 +68,8 @@ public sealed class CalibrationFileTests : IDisposable
     [Fact]
     public void An_unknown_feature_is_named_with_its_JSON_path_and_the_valid_ones()
     {
-        string json = Edited(n => n["costs"]![1]!["feature"] = "cache-lines");
-        ErrorOf(json).Should().StartWith(Path.Combine(_tmp.Path, "calibration.json") + ": $.costs[1].feature: 'cache-lines' is not a measure this voxprof counts; expected pixels or one of: iterations,");
+        string json = Edited(n => n["costs"]![1]!["feature"] = "dram-pages");
+        ErrorOf(json).Should().StartWith(Path.Combine(_tmp.Path, "calibration.json") + ": $.costs[1].feature: 'dram-pages' is not a measure this voxprof counts; expected pixels or one of: iterations,");
     }
 
     [Fact]
