@@ -68,26 +68,25 @@ public sealed class FrameMemory
         SubgroupShape.Standard.Select((s, i) => new GroupLines(s, _groupLines[i])).ToArray(),
         Interlocked.Read(ref _accesses), Interlocked.Read(ref _hits));
 
-    /// <summary>Each pixel's distinct lines, kept sorted per pixel in the scratch for the group unions.</summary>
+    /// <summary>Each pixel's distinct lines, kept per pixel in the scratch for the group unions.</summary>
     private void PixelLines(TileReads reads, TileScratch scratch, uint[] cacheLines)
     {
         int shift = _settings.LineShift;
         int tileWidth = reads.X1 - reads.X0;
-        int[] lines = scratch.Lines(2 * reads.Count);
+        LineSet set = scratch.Set;
         int at = 0;
         for (int k = 0; k < reads.Pixels; k++)
         {
-            int start = at;
+            set.Clear();
             foreach (int node in reads.Of(k))
             {
-                int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
-                lines[at++] = first;
-                if (last != first)
-                    lines[at++] = last;
+                set.Add(NodeLayout.FirstLine(node, shift));
+                set.Add(NodeLayout.LastLine(node, shift));
             }
-            at = start + SortDistinct(lines.AsSpan(start, at - start));
+            set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
+            at += set.Count;
             scratch.PixelEnds[k] = at;
-            cacheLines[(reads.Y0 + k / tileWidth) * _width + reads.X0 + k % tileWidth] = (uint)(at - start);
+            cacheLines[(reads.Y0 + k / tileWidth) * _width + reads.X0 + k % tileWidth] = (uint)set.Count;
         }
     }
 
@@ -95,36 +94,23 @@ public sealed class FrameMemory
     {
         int tileWidth = reads.X1 - reads.X0;
         int tilesX = shape.TilesX(_width);
+        LineSet set = scratch.Set;
         for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
         {
             for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
             {
-                int n = 0;
-                int[] union = scratch.Union(GroupSpan(reads, scratch, shape, gx, gy, tileWidth));
+                set.Clear();
                 for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
                 {
                     for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
                     {
-                        ReadOnlySpan<int> own = scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0);
-                        own.CopyTo(union.AsSpan(n));
-                        n += own.Length;
+                        foreach (int line in scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0))
+                            set.Add(line);
                     }
                 }
-                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)SortDistinct(union.AsSpan(0, n));
+                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)set.Count;
             }
         }
-    }
-
-    /// <summary>How many pixel lines the group holds at most: the sum of its pixels' distinct lines.</summary>
-    private static int GroupSpan(TileReads reads, TileScratch scratch, SubgroupShape shape, int gx, int gy, int tileWidth)
-    {
-        int n = 0;
-        for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
-        {
-            for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
-                n += scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0).Length;
-        }
-        return n;
     }
 
     /// <summary>
@@ -180,20 +166,5 @@ public sealed class FrameMemory
             }
         }
         return (accesses, hits);
-    }
-
-    /// <summary>Sorts <paramref name="values"/> and moves its distinct values to the front; returns how many there are.</summary>
-    public static int SortDistinct(Span<int> values)
-    {
-        if (values.Length == 0)
-            return 0;
-        values.Sort();
-        int n = 1;
-        for (int i = 1; i < values.Length; i++)
-        {
-            if (values[i] != values[n - 1])
-                values[n++] = values[i];
-        }
-        return n;
     }
 }

@@ -6,25 +6,21 @@ namespace VoxProf.Core.Memory;
 internal sealed class TileScratch
 {
     private int[] _lines = new int[8192];
-    private int[] _union = new int[8192];
     private LruCache? _cache;
 
-    /// <summary>Where each pixel's sorted distinct lines end in <see cref="Lines"/>.</summary>
+    /// <summary>Where each pixel's distinct lines end in <see cref="Lines"/>.</summary>
     public int[] PixelEnds { get; private set; } = new int[Tracer.TileSize * Tracer.TileSize];
 
+    /// <summary>Each pixel's distinct lines, one pixel after another; grown, keeping what it holds, to <paramref name="capacity"/>.</summary>
     public int[] Lines(int capacity)
     {
         if (_lines.Length < capacity)
-            _lines = new int[Math.Max(capacity, 2 * _lines.Length)];
+            Array.Resize(ref _lines, Math.Max(capacity, 2 * _lines.Length));
         return _lines;
     }
 
-    public int[] Union(int capacity)
-    {
-        if (_union.Length < capacity)
-            _union = new int[Math.Max(capacity, 2 * _union.Length)];
-        return _union;
-    }
+    /// <summary>The set a pixel's or a group's distinct lines are counted in.</summary>
+    public LineSet Set { get; } = new();
 
     public ReadOnlySpan<int> PixelLinesOf(int k)
     {
