@@ -1,7 +1,9 @@
 using System.CommandLine;
 using System.Globalization;
 using VoxProf.Core;
+using VoxProf.Core.Calibration;
 using VoxProf.Core.Memory;
+using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 
 namespace VoxProf.Cli;
@@ -40,8 +42,11 @@ internal sealed class MemoryOptions
         command.Options.Add(_ways);
     }
 
-    /// <summary>The model's settings, or null for --memory off; <paramref name="heatmaps"/> are checked against it.</summary>
-    public MemorySettings? Settings(ParseResult parse, IEnumerable<string> heatmaps)
+    /// <summary>
+    /// The model's settings, or null for --memory off; <paramref name="heatmaps"/> and the measures a calibration
+    /// prices (<paramref name="calibration"/>) are checked against it.
+    /// </summary>
+    public MemorySettings? Settings(ParseResult parse, IEnumerable<string> heatmaps, CostModel? calibration)
     {
         bool on = OptionParsing.Choice(parse.GetValue(_memory)!, "--memory", "on", "off") == "on";
         int? line = parse.GetValue(_line), kib = parse.GetValue(_kib), ways = parse.GetValue(_ways);
@@ -52,6 +57,9 @@ internal sealed class MemoryOptions
                 throw new InputException($"{given}: sets the memory model's cache, which --memory off turns off; drop one of them");
             if (heatmaps.FirstOrDefault(HeatmapNames.NeedsMemoryModel) is { } map)
                 throw new InputException($"--counters: {map} comes from the memory model, which --memory off turns off; drop one of them");
+            // A priced counter the model did not measure would be 0, and predicted-ms silently too low.
+            if (calibration?.Terms.FirstOrDefault(t => t.Measure?.Parts.Any(c => c.NeedsMemoryModel()) == true) is { } term)
+                throw new InputException($"--calibration: prices {term.Name}, which comes from the memory model, which --memory off turns off; drop one of them");
             return null;
         }
         if (line is { } l && !MemorySettings.LineSizes.Contains(l))

@@ -112,7 +112,7 @@ public static class TraceCommand
                         error.WriteLine($"voxprof: warning: {w}");
                     heatmaps.Add(HeatmapNames.PredictedCost);
                 }
-                MemorySettings? memory = memoryOptions.Settings(parse, heatmaps);
+                MemorySettings? memory = memoryOptions.Settings(parse, heatmaps, calibrated?.Model);
                 string? outOption = parse.GetValue(outDir);
                 OutputDirectory.CheckPath(outOption, "--out");
                 double maxWork = sceneOptions.MaxWork(parse);

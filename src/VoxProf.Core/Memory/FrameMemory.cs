@@ -125,8 +125,10 @@ public sealed class FrameMemory
         cache.Clear();
         int shift = _settings.LineShift;
         int tileWidth = reads.X1 - reads.X0;
-        Span<int> lanes = stackalloc int[shape.Lanes];
-        Span<int> step = stackalloc int[2 * shape.Lanes];
+        Span<int> starts = stackalloc int[shape.Lanes];
+        Span<int> lengths = stackalloc int[shape.Lanes];
+        ReadOnlySpan<int> all = reads.All;
+        LineSet step = scratch.Set;
         long accesses = 0, hits = 0;
         for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
         {
@@ -138,30 +140,29 @@ public sealed class FrameMemory
                     for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
                     {
                         int k = (y - reads.Y0) * tileWidth + x - reads.X0;
-                        lanes[laneCount++] = k;
-                        longest = Math.Max(longest, reads.Of(k).Length);
+                        starts[laneCount] = reads.Start(k);
+                        lengths[laneCount] = reads.Of(k).Length;
+                        longest = Math.Max(longest, lengths[laneCount++]);
                     }
                 }
                 for (int s = 0; s < longest; s++)
                 {
-                    int n = 0;
-                    foreach (int k in lanes[..laneCount])
+                    // The set keeps each line once, in the order it first appears: one request per distinct line.
+                    step.Clear();
+                    for (int lane = 0; lane < laneCount; lane++)
                     {
-                        ReadOnlySpan<int> own = reads.Of(k);
-                        if (s >= own.Length)
+                        if (s >= lengths[lane])
                             continue;
-                        int first = NodeLayout.FirstLine(own[s], shift), last = NodeLayout.LastLine(own[s], shift);
-                        if (!step[..n].Contains(first))
-                            step[n++] = first;
-                        if (last != first && !step[..n].Contains(last))
-                            step[n++] = last;
+                        int node = all[starts[lane] + s];
+                        step.Add(NodeLayout.FirstLine(node, shift));
+                        step.Add(NodeLayout.LastLine(node, shift));
                     }
-                    foreach (int line in step[..n])
+                    foreach (int line in step.Members)
                     {
                         if (cache.Access(line))
                             hits++;
                     }
-                    accesses += n;
+                    accesses += step.Count;
                 }
             }
         }

@@ -51,11 +51,13 @@ public sealed class TileReads
     public void EndPixel() => _pixelEnds[Pixels++] = Count;
 
     /// <summary>The node indices pixel <paramref name="k"/> of the tile read (k counts row by row from the tile's corner).</summary>
-    public ReadOnlySpan<int> Of(int k)
-    {
-        int start = k == 0 ? 0 : _pixelEnds[k - 1];
-        return _reads.AsSpan(start, _pixelEnds[k] - start);
-    }
+    public ReadOnlySpan<int> Of(int k) => _reads.AsSpan(Start(k), _pixelEnds[k] - Start(k));
+
+    /// <summary>Where pixel <paramref name="k"/>'s reads start in <see cref="All"/>.</summary>
+    public int Start(int k) => k == 0 ? 0 : _pixelEnds[k - 1];
+
+    /// <summary>Every read of the tile, pixel after pixel.</summary>
+    public ReadOnlySpan<int> All => _reads.AsSpan(0, Count);
 }
 
 /// <summary>

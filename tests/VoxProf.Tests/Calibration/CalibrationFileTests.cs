@@ -73,6 +73,18 @@ public sealed class CalibrationFileTests : IDisposable
     }
 
     [Fact]
+    public void A_calibration_pricing_cache_lines_is_refused_by_a_trace_with_the_memory_model_off()
+    {
+        string path = WriteJson(Edited(n => n["costs"]![1]!["feature"] = "cache-lines"));
+        CalibrationFile.Read(path).Model.Terms[1].Name.Should().Be("cache-lines", "cache-lines is a feature like any counter");
+        var output = new StringWriter();
+        var error = new StringWriter();
+        int code = VoxProf.Cli.Cli.Run(["trace", "missing-scene.json", "--memory", "off", "--calibration", path], output, error);
+        code.Should().Be(VoxProf.Cli.ExitCodes.BadInput);
+        error.ToString().Should().Be("voxprof: error: --calibration: prices cache-lines, which comes from the memory model, which --memory off turns off; drop one of them\n");
+    }
+
+    [Fact]
     public void Prepass_skip_cannot_be_priced_since_it_counts_distance_saved()
     {
         ErrorOf(Edited(n => n["costs"]![2]!["feature"] = "prepass-skip")).Should().Contain("$.costs[2].feature: 'prepass-skip' is not a measure");
