@@ -80,8 +80,10 @@ public sealed class FrameMemory
             set.Clear();
             foreach (int node in reads.Of(k))
             {
-                set.Add(NodeLayout.FirstLine(node, shift));
-                set.Add(NodeLayout.LastLine(node, shift));
+                int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
+                set.Add(first);
+                if (last != first)
+                    set.Add(last);
             }
             set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
             at += set.Count;
@@ -154,8 +156,10 @@ public sealed class FrameMemory
                         if (s >= lengths[lane])
                             continue;
                         int node = all[starts[lane] + s];
-                        step.Add(NodeLayout.FirstLine(node, shift));
-                        step.Add(NodeLayout.LastLine(node, shift));
+                        int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
+                        step.Add(first);
+                        if (last != first)
+                            step.Add(last);
                     }
                     foreach (int line in step.Members)
                     {

@@ -10,12 +10,12 @@ namespace VoxProf.Core.Memory;
 /// </summary>
 internal sealed class LineSet
 {
-    // Open addressing with linear probing; a slot is in the set only when its stamp is the current generation,
-    // so emptying the set is one increment.
-    private int[] _keys = new int[1024];
-    private int[] _stamps = new int[1024];
+    // Open addressing with linear probing. A slot holds (generation << 32 | line) and counts only when its generation
+    // is the current one, so emptying the set is one increment, and a probe is one load.
+    private ulong[] _slots = new ulong[1024];
+    private int _shift = 32 - 10;
     private int[] _members = new int[512];
-    private int _generation = 1;
+    private ulong _generation = 1;
 
     public int Count { get; private set; }
 
@@ -25,9 +25,9 @@ internal sealed class LineSet
     public void Clear()
     {
         Count = 0;
-        if (++_generation == int.MaxValue)
+        if (++_generation == uint.MaxValue)
         {
-            Array.Clear(_stamps);
+            Array.Clear(_slots);
             _generation = 1;
         }
     }
@@ -35,29 +35,33 @@ internal sealed class LineSet
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public void Add(int line)
     {
-        int mask = _keys.Length - 1;
+        ulong[] slots = _slots;
+        int mask = slots.Length - 1;
+        ulong entry = (_generation << 32) | (uint)line;
         // Fibonacci hashing spreads neighbouring line numbers, which are common, over the table.
-        int slot = (int)(((uint)line * 2654435769u) >> (32 - BitOperations.Log2((uint)_keys.Length))) & mask;
-        while (_stamps[slot] == _generation)
+        int slot = (int)(((uint)line * 2654435769u) >> _shift);
+        while (true)
         {
-            if (_keys[slot] == line)
+            ulong held = slots[slot];
+            if (held == entry)
                 return;
+            if (held >> 32 != _generation)
+                break;
             slot = (slot + 1) & mask;
         }
-        _stamps[slot] = _generation;
-        _keys[slot] = line;
+        slots[slot] = entry;
         if (Count == _members.Length)
             Array.Resize(ref _members, 2 * _members.Length);
         _members[Count++] = line;
-        if (2 * Count > _keys.Length)
+        if (2 * Count > slots.Length)
             Grow();
     }
 
     /// <summary>Doubles the table, keeping it at most half full so probes stay short.</summary>
     private void Grow()
     {
-        _keys = new int[2 * _keys.Length];
-        _stamps = new int[_keys.Length];
+        _slots = new ulong[2 * _slots.Length];
+        _shift = 32 - BitOperations.Log2((uint)_slots.Length);
         _generation = 1;
         int count = Count;
         Count = 0;
