@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Strategies;
@@ -69,12 +70,14 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         if (job.View.N == 4)
         {
             if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching4, NoCounters>(job, x0, y0, x1, y1);
+            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching4, MemoryCounts>(job, x0, y0, x1, y1);
             else if (extras) Tracer.TraceTile<TStrategy, Branching4, CostCountsWithExtras>(job, x0, y0, x1, y1);
             else Tracer.TraceTile<TStrategy, Branching4, CostCounts>(job, x0, y0, x1, y1);
         }
         else
         {
             if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching2, NoCounters>(job, x0, y0, x1, y1);
+            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching2, MemoryCounts>(job, x0, y0, x1, y1);
             else if (extras) Tracer.TraceTile<TStrategy, Branching2, CostCountsWithExtras>(job, x0, y0, x1, y1);
             else Tracer.TraceTile<TStrategy, Branching2, CostCounts>(job, x0, y0, x1, y1);
         }

@@ -1,5 +1,6 @@
 using System.Diagnostics;
 using System.Runtime.CompilerServices;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Strategies;
@@ -10,6 +11,8 @@ namespace VoxProf.Core.Traversal;
 /// <summary>
 /// What to trace. <see cref="PrepassBlock"/> is 0 (off), 2, 4 or 8; <see cref="Threads"/> 0 means every processor.
 /// <see cref="CountWork"/> false runs the kernels with counting compiled out (for timing; counters stay zero).
+/// <see cref="Memory"/> turns the memory model on (docs/counters.md, "Memory traffic"); null leaves it off, and it
+/// never runs without counting.
 /// </summary>
 public sealed record TraceRequest(
     Scene Scene,
@@ -20,7 +23,8 @@ public sealed record TraceRequest(
     IReadOnlyList<StrategyDefinition> Strategies,
     int PrepassBlock = 0,
     int Threads = 0,
-    bool CountWork = true);
+    bool CountWork = true,
+    MemorySettings? Memory = null);
 
 /// <summary>Runs every requested strategy over the same rays, in parallel over image tiles.</summary>
 public static class Tracer
@@ -61,22 +65,33 @@ public static class Tracer
                 counters[c] = new uint[request.Width * request.Height];
             var hits = new PixelHit[request.Width * request.Height];
             PrepassMap? map = definition.UsesPrepass ? prepass : null;
-            var job = new TileJob(view, camera, map, counters, hits, request.CountWork);
 
             int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
             long before = pixelsDone;
+            FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, request.Width, request.Height) : null;
+            var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
             Parallel.For(0, tilesX * tilesY, options, tile =>
             {
                 int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
                 int x1 = Math.Min(request.Width, x0 + TileSize), y1 = Math.Min(request.Height, y0 + TileSize);
-                definition.TraceTile(job, x0, y0, x1, y1);
+                if (memory is not null)
+                {
+                    // The memory model: the same kernels, with a counter that also records each node read.
+                    TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                    definition.TraceTile(job, x0, y0, x1, y1);
+                    memory.EndTile(reads, counters[(int)Counter.CacheLines]);
+                }
+                else
+                {
+                    definition.TraceTile(job, x0, y0, x1, y1);
+                }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
             pixelsDone = before + (long)request.Width * request.Height;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
-            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed));
+            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
@@ -147,4 +162,6 @@ public static class Tracer
 }
 
 /// <summary>What every tile of one strategy's trace shares: the tree, the rays, the prepass and the result buffers.</summary>
-internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork);
+/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts"/>, which records each node read.</param>
+internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork,
+    bool RecordsReads);

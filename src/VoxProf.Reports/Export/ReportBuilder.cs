@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
@@ -23,7 +24,7 @@ public static class ReportBuilder
         var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
             ? MetricCatalogue.Describe(stats.SelectMany(s => s.Measures.Select(m => m.Measure)).DistinctBy(m => m.Name, StringComparer.OrdinalIgnoreCase),
-                stats[0].Subgroups.Select(g => g.Shape), calibration)
+                stats[0].Subgroups.Select(g => g.Shape), calibration, stats[0].Memory?.Settings)
             : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
@@ -43,6 +44,9 @@ public static class ReportBuilder
                 RangeMax = options.RangeMax,
                 Baseline = Baseline(stats, options.Baseline)?.Name,
                 PixelData = options.PixelData,
+                Memory = run.Results.Select(r => r.Memory?.Settings).FirstOrDefault(m => m is not null) is { } mem
+                    ? new MemoryInfo(mem.LineBytes, mem.CacheBytes, mem.Ways, mem.Group.Lanes, NodeLayout.RecordBytes)
+                    : null,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
             },

@@ -1,6 +1,7 @@
 using System.Text.RegularExpressions;
 using VoxProf.Core;
 using VoxProf.Core.Strategies;
+using VoxProf.Core.Traversal;
 
 namespace VoxProf.Tests.Strategies;
 
@@ -68,7 +69,7 @@ public sealed class StrategyFileTests : IDisposable
             + Strategy("B", "walk-b"));
         var defs = StrategyFiles.Compile(path);
         defs.Select(d => d.Name).Should().Equal("walk-a", "walk-b");
-        defs[0].CounterNames.Should().HaveCount(12).And.EndWith("probes");
+        defs[0].CounterNames.Should().HaveCount(CounterNames.Count + 1).And.EndWith("probes");
         defs[1].ExtraCounters.Should().BeEmpty();
         defs.Should().OnlyContain(d => d.Source == path && d.UsesPrepass);
     }

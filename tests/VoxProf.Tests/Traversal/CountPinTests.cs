@@ -72,7 +72,8 @@ public class CountPinTests
         {
             var totals = new StringBuilder();
             ulong hash = 14695981039346656037UL;
-            for (int c = 0; c < CounterNames.Count; c++)
+            // The eleven counters there were when the counts were pinned; the memory model's cache-lines has its own tests.
+            for (int c = 0; c <= (int)Counter.PrepassSkip; c++)
             {
                 long total = 0;
                 foreach (uint v in r.Counters[c])
