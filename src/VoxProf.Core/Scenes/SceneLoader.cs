@@ -4,6 +4,7 @@ using System.Security.Cryptography;
 using System.Text.Json;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes.Loading;
+using VoxProf.Core.Scenes.Paths;
 
 namespace VoxProf.Core.Scenes;
 
@@ -60,18 +61,33 @@ public static class SceneLoader
         if (cameraValues.Length == 0)
             throw new SceneFormatException(path, "$.cameras", "empty; expected at least one camera (the first is the default)");
         var cameras = new List<CameraSpec>(cameraValues.Length);
+        var paths = new List<CameraPath>();
+        var order = new List<string>(cameraValues.Length);
         var names = new HashSet<string>(StringComparer.Ordinal);
         foreach (JsonValue c in cameraValues)
         {
-            CameraSpec camera = ReadCamera(c);
+            bool isPath = c.Element.ValueKind == JsonValueKind.Object && c.Element.TryGetProperty("path", out _);
+            CameraPath? cameraPath = isPath ? CameraPathReader.Read(c) : null;
+            CameraSpec? camera = isPath ? null : ReadCamera(c);
+            string name = cameraPath?.Name ?? camera!.Name;
             // A set, not a search of the list so far: a scene of 50,000 cameras loads in linear time.
-            if (!names.Add(camera.Name))
-                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{MessageText.Excerpt(camera.Name)}\"; expected unique names");
-            cameras.Add(camera);
+            if (!names.Add(name))
+                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{MessageText.Excerpt(name)}\"; expected unique names");
+            order.Add(name);
+            if (cameraPath is not null)
+                paths.Add(cameraPath);
+            else
+                cameras.Add(camera!);
         }
+        CameraPathReader.RequireDistinctFrames(path, cameras, paths);
 
         string contentHash = Convert.ToHexStringLower(hash.GetHashAndReset());
-        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash) { Description = description };
+        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash)
+        {
+            Description = description,
+            Paths = paths,
+            CameraOrder = order,
+        };
     }
 
     /// <summary>The scene name for a path: the file name without <see cref="Extension"/> (or its last extension).</summary>
