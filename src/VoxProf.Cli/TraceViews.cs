@@ -84,7 +84,7 @@ internal static class TraceViews
             done++;
             CameraSpec view = r.Views[v];
             var progress = showProgress
-                ? new TraceProgress(error, r.Height, r.Strategies.Select(x => $"view {done}/{picked.Count} {view.Name}: {x.Name()}").ToArray())
+                ? new TraceProgress(error, r.Height, r.Strategies.Select(x => x.Name()).ToArray(), $"view {done}/{picked.Count} {view.Name}: ")
                 : null;
             var request = new TraceRequest(r.Scene, tree, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads);
             TraceRun run = pipeline.Trace(request, progress);
