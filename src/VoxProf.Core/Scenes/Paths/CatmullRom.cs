@@ -48,27 +48,31 @@ public static class CatmullRom
     /// </summary>
     public static Vector3 Point(IReadOnlyList<Vector3> keys, double u)
     {
-        int n = keys.Count;
-        if (n == 1)
+        if (keys.Count == 1)
             return keys[0];
-        int i = Math.Clamp((int)Math.Floor(u), 0, n - 2);
-        double s = Math.Clamp(u - i, 0, 1);
+        int i = Locate(keys.Count, u, out double s);
         Vector3 p1 = keys[i], p2 = keys[i + 1];
         Vector3 p0 = i > 0 ? keys[i - 1] : Reflect(p2, p1);
-        Vector3 p3 = i + 2 < n ? keys[i + 2] : Reflect(p1, p2);
+        Vector3 p3 = i + 2 < keys.Count ? keys[i + 2] : Reflect(p1, p2);
         return Segment(p0, p1, p2, p3, s);
     }
 
     /// <summary>Straight lines between neighbouring keys, with the same parameter as <see cref="Point"/>.</summary>
     public static Vector3 Linear(IReadOnlyList<Vector3> keys, double u)
     {
-        int n = keys.Count;
-        if (n == 1)
+        if (keys.Count == 1)
             return keys[0];
-        int i = Math.Clamp((int)Math.Floor(u), 0, n - 2);
-        double s = Math.Clamp(u - i, 0, 1);
+        int i = Locate(keys.Count, u, out double s);
         Vector3D a = Of(keys[i]), b = Of(keys[i + 1]);
         return new Vector3((float)(a.X + s * (b.X - a.X)), (float)(a.Y + s * (b.Y - a.Y)), (float)(a.Z + s * (b.Z - a.Z)));
+    }
+
+    // The segment u falls in (the last one for u at the end) and how far along it, 0..1.
+    private static int Locate(int keys, double u, out double s)
+    {
+        int i = Math.Clamp((int)Math.Floor(u), 0, keys - 2);
+        s = Math.Clamp(u - i, 0, 1);
+        return i;
     }
 
     // p mirrored through centre: 2 centre − p.

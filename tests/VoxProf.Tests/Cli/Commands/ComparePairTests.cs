@@ -1,5 +1,4 @@
 using System.Text.Json.Nodes;
-using VoxProf.Tests.Scenes;
 
 namespace VoxProf.Tests.Cli.Commands;
 
@@ -14,28 +13,16 @@ public sealed class ComparePairTests : IDisposable
         "{'name': 'yard', 'eye': [2, 20, 2], 'target': [40, 8, 40]}," +
         "{'name': 'walk', 'path': {'frames': 3, 'keys': [{'eye': [4, 12, 60], 'target': [30, 10, 30]}, {'eye': [60, 14, 40], 'target': [30, 10, 30]}]}}";
 
-    private readonly TempScene _scene = TempScene.With(Layers, Cameras);
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-pair-{Guid.NewGuid():N}");
+    private readonly CliScratch _scratch = new(Layers, Cameras);
 
-    public void Dispose()
-    {
-        _scene.Dispose();
-        if (Directory.Exists(_dir))
-            Directory.Delete(_dir, recursive: true);
-    }
+    public void Dispose() => _scratch.Dispose();
 
-    private string Out(string name) => Path.Combine(_dir, name);
+    private string Out(string name) => _scratch.Out(name);
 
-    private static (int Code, string Out, string Err) Run(params string[] args)
-    {
-        var output = new StringWriter();
-        var error = new StringWriter();
-        int code = VoxProf.Cli.Cli.Run(args, output, error);
-        return (code, output.ToString(), error.ToString());
-    }
+    private static (int Code, string Out, string Err) Run(params string[] args) => CliScratch.Run(args);
 
     private void Trace(string outDir, string camera = "yard") =>
-        Run("trace", _scene.Path, "--camera", camera, "--size", "24x14", "-q", "--no-html", "--strategy", "dda,dda-mask", "-o", outDir).Code.Should().Be(0);
+        Run("trace", _scratch.Scene.Path, "--camera", camera, "--size", "24x14", "-q", "--no-html", "--strategy", "dda,dda-mask", "-o", outDir).Code.Should().Be(0);
 
     private static double Value(string reportFolder, string strategy, string metric) =>
         JsonNode.Parse(File.ReadAllText(Path.Combine(reportFolder, "report.json")))!["strategies"]!.AsArray()

@@ -18,28 +18,16 @@ public sealed partial class MergeCommandTests : IDisposable
         "{'eye': [4, 12, 60], 'target': [30, 10, 30]}, {'eye': [30, 16, 62], 'target': [30, 8, 30]}, {'eye': [60, 14, 40], 'target': [30, 10, 30]}]}}," +
         "{'name': 'top', 'eye': [32, 60, 33], 'target': [32, 0, 32], 'up': [0, 0, 1]}";
 
-    private readonly TempScene _scene = TempScene.With(Layers, Cameras);
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-merge-{Guid.NewGuid():N}");
+    private readonly CliScratch _scratch = new(Layers, Cameras);
 
-    public void Dispose()
-    {
-        _scene.Dispose();
-        if (Directory.Exists(_dir))
-            Directory.Delete(_dir, recursive: true);
-    }
+    public void Dispose() => _scratch.Dispose();
 
-    private string Out(string name) => Path.Combine(_dir, name);
+    private string Out(string name) => _scratch.Out(name);
 
-    private static (int Code, string Out, string Err) Run(params string[] args)
-    {
-        var output = new StringWriter();
-        var error = new StringWriter();
-        int code = VoxProf.Cli.Cli.Run(args, output, error);
-        return (code, output.ToString(), error.ToString());
-    }
+    private static (int Code, string Out, string Err) Run(params string[] args) => CliScratch.Run(args);
 
     private (int Code, string Out, string Err) Trace(string outDir, params string[] more) =>
-        Run(["trace", _scene.Path, "--camera", "all", "--size", "24x14", "--quiet", "--out", outDir, .. more]);
+        Run(["trace", _scratch.Scene.Path, "--camera", "all", "--size", "24x14", "--quiet", "--out", outDir, .. more]);
 
     // For the refusals: no page, no pixel files, one strategy.
     private (int Code, string Out, string Err) Quick(string outDir, params string[] more) =>
@@ -112,7 +100,7 @@ public sealed partial class MergeCommandTests : IDisposable
         Quick(Out("s1"), "--shard", "1/2").Code.Should().Be(0);
         using var other = TempScene.With(Layers.Replace("radius': 9", "radius': 8", StringComparison.Ordinal), Cameras);
         Run("trace", other.Path, "--camera", "all", "--size", "24x14", "-q", "--no-html", "--no-pixels", "--strategy", "dda", "--shard", "2/2", "-o", Out("s2")).Code.Should().Be(0);
-        Run("trace", _scene.Path, "--camera", "yard", "--size", "24x14", "-q", "--no-html", "-o", Out("single")).Code.Should().Be(0);
+        Run("trace", _scratch.Scene.Path, "--camera", "yard", "--size", "24x14", "-q", "--no-html", "-o", Out("single")).Code.Should().Be(0);
 
         Run("merge", Out("s1"), Out("s2"), "-o", Out("m")).Err.Should().Contain("the scene differs");
         Run("merge", Out("s1"), Out("single"), "-o", Out("m")).Err.Should().Contain("the report of a single view");
