@@ -1,11 +1,10 @@
 using System.Text.Json.Nodes;
-using System.Text.RegularExpressions;
 using VoxProf.Tests.Scenes;
 
 namespace VoxProf.Tests.Cli.Commands;
 
 /// <summary>A run of several views traced whole, traced in shards and merged: the same folder but for timings.</summary>
-public sealed partial class MergeCommandTests : IDisposable
+public sealed class MergeCommandTests : IDisposable
 {
     private const string Layers =
         "{'kind': 'box', 'material': 1, 'min': [0, 0, 0], 'max': [64, 6, 64]}," +
@@ -45,17 +44,8 @@ public sealed partial class MergeCommandTests : IDisposable
 
         merged.Code.Should().Be(0, merged.Err);
         merged.Out.Should().Contain("merged 3 shards").And.Contain("(8 views)");
-        var whole = Files(Out("whole"));
-        Files(Out("merged")).Keys.Should().BeEquivalentTo(whole.Keys);
-        whole.Keys.Should().Contain(["views/walk_005/report.json", "views/top/heatmap-dda-iterations.png", "worst-views.png", "views.csv", "report.html"]);
-        foreach (var (name, bytes) in whole)
-        {
-            byte[] other = File.ReadAllBytes(Path.Combine(Out("merged"), name));
-            if (name.EndsWith(".json", StringComparison.Ordinal) || name.EndsWith(".html", StringComparison.Ordinal))
-                WithoutTimings(name, other).Should().Be(WithoutTimings(name, bytes), name);
-            else
-                other.Should().Equal(bytes, name);
-        }
+        RunFolders.ShouldMatchButForTimings(Out("merged"), Out("whole"));
+        RunFolders.Files(Out("whole")).Should().Contain(["views/walk_005/report.json", "views/top/heatmap-dda-iterations.png", "worst-views.png", "views.csv", "report.html"]);
     }
 
     [Fact]
@@ -128,24 +118,4 @@ public sealed partial class MergeCommandTests : IDisposable
         worst["views"]![0]!["value"]!.GetValue<double>().Should().Be(perView.Max());
         File.ReadAllText(Path.Combine(Out("whole"), "summary.md")).Should().Contain("# VoxProf run: test, 8 views").And.Contain("![worst views](worst-views.png)");
     }
-
-    private static Dictionary<string, byte[]> Files(string folder) =>
-        Directory.GetFiles(folder, "*", SearchOption.AllDirectories)
-            .Where(f => Path.GetFileName(f) != "manifest.json")
-            .ToDictionary(f => Path.GetRelativePath(folder, f).Replace('\\', '/'), File.ReadAllBytes);
-
-    // Timings are the only part of a report that may differ: the "timings" object of report.json, and in report.html
-    // the facts that show them (tree build, trace times, threads).
-    private static string WithoutTimings(string name, byte[] bytes)
-    {
-        string text = System.Text.Encoding.UTF8.GetString(bytes);
-        if (name.EndsWith(".html", StringComparison.Ordinal))
-            return TimingFacts().Replace(text, "");
-        var node = JsonNode.Parse(text)!.AsObject();
-        node.Remove("timings");
-        return node.ToJsonString();
-    }
-
-    [GeneratedRegex("<div><dt>(?:tree build|trace [^<]*|threads)</dt><dd>[^<]*</dd></div>")]
-    private static partial Regex TimingFacts();
 }
