@@ -73,7 +73,8 @@ internal static class TraceViews
         var clock = Stopwatch.StartNew();
         var buildProgress = showProgress ? new TraceProgress(error, r.Height, r.Strategies.Select(x => x.Name()).ToArray()) : null;
         ((IProgress<string>?)buildProgress)?.Report($"building the tree of {r.Scene.Name} (branching {r.Branching})");
-        BrickTree tree = pipeline.BuildTree(r.Scene, r.Branching, r.Threads);
+        // A shard of a run with fewer views than shards may hold none: it writes the run level alone, without a tree.
+        BrickTree? tree = picked.Count > 0 ? pipeline.BuildTree(r.Scene, r.Branching, r.Threads) : null;
         buildProgress?.Finish();
         double buildSeconds = clock.Elapsed.TotalSeconds;
 
@@ -86,7 +87,7 @@ internal static class TraceViews
             var progress = showProgress
                 ? new TraceProgress(error, r.Height, r.Strategies.Select(x => x.Name()).ToArray(), $"view {done}/{picked.Count} {view.Name}: ")
                 : null;
-            var request = new TraceRequest(r.Scene, tree, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads);
+            var request = new TraceRequest(r.Scene, tree!, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads);
             TraceRun run = pipeline.Trace(request, progress);
             ReportResult written = ReportWriter.WriteFiles(run, r.Options, folder.Folder(folders[v]), progress);
             progress?.Finish();

@@ -59,6 +59,10 @@ public sealed class MergeCommandTests : IDisposable
         run["views"]!.AsArray().Should().HaveCount(8);
         run["commandLine"]!.AsArray().Select(v => v!.GetValue<string>()).Should().NotContain(["--shard", "2/3", "--out", "--quiet"]);
         Directory.GetDirectories(Path.Combine(Out("s2"), "views")).Select(Path.GetFileName).Should().BeEquivalentTo("walk_000", "walk_003", "top");
+
+        // More shards than views: the last holds none, and says so.
+        Quick(Out("s9"), "--shard", "9/9").Out.Should().Contain("shard 9 of 9: 0 of 8 views");
+        JsonNode.Parse(File.ReadAllText(Path.Combine(Out("s9"), "report.json")))!["shard"]!["views"]!.AsArray().Should().BeEmpty();
     }
 
     [Fact]
