@@ -3,6 +3,7 @@ using System.Globalization;
 using VoxProf.Cli.Commands;
 using VoxProf.Core;
 using VoxProf.Core.Limits;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Scenes.Paths;
 using VoxProf.Core.Traversal;
@@ -62,7 +63,7 @@ internal static class TraceViews
     }
 
     public sealed record Request(Scene Scene, IReadOnlyList<CameraSpec> Views, ShardChoice? Shard, int Branching, int Width, int Height,
-        IReadOnlyList<Strategy> Strategies, int PrepassBlock, int Threads, ReportOptions Options);
+        IReadOnlyList<Strategy> Strategies, int PrepassBlock, int Threads, MemorySettings? Memory, ReportOptions Options);
 
     public static ReportResultSummary Run(Request r, OutputDirectory folder, TracePipeline pipeline, TextWriter error, bool showProgress)
     {
@@ -87,7 +88,7 @@ internal static class TraceViews
             var progress = showProgress
                 ? new TraceProgress(error, r.Height, r.Strategies.Select(x => x.Name()).ToArray(), $"view {done}/{picked.Count} {view.Name}: ")
                 : null;
-            var request = new TraceRequest(r.Scene, tree!, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads);
+            var request = new TraceRequest(r.Scene, tree!, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads, Memory: r.Memory);
             TraceRun run = pipeline.Trace(request, progress);
             ReportResult written = ReportWriter.WriteFiles(run, r.Options, folder.Folder(folders[v]), progress);
             progress?.Finish();

@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using VoxProf.Core;
 using VoxProf.Core.Limits;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -68,6 +69,8 @@ public static class TraceCommand
         };
         var sceneOptions = new SceneOptions();
         sceneOptions.AddTo(cmd);
+        var memoryOptions = new MemoryOptions();
+        memoryOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
@@ -111,6 +114,7 @@ public static class TraceCommand
                         error.WriteLine($"voxprof: warning: {w}");
                     heatmaps.Add(HeatmapNames.PredictedCost);
                 }
+                MemorySettings? memory = memoryOptions.Settings(parse, heatmaps, calibrated?.Model);
                 string? outOption = parse.GetValue(outDir);
                 OutputDirectory.CheckPath(outOption, "--out");
                 double maxWork = sceneOptions.MaxWork(parse);
@@ -119,9 +123,9 @@ public static class TraceCommand
                 Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
                 IReadOnlyList<CameraSpec> views = view.ResolveAll(loaded);
                 bool severalViews = shardChoice is not null || views.Count > 1 || view.NamesSeveral;
-                MemoryLimit memory = (pipeline.AvailableMemory ?? MemoryLimit.Probe)();
+                MemoryLimit available = (pipeline.AvailableMemory ?? MemoryLimit.Probe)();
                 foreach (CameraSpec v in views)
-                    RunChecks.BeforeTrace(loaded, v, branch, width, height, strategies, heatmaps, maxWork, memory);
+                    RunChecks.BeforeTrace(loaded, v, branch, width, height, strategies, heatmaps, maxWork, available);
                 CameraSpec cam = views[0];
                 string dir = outOption ?? Path.Combine("voxprof-out", severalViews
                     ? $"{SafeName(loaded.Name)}-{SafeName(view.Name ?? cam.Name.Split('#')[0])}{(shardChoice is { } sh ? $"-shard{sh.Index}of{sh.Count}" : "")}"
@@ -146,7 +150,7 @@ public static class TraceCommand
                 if (severalViews)
                 {
                     options = options with { CommandLine = TraceViews.RecordedCommand(options.CommandLine) };
-                    var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, options);
+                    var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, memory, options);
                     ReportResultSummary written = TraceViews.Run(request, folder, pipeline, error, showProgress);
                     return Finish(output, error, options, written.Document.Views.Count, written.Files, written.Directory, written.Failures,
                         () => RunConsole.Write(output, written.Document));
@@ -154,7 +158,7 @@ public static class TraceCommand
                 var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
                 ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
-                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
+                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory);
                 TraceRun run = pipeline.Trace(traceRequest, progress);
                 ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
                 progress?.Finish();
