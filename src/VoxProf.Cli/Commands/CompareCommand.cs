@@ -36,7 +36,7 @@ public static class CompareCommand
             Description = "Absolute URL the compare files will be served from; compare.md's image links then start with it, so they still work once pasted into a pull request.",
         };
 
-        var cmd = new Command("compare", "Compare two trace reports; exit 1 when a gate rule is broken.")
+        var cmd = new Command("compare", "Compare two trace reports, or two strategies (--pair, --within); exit 1 when a gate rule is broken.")
         {
             baseArg, candidateArg, outOpt, failOnOpt, quietOpt, noHtmlOpt, linkBaseOpt, pairOpt, withinOpt,
         };
