@@ -29,6 +29,18 @@ if (args.Length > 0 && args[0] == "quick")
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
     return 0;
 }
+if (args.Length > 2 && args[0] == "views")
+{
+    int w = 1280, h = 720;
+    if (args.Length > 3)
+    {
+        string[] parts = args[3].Split('x');
+        w = int.Parse(parts[0]);
+        h = int.Parse(parts[1]);
+    }
+    ViewsTiming.Run(SceneLoader.Load(args[1]), args[2], w, h, Console.Out);
+    return 0;
+}
 if (args.Length > 1 && args[0] == "png")
 {
     PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);

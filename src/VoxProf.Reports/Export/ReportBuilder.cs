@@ -1,4 +1,5 @@
 using VoxProf.Core.Memory;
+using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
@@ -30,11 +31,9 @@ public static class ReportBuilder
         var document = new ReportDocument(
             ReportDocument.CurrentSchema,
             options.ToolVersion,
-            new SceneInfo(scene.Name, scene.SourcePath is null ? null : Path.GetFileName(scene.SourcePath), scene.ContentHash,
-                [scene.ExtentX, scene.ExtentY, scene.ExtentZ]),
+            SceneOf(scene),
             new TreeInfo(tree.Branching, tree.Depth, tree.NodeCount, tree.SolidVoxels, tree.TotalBytes, tree.NodesPerLevel) { RootSize = tree.RootSize },
-            new CameraInfo(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z],
-                [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees),
+            CameraOf(cam),
             new RunInfo(settings.Width, settings.Height, settings.PrepassBlock, stats.Select(s => s.Name).ToArray(), counters)
             {
                 Branching = settings.Branching,
@@ -74,6 +73,14 @@ public static class ReportBuilder
         };
         return document with { Run = document.Run with { HeatmapRanges = Ranges(new ReportContext(run, stats, document, options)) } };
     }
+
+    /// <summary>The scene as report.json records it.</summary>
+    public static SceneInfo SceneOf(Scene scene) =>
+        new(scene.Name, scene.SourcePath is null ? null : Path.GetFileName(scene.SourcePath), scene.ContentHash, [scene.ExtentX, scene.ExtentY, scene.ExtentZ]);
+
+    /// <summary>A camera as report.json records it.</summary>
+    public static CameraInfo CameraOf(CameraSpec cam) =>
+        new(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z], [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees);
 
     /// <summary>
     /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid

@@ -156,7 +156,7 @@ public sealed class TraceCommandTests : IDisposable
 
         var (code, _, error) = Run($"trace scene.json --camera tower --out {_dir}");
         code.Should().Be(ExitCodes.BadInput);
-        error.Should().Be("voxprof: error: --camera: no camera 'tower' in /scenes/yard.json; cameras: gate\n");
+        error.Should().Be("voxprof: error: --camera: no camera or path 'tower' in /scenes/yard.json; expected one of: gate, a frame such as NAME#000, or all\n");
     }
 
     // The reproducer (looking straight down with the default up) and its relatives: each camera would give
