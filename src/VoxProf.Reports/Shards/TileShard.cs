@@ -52,10 +52,7 @@ public static class TileShard
     public static TileShardFolder Read(string folder)
     {
         string file = Path.Combine(folder, TileShardDocument.FileName);
-        ReportManifest manifest = ReportManifest.Read(folder)
-            ?? throw new InputException($"{folder}: has no {ReportManifest.FileName}; expected a folder written whole by `voxprof trace --shard I/N`");
-        byte[] bytes = File.ReadAllBytes(file);
-        manifest.Verify(folder, TileShardDocument.FileName, bytes);
+        var (manifest, bytes) = ReportManifest.ReadListed(folder, TileShardDocument.FileName, "a folder written whole by `voxprof trace --shard I/N`");
         TileShardDocument? doc;
         try
         {

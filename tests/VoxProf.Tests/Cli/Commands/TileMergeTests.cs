@@ -1,18 +1,10 @@
-using VoxProf.Tests.Scenes;
-
 namespace VoxProf.Tests.Cli.Commands;
 
 /// <summary>One view traced whole, and traced in shards of its tiles and merged: the same folder but for timings.</summary>
 public sealed class TileMergeTests : IDisposable
 {
-    private const string Layers =
-        "{'kind': 'box', 'material': 1, 'min': [0, 0, 0], 'max': [64, 6, 64]}," +
-        "{'kind': 'sphere', 'material': 2, 'center': [30, 12, 34], 'radius': 9}," +
-        "{'kind': 'box', 'material': 3, 'min': [44, 6, 10], 'max': [52, 20, 18]}";
-
-    private const string Cameras = "{'name': 'yard', 'eye': [2, 20, 2], 'target': [40, 8, 40]}";
-
-    private readonly CliScratch _scratch = new(Layers, Cameras);
+    // The scene of the view-shard tests, with its first camera alone.
+    private readonly CliScratch _scratch = new(MergeCommandTests.Layers, "{'name': 'yard', 'eye': [2, 20, 2], 'target': [40, 8, 40]}");
 
     public void Dispose() => _scratch.Dispose();
 
