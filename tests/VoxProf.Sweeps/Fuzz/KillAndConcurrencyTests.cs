@@ -8,6 +8,7 @@ namespace VoxProf.Sweeps.Fuzz;
 /// Real processes killed mid-write and run side by side (issue 13): the report folder is always one whole run,
 /// the previous one or the new one, compare accepts it, and the next run leaves nothing of the dead one behind.
 /// </summary>
+[Collection(RunsAlone.Name)]
 public sealed class KillAndConcurrencyTests : IDisposable
 {
     private static readonly string Scene = Path.Combine(AppContext.BaseDirectory, "samples", "hollow-shell.vpscene.json");

@@ -15,6 +15,7 @@ public sealed class ProcessFuzzFixture : IDisposable
 /// values, each run as a real process: exit code 0, 1 or 2, at most one stderr line, within the time limit. Seeds
 /// continue after the main suite's, so the two runs cover different cases.
 /// </summary>
+[Collection(RunsAlone.Name)]
 public sealed class ProcessFuzzTests(ProcessFuzzFixture fixture, ITestOutputHelper log) : IClassFixture<ProcessFuzzFixture>
 {
     public const int Cases = 500;
