@@ -50,6 +50,17 @@ if (args.Length > 1 && args[0] == "prepass")
     PrepassTiming.Run(scene, w, h, block, strategy, rounds, only, threads, Console.Out);
     return 0;
 }
+if (args.Length > 5 && args[0] == "side")
+{
+    // side REFBRICK SCENE CAMERA WxH ROUNDS [SHARE_WxH]: see SideBySide (scripts/side-by-side.sh runs it).
+    static (int, int) Size(string text)
+    {
+        string[] parts = text.Split('x');
+        return (int.Parse(parts[0]), int.Parse(parts[1]));
+    }
+    (int sw, int sh) = Size(args[4]);
+    return SideBySide.Run(args[1], args[2], args[3], sw, sh, int.Parse(args[5]), args.Length > 6 ? Size(args[6]) : null, Console.Out);
+}
 if (args.Length > 1 && args[0] == "png")
 {
     PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);
