@@ -18,13 +18,7 @@ if (args.Length > 1 && args[0] == "mesh-scene")
 if (args.Length > 0 && args[0] == "quick")
 {
     Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : SampleScenes.Demo();
-    int w = 1280, h = 720;
-    if (args.Length > 2)
-    {
-        string[] parts = args[2].Split('x');
-        w = int.Parse(parts[0]);
-        h = int.Parse(parts[1]);
-    }
+    (int w, int h) = args.Length > 2 ? Size(args[2]) : (1280, 720);
     int branching = args.Length > 3 ? int.Parse(args[3]) : 4;
     int prepass = args.Length > 4 ? int.Parse(args[4]) : 0;
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
@@ -33,13 +27,7 @@ if (args.Length > 0 && args[0] == "quick")
 if (args.Length > 1 && args[0] == "prepass")
 {
     Scene scene = SceneLoader.Load(args[1]);
-    int w = 1280, h = 720;
-    if (args.Length > 2)
-    {
-        string[] parts = args[2].Split('x');
-        w = int.Parse(parts[0]);
-        h = int.Parse(parts[1]);
-    }
+    (int w, int h) = args.Length > 2 ? Size(args[2]) : (1280, 720);
     int block = args.Length > 3 ? int.Parse(args[3]) : 4;
     Strategy strategy = Strategy.Dda;
     if (args.Length > 4 && !StrategyNames.TryParse(args[4], out strategy))
@@ -53,11 +41,6 @@ if (args.Length > 1 && args[0] == "prepass")
 if (args.Length > 5 && args[0] == "side")
 {
     // side REFBRICK SCENE CAMERA WxH ROUNDS [SHARE_WxH]: see SideBySide (scripts/side-by-side.sh runs it).
-    static (int, int) Size(string text)
-    {
-        string[] parts = text.Split('x');
-        return (int.Parse(parts[0]), int.Parse(parts[1]));
-    }
     (int sw, int sh) = Size(args[4]);
     return SideBySide.Run(args[1], args[2], args[3], sw, sh, int.Parse(args[5]), args.Length > 6 ? Size(args[6]) : null, Console.Out);
 }
@@ -68,3 +51,9 @@ if (args.Length > 1 && args[0] == "png")
 }
 BenchmarkSwitcher.FromAssembly(typeof(QuickTiming).Assembly).Run(args);
 return 0;
+
+static (int Width, int Height) Size(string text)
+{
+    string[] parts = text.Split('x');
+    return (int.Parse(parts[0]), int.Parse(parts[1]));
+}
