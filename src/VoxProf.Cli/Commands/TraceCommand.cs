@@ -3,6 +3,7 @@ using System.Globalization;
 using System.Numerics;
 using VoxProf.Core;
 using VoxProf.Core.Limits;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -67,6 +68,8 @@ public static class TraceCommand
         };
         var sceneOptions = new SceneOptions();
         sceneOptions.AddTo(cmd);
+        var memoryOptions = new MemoryOptions();
+        memoryOptions.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
@@ -109,6 +112,7 @@ public static class TraceCommand
                         error.WriteLine($"voxprof: warning: {w}");
                     heatmaps.Add(HeatmapNames.PredictedCost);
                 }
+                MemorySettings? memory = memoryOptions.Settings(parse, heatmaps, calibrated?.Model);
                 string? outOption = parse.GetValue(outDir);
                 OutputDirectory.CheckPath(outOption, "--out");
                 double maxWork = sceneOptions.MaxWork(parse);
@@ -124,7 +128,7 @@ public static class TraceCommand
                 var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
                 ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
-                var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount);
+                var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory);
                 TraceRun run = pipeline.Trace(request, progress);
 
                 var options = new ReportOptions

@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Statistics;
@@ -33,6 +34,9 @@ public sealed class StrategyStatistics
     public IReadOnlyList<SubgroupSummary> Subgroups { get; }
 
     public double HitRate { get; }
+
+    /// <summary>The memory model's lockstep-group lines and cache replay; null when the trace ran with the model off.</summary>
+    public MemoryResult? Memory { get; private init; }
 
     /// <summary>
     /// Pixels whose hit voxel differs from the reference (0 for the reference itself); null when the reference was
@@ -70,7 +74,10 @@ public sealed class StrategyStatistics
         long? mismatch = reference is null ? null
             : ReferenceEquals(reference, result) ? 0
             : HitStatistics.MismatchCount(result.Hits, reference.Hits);
-        return new StrategyStatistics(result.Strategy, (long)result.Width * result.Height, measures, subgroups, HitStatistics.HitRate(result.Hits), mismatch);
+        return new StrategyStatistics(result.Strategy, (long)result.Width * result.Height, measures, subgroups, HitStatistics.HitRate(result.Hits), mismatch)
+        {
+            Memory = result.Memory,
+        };
     }
 
     public static IReadOnlyList<StrategyStatistics> Compute(TraceRun run) =>

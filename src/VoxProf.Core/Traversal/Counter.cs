@@ -14,11 +14,12 @@ public enum Counter
     PrepassIterations,
     PrepassNodeFetches,
     PrepassSkip,
+    CacheLines,
 }
 
 public static class CounterNames
 {
-    public const int Count = 11;
+    public const int Count = 12;
 
     public static readonly IReadOnlyList<Counter> All = Enum.GetValues<Counter>();
 
@@ -35,6 +36,7 @@ public static class CounterNames
         Counter.PrepassIterations => "prepass-iterations",
         Counter.PrepassNodeFetches => "prepass-node-fetches",
         Counter.PrepassSkip => "prepass-skip",
+        Counter.CacheLines => "cache-lines",
         _ => throw new ArgumentOutOfRangeException(nameof(c)),
     };
 
@@ -48,7 +50,18 @@ public static class CounterNames
     public static bool LowerIsBetter(string name) => !TryParse(name, out Counter c) || c.LowerIsBetter();
 
     /// <summary>Unit shown in reports.</summary>
-    public static string Unit(this Counter c) => c == Counter.PrepassSkip ? "voxels" : "count";
+    public static string Unit(this Counter c) => c switch
+    {
+        Counter.PrepassSkip => "voxels",
+        Counter.CacheLines => "lines",
+        _ => "count",
+    };
+
+    /// <summary>
+    /// Whether the counter comes from the memory model (docs/counters.md, "Memory traffic"): it stays 0, and reports
+    /// show it as not measured, when a trace ran with the model off.
+    /// </summary>
+    public static bool NeedsMemoryModel(this Counter c) => c == Counter.CacheLines;
 
     public static string Description(this Counter c) => c switch
     {
@@ -63,6 +76,7 @@ public static class CounterNames
         Counter.PrepassIterations => "the coarse prepass ray's iterations, shared among the pixels it serves",
         Counter.PrepassNodeFetches => "look-ups the coarse prepass ray made in the occupancy grids, shared among the pixels it serves",
         Counter.PrepassSkip => "whole voxels of distance the prepass let the ray skip",
+        Counter.CacheLines => "distinct cache lines the node records the pixel's ray read lie in (memory model)",
         _ => throw new ArgumentOutOfRangeException(nameof(c)),
     };
 

@@ -1,3 +1,5 @@
+using VoxProf.Core.Memory;
+
 namespace VoxProf.Core.Traversal;
 
 /// <summary>
@@ -29,6 +31,9 @@ public sealed class StrategyResult
 
     /// <summary>Wall time of this strategy's trace (not deterministic; keep it apart from counts).</summary>
     public TimeSpan Elapsed { get; }
+
+    /// <summary>What the memory model found; null when the trace ran with the model off.</summary>
+    public MemoryResult? Memory { get; init; }
 
     public ReadOnlySpan<uint> Get(Counter c) => Counters[(int)c];
 }

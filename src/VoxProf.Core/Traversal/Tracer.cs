@@ -1,5 +1,6 @@
 using System.Diagnostics;
 using System.Runtime.CompilerServices;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Trees;
@@ -9,6 +10,8 @@ namespace VoxProf.Core.Traversal;
 /// <summary>
 /// What to trace. <see cref="PrepassBlock"/> is 0 (off), 2, 4 or 8; <see cref="Threads"/> 0 means every processor.
 /// <see cref="CountWork"/> false runs the kernels with counting compiled out (for timing; counters stay zero).
+/// <see cref="Memory"/> turns the memory model on (docs/counters.md, "Memory traffic"); null leaves it off, and it
+/// never runs without counting.
 /// </summary>
 public sealed record TraceRequest(
     Scene Scene,
@@ -19,7 +22,8 @@ public sealed record TraceRequest(
     IReadOnlyList<Strategy> Strategies,
     int PrepassBlock = 0,
     int Threads = 0,
-    bool CountWork = true);
+    bool CountWork = true,
+    MemorySettings? Memory = null);
 
 /// <summary>Runs every requested strategy over the same rays, in parallel over image tiles.</summary>
 public static class Tracer
@@ -64,21 +68,33 @@ public static class Tracer
 
             int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
             long before = pixelsDone;
+            FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, request.Width, request.Height) : null;
             Parallel.For(0, tilesX * tilesY, options, tile =>
             {
                 int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
                 int x1 = Math.Min(request.Width, x0 + TileSize), y1 = Math.Min(request.Height, y0 + TileSize);
-                if (request.CountWork)
+                if (memory is not null)
+                {
+                    // The memory model: the same kernels, with a counter that also records each node read.
+                    TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                    TraceTile<MemoryCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                    memory.EndTile(reads, counters[(int)Counter.CacheLines]);
+                }
+                else if (request.CountWork)
+                {
                     TraceTile<CostCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                }
                 else
+                {
                     TraceTile<NoCounters>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
             pixelsDone = before + (long)request.Width * request.Height;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
-            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, elapsed));
+            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
@@ -108,9 +124,12 @@ public static class Tracer
                     case Strategy.Hdda: HddaKernel.Trace(view, ray, tMin, stack, ref counters, ref hit); break;
                 }
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
-                if (typeof(TCounters) == typeof(CostCounts))
+                if (typeof(TCounters) == typeof(CostCounts) || typeof(TCounters) == typeof(MemoryCounts))
                 {
-                    Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
+                    if (typeof(TCounters) == typeof(MemoryCounts))
+                        Unsafe.As<TCounters, MemoryCounts>(ref counters).Flush(buffers, pixel);
+                    else
+                        Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
                     if (prepass != null)
                     {
                         buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);

@@ -23,12 +23,16 @@ public static class CompareDiffImages
 {
     public static string FileName(string strategy, string map) => $"diff-{strategy}-{map}.png";
 
-    /// <summary>Maps both reports drew (counter and subgroup names); iterations for reports that list none.</summary>
+    /// <summary>
+    /// Maps both reports drew (counter and subgroup names; not the memory model's group-line maps, which the pixel
+    /// data does not hold); iterations for reports that list none.
+    /// </summary>
     public static IReadOnlyList<string> Maps(ReportComparison cmp)
     {
         var b = cmp.Base.Document.Run.Heatmaps;
         var c = cmp.Candidate.Document.Run.Heatmaps;
-        var both = b.Where(m => c.Contains(m, StringComparer.OrdinalIgnoreCase) && HeatmapNames.TryParse(m, out _)).ToArray();
+        var both = b.Where(m => c.Contains(m, StringComparer.OrdinalIgnoreCase) && HeatmapNames.TryParse(m, out _)
+            && !HeatmapNames.IsGroupLines(m, out _)).ToArray();
         return both.Length > 0 ? both : [Counter.Iterations.Name()];
     }
 
@@ -142,9 +146,14 @@ public static class CompareDiffImages
         return PixelDataFile.Read(new MemoryStream(bytes, writable: false), path);
     }
 
-    /// <summary>A counter's per-pixel values, or for a subgroup map each pixel's tile maximum of loop iterations.</summary>
+    /// <summary>
+    /// A counter's per-pixel values, or for a subgroup map each pixel's tile maximum of loop iterations; null for a
+    /// map of group lines, which the pixel data does not hold.
+    /// </summary>
     private static uint[]? Values(PixelData data, string map)
     {
+        if (HeatmapNames.IsGroupLines(map, out _))
+            return null;
         if (!HeatmapNames.IsSubgroup(map, out var shape))
             return data.Find(map);
         var iterations = data.Find(Counter.Iterations.Name());

@@ -55,6 +55,8 @@ public sealed class ReportComparison
             notes.Add($"tree branching differs: base {b.Tree.Branching}, candidate {c.Tree.Branching}");
         if (b.Run.PrepassBlock != c.Run.PrepassBlock)
             notes.Add($"prepass block differs: base {b.Run.PrepassBlock}, candidate {c.Run.PrepassBlock}");
+        if (b.Run.Memory != c.Run.Memory)
+            notes.Add($"memory model differs: base {b.Run.Memory?.Describe() ?? "off"}, candidate {c.Run.Memory?.Describe() ?? "off"}");
         if (b.ToolVersion != c.ToolVersion)
             notes.Add($"voxprof version differs: base {b.ToolVersion}, candidate {c.ToolVersion}");
         notes.AddRange(Calibration.CalibrationNotes.Compare(b, c));

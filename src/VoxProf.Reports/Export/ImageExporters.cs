@@ -45,6 +45,8 @@ public sealed class HeatmapExporter : IReportExporter
             return "predicted GPU time per pixel, picoseconds";
         if (HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
             return $"{Counter.Iterations.Name()} per pixel: the largest in its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes)";
+        if (HeatmapNames.IsGroupLines(map, out shape))
+            return $"distinct cache lines its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes) touched, per pixel";
         Counter c = Parse(map);
         return c.Unit() == "count" ? $"{c.Name()} per pixel" : $"{c.Unit()} per pixel ({c.Name()})";
     }
@@ -86,6 +88,10 @@ public sealed class HeatmapExporter : IReportExporter
             SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
             s = CounterSummary.Compute(tiles);
         }
+        else if (HeatmapNames.IsGroupLines(map, out shape))
+        {
+            s = CounterSummary.Compute(GroupLines(r, map, shape));
+        }
         else
         {
             s = CounterSummary.Compute(r.Counters[(int)Parse(map)]);
@@ -98,14 +104,27 @@ public sealed class HeatmapExporter : IReportExporter
     {
         if (map == HeatmapNames.PredictedCost)
             return (calibration ?? throw new ArgumentException($"the {map} map needs a calibration", nameof(calibration))).PixelPicoseconds(r);
-        if (!HeatmapNames.IsSubgroup(map, out SubgroupShape shape))
+        uint[] tiles;
+        if (HeatmapNames.IsGroupLines(map, out SubgroupShape shape))
+        {
+            tiles = GroupLines(r, map, shape);
+        }
+        else if (HeatmapNames.IsSubgroup(map, out shape))
+        {
+            tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
+            SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        }
+        else
+        {
             return r.Counters[(int)Parse(map)];
-        var tiles = new uint[shape.TilesX(r.Width) * shape.TilesY(r.Height)];
-        SubgroupModel.TileMax(r.Get(Counter.Iterations), r.Width, r.Height, shape, tiles);
+        }
         var pixels = new uint[r.Width * r.Height];
         SubgroupModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
         return pixels;
     }
+
+    private static uint[] GroupLines(StrategyResult r, string map, SubgroupShape shape) =>
+        r.Memory?.Of(shape)?.Lines ?? throw new ArgumentException($"the {map} map needs the memory model (trace without --memory off)", nameof(map));
 
     private static Counter Parse(string map) =>
         CounterNames.TryParse(map, out Counter c) ? c : throw new ArgumentException($"unknown heatmap {map}", nameof(map));

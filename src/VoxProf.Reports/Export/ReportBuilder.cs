@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
@@ -20,7 +21,7 @@ public static class ReportBuilder
         var calibration = options.Calibration?.Model;
         var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
-            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration)
+            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration, stats[0].Memory?.Settings)
             : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
@@ -40,6 +41,9 @@ public static class ReportBuilder
                 RangeMax = options.RangeMax,
                 Baseline = Baseline(stats, options.Baseline)?.Name(),
                 PixelData = options.PixelData,
+                Memory = run.Results.Select(r => r.Memory?.Settings).FirstOrDefault(m => m is not null) is { } mem
+                    ? new MemoryInfo(mem.LineBytes, mem.CacheBytes, mem.Ways, mem.Group.Lanes, NodeLayout.RecordBytes)
+                    : null,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),
             },

@@ -55,7 +55,10 @@ public static class HeatmapNames
     public static IReadOnlyList<string> Default { get; } = [Counter.Iterations.Name(), .. SubgroupShape.Standard.Select(s => s.Name)];
 
     public static IReadOnlyList<string> All { get; } =
-        [.. CounterNames.All.Select(c => c.Name()), .. SubgroupShape.Standard.Select(s => s.Name)];
+        [.. CounterNames.All.Select(c => c.Name()), .. SubgroupShape.Standard.Select(s => s.Name), .. SubgroupShape.Standard.Select(LinesOf)];
+
+    /// <summary>"lines-per-group32": each pixel shows the distinct cache lines its lockstep group of that shape touched.</summary>
+    public static string LinesOf(SubgroupShape shape) => $"lines-per-group{shape.Lanes}";
 
     public static string ValidList => string.Join(", ", All);
 
@@ -70,6 +73,17 @@ public static class HeatmapNames
         name = All.FirstOrDefault(n => string.Equals(n, text, StringComparison.OrdinalIgnoreCase)) ?? "";
         return name.Length > 0;
     }
+
+    /// <summary>True for a lockstep-group map of the memory model (each pixel shows its group's distinct cache lines).</summary>
+    public static bool IsGroupLines(string name, out SubgroupShape shape)
+    {
+        shape = SubgroupShape.Standard.FirstOrDefault(s => LinesOf(s) == name);
+        return shape.Lanes > 0;
+    }
+
+    /// <summary>True for a map drawn from the memory model, which a trace with --memory off has nothing for.</summary>
+    public static bool NeedsMemoryModel(string name) =>
+        IsGroupLines(name, out _) || (CounterNames.TryParse(name, out Counter c) && c.NeedsMemoryModel());
 
     /// <summary>True for a subgroup map (each pixel shows its tile's largest loop iterations).</summary>
     public static bool IsSubgroup(string name, out SubgroupShape shape)

@@ -31,7 +31,7 @@ public static class TracePage
         var table = MetricTable.FromReport(d);
         string baseline = d.Run.Baseline ?? (table.Rows.Count > 0 ? table.Rows[0] : "");
         int baseRow = table.RowOf(baseline);
-        var columns = MetricColumns.For(MetricColumns.Summary, d.Run.PrepassBlock > 0)
+        var columns = MetricColumns.For(MetricColumns.Summary, d.Run.PrepassBlock > 0, d.Run.Memory is not null)
             .Select(c => (Column: c, Index: table.IndexOf(c.Metric))).Where(c => c.Index >= 0).ToList();
 
         w.Write("<section id=\"strategies\">\n<h2>Strategies</h2>\n");

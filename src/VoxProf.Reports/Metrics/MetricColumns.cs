@@ -1,4 +1,5 @@
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
 
 namespace VoxProf.Reports.Metrics;
 
@@ -6,7 +7,8 @@ namespace VoxProf.Reports.Metrics;
 /// <param name="Metric">The metric's name.</param>
 /// <param name="Ratio">Show its ratio to the baseline strategy (not for counts of faults or descriptive figures).</param>
 /// <param name="PrepassOnly">Show it only for a run with the prepass, where it differs from a total beside it.</param>
-public sealed record MetricColumn(string Metric, bool Ratio = true, bool PrepassOnly = false);
+/// <param name="MemoryOnly">Show it only for a run with the memory model, the only runs that have it.</param>
+public sealed record MetricColumn(string Metric, bool Ratio = true, bool PrepassOnly = false, bool MemoryOnly = false);
 
 /// <summary>
 /// The columns of the short tables a reviewer reads (summary.md and the trace console); every metric stays in
@@ -20,6 +22,10 @@ public static class MetricColumns
     private static string Of(SubgroupShape s, string statistic) => MetricCatalogue.Name(s.Name, statistic);
 
     private static readonly MeasureDefinition PrepassIterations = Measures.Find("prepass-iterations")!;
+
+    private static readonly MeasureDefinition CacheLines = Measures.Find(Counter.CacheLines.Name())!;
+
+    private static string CacheMetric(string statistic) => MetricCatalogue.Name(MetricCatalogue.Cache, statistic);
 
     /// <summary>
     /// summary.md and report.html: what a reviewer weighs, the predicted GPU time first when a calibration gave one,
@@ -35,6 +41,10 @@ public static class MetricColumns
         new(Of(Measures.TotalNodeFetches, "mean")),
         new(Of(SubgroupShape.Lanes32, MetricCatalogue.TileMaxMean)),
         new(Of(SubgroupShape.Lanes32, MetricCatalogue.SimdEfficiency)),
+        new(Of(CacheLines, "mean"), MemoryOnly: true),
+        new(Of(SubgroupShape.Lanes32, MetricCatalogue.LinesPerGroup), MemoryOnly: true),
+        new(CacheMetric(MetricCatalogue.CacheHitRate), Ratio: false, MemoryOnly: true),
+        new(CacheMetric(MetricCatalogue.CacheBytesFetched), MemoryOnly: true),
         new(MetricCatalogue.Mismatch, Ratio: false),
     ];
 
@@ -46,11 +56,13 @@ public static class MetricColumns
         new(Of(Measures.TotalNodeFetches, "mean")),
         new(Of(SubgroupShape.Lanes32, MetricCatalogue.TileMaxMean)),
         new(Of(SubgroupShape.Lanes32, MetricCatalogue.SimdEfficiency)),
+        new(Of(CacheLines, "mean"), MemoryOnly: true),
+        new(CacheMetric(MetricCatalogue.CacheHitRate), Ratio: false, MemoryOnly: true),
         new(MetricCatalogue.HitRate, Ratio: false),
         new(MetricCatalogue.Mismatch, Ratio: false),
     ];
 
-    /// <summary>The columns of <paramref name="columns"/> that apply to a run with or without the prepass.</summary>
-    public static IEnumerable<MetricColumn> For(IEnumerable<MetricColumn> columns, bool prepass) =>
-        columns.Where(c => prepass || !c.PrepassOnly);
+    /// <summary>The columns of <paramref name="columns"/> that apply to a run with or without the prepass and the memory model.</summary>
+    public static IEnumerable<MetricColumn> For(IEnumerable<MetricColumn> columns, bool prepass, bool memory) =>
+        columns.Where(c => (prepass || !c.PrepassOnly) && (memory || !c.MemoryOnly));
 }

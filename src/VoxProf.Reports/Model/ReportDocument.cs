@@ -75,8 +75,21 @@ public sealed record RunInfo(int Width, int Height, int PrepassBlock, string[] S
     /// <summary>The range each heatmap was drawn with (fixed, or the one chosen from the data), one per strategy and map.</summary>
     public IReadOnlyList<HeatmapRange> HeatmapRanges { get; init; } = [];
 
+    /// <summary>The memory model's cache (docs/counters.md, "Memory traffic"); null when the trace ran with --memory off.</summary>
+    [JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)]
+    public MemoryInfo? Memory { get; init; }
+
     /// <summary>Whether pixels-STRATEGY.bin.gz files were written (false with --no-pixels); absent in older reports, so true.</summary>
     public bool PixelData { get; init; } = true;
+}
+
+/// <summary>The memory model's settings: cache lines of <paramref name="LineBytes"/> bytes, a <paramref name="CacheBytes"/>-byte
+/// cache with <paramref name="Ways"/> lines per set, replayed in lockstep groups of <paramref name="GroupLanes"/> lanes.</summary>
+public sealed record MemoryInfo(int LineBytes, int CacheBytes, int Ways, int GroupLanes, int NodeRecordBytes)
+{
+    /// <summary>"64-byte lines, 16 KiB 4-way LRU, 32-lane steps".</summary>
+    public string Describe() => string.Create(System.Globalization.CultureInfo.InvariantCulture,
+        $"{LineBytes}-byte lines, {CacheBytes / 1024.0:0.##} KiB {Ways}-way LRU, {GroupLanes}-lane steps, {NodeRecordBytes}-byte node records");
 }
 
 /// <summary>The scale one heatmap image was drawn with: values at or above <paramref name="Max"/> take the top colour.</summary>

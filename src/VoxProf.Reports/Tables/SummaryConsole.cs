@@ -14,7 +14,7 @@ public static class SummaryConsole
     public static void Write(TextWriter output, ReportDocument report)
     {
         var table = MetricTable.FromReport(report);
-        var columns = MetricColumns.For(MetricColumns.Console, report.Run.PrepassBlock > 0)
+        var columns = MetricColumns.For(MetricColumns.Console, report.Run.PrepassBlock > 0, report.Run.Memory is not null)
             .Select(c => table.IndexOf(c.Metric)).Where(i => i >= 0).ToList();
 
         var top = new List<string> { "" };

@@ -29,7 +29,7 @@ public static class SummaryMarkdown
         sb.Append("Total work includes each pixel's share of the prepass's. ");
         sb.Append("Column names are the metric names of summary.csv, report.json and `voxprof compare` rules; summary.csv has every metric.\n\n");
 
-        var columns = MetricColumns.For(MetricColumns.Summary, run.PrepassBlock > 0)
+        var columns = MetricColumns.For(MetricColumns.Summary, run.PrepassBlock > 0, run.Memory is not null)
             .Select(c => (Column: c, Index: table.IndexOf(c.Metric))).Where(c => c.Index >= 0).ToList();
         sb.Append("| strategy |");
         foreach (var (c, _) in columns)

@@ -68,8 +68,20 @@ public sealed class CalibrationFileTests : IDisposable
     [Fact]
     public void An_unknown_feature_is_named_with_its_JSON_path_and_the_valid_ones()
     {
-        string json = Edited(n => n["costs"]![1]!["feature"] = "cache-lines");
-        ErrorOf(json).Should().StartWith(Path.Combine(_tmp.Path, "calibration.json") + ": $.costs[1].feature: 'cache-lines' is not a measure this voxprof counts; expected pixels or one of: iterations,");
+        string json = Edited(n => n["costs"]![1]!["feature"] = "dram-pages");
+        ErrorOf(json).Should().StartWith(Path.Combine(_tmp.Path, "calibration.json") + ": $.costs[1].feature: 'dram-pages' is not a measure this voxprof counts; expected pixels or one of: iterations,");
+    }
+
+    [Fact]
+    public void A_calibration_pricing_cache_lines_is_refused_by_a_trace_with_the_memory_model_off()
+    {
+        string path = WriteJson(Edited(n => n["costs"]![1]!["feature"] = "cache-lines"));
+        CalibrationFile.Read(path).Model.Terms[1].Name.Should().Be("cache-lines", "cache-lines is a feature like any counter");
+        var output = new StringWriter();
+        var error = new StringWriter();
+        int code = VoxProf.Cli.Cli.Run(["trace", "missing-scene.json", "--memory", "off", "--calibration", path], output, error);
+        code.Should().Be(VoxProf.Cli.ExitCodes.BadInput);
+        error.ToString().Should().Be("voxprof: error: --calibration: prices cache-lines, which comes from the memory model, which --memory off turns off; drop one of them\n");
     }
 
     [Fact]

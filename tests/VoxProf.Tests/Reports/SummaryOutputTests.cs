@@ -84,7 +84,7 @@ public class SummaryOutputTests
             doc.Strategies.Should().OnlyContain(s => s.Values.ContainsKey(m.Name));
             VoxProf.Reports.Compare.GateRule.Parse($"dda.{m.Name}:5%").MatchesMetric(m.Name).Should().BeTrue(m.Name);
         }
-        foreach (var c in MetricColumns.For(MetricColumns.Summary, prepass: false))
+        foreach (var c in MetricColumns.For(MetricColumns.Summary, prepass: false, memory: true))
             md.Should().Contain($" `{c.Metric}` |");
     }
 
@@ -117,11 +117,13 @@ public class SummaryOutputTests
         string F(string metric) => doc.Metrics.Single(m => m.Name == metric).Format(doc.Strategies[0].Value(metric)!.Value);
 
         lines.Should().HaveCount(2 + 2);
-        lines[0].Split(' ', StringSplitOptions.RemoveEmptyEntries).Should().StartWith(["total-iterations.", "total-node-fetches.", "subgroup32.", "subgroup32."]);
+        lines[0].Split(' ', StringSplitOptions.RemoveEmptyEntries).Should().StartWith(
+            ["total-iterations.", "total-node-fetches.", "subgroup32.", "subgroup32.", "cache-lines.", "cache."]);
         lines[1].Split(' ', StringSplitOptions.RemoveEmptyEntries).Should().Equal(
-            "strategy", "mean", "mean", "tile-max-mean", "simd-efficiency", "hit-rate", "mismatch", "seconds");
+            "strategy", "mean", "mean", "tile-max-mean", "simd-efficiency", "mean", "hit-rate", "hit-rate", "mismatch", "seconds");
         lines[2].Split(' ', StringSplitOptions.RemoveEmptyEntries).Should().Equal("grid", F("total-iterations.mean"),
-            F("total-node-fetches.mean"), F("subgroup32.tile-max-mean"), F("subgroup32.simd-efficiency"), F("hit-rate"), "0", "0.030");
+            F("total-node-fetches.mean"), F("subgroup32.tile-max-mean"), F("subgroup32.simd-efficiency"), F("cache-lines.mean"),
+            F("cache.hit-rate"), F("hit-rate"), "0", "0.030");
     }
 
     [Fact]

@@ -1,5 +1,6 @@
 using System.Numerics;
 using VoxProf.Core.Calibration;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -31,9 +32,10 @@ internal static class TestRuns
 
     /// <summary>
     /// A 16×8 image with a grid and a dda result. Grid iterations are x + y + 1; dda takes half as many, plus a
-    /// spike of 40 at (3, 2); dda's hit at (5, 1) is a different voxel from the grid's.
+    /// spike of 40 at (3, 2); dda's hit at (5, 1) is a different voxel from the grid's. With <paramref name="memory"/>
+    /// (as `trace` runs by default) each result carries a made-up memory model result (<see cref="Memory"/>).
     /// </summary>
-    public static TraceRun Small(int width = 16, int height = 8)
+    public static TraceRun Small(int width = 16, int height = 8, bool memory = true)
     {
         var camera = new CameraSpec("gate", new Vector3(1.5f, 20, -30), new Vector3(32, 8, 32), Vector3.UnitY, 50);
         var scene = new Scene(64, 32, 64, [], [camera], "yard", "/scenes/yard.json", "ab12cd");
@@ -41,9 +43,25 @@ internal static class TestRuns
         var settings = new TraceSettings(width, height, 4, 0, 2);
         return new TraceRun(scene, camera, settings, tree,
         [
-            Result(Strategy.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30),
-            Result(Strategy.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10),
+            WithMemory(Result(Strategy.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30), memory ? 3 : 0),
+            WithMemory(Result(Strategy.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10), memory ? 1 : 0),
         ]);
+    }
+
+    /// <summary>
+    /// The result with a made-up memory model result when <paramref name="scale"/> is above 0: group g of each shape
+    /// touched scale × (g + 2) lines; scale × 100 requests of which scale × 60 hit.
+    /// </summary>
+    private static StrategyResult WithMemory(StrategyResult r, int scale)
+    {
+        if (scale == 0)
+            return r;
+        var groups = SubgroupShape.Standard.Select(s =>
+            new GroupLines(s, Enumerable.Range(0, s.TilesX(r.Width) * s.TilesY(r.Height)).Select(g => (uint)(scale * (g + 2))).ToArray())).ToArray();
+        return new StrategyResult(r.Strategy, r.Width, r.Height, r.Counters, r.Hits, r.Elapsed)
+        {
+            Memory = new MemoryResult(MemorySettings.Default, groups, 100L * scale, 60L * scale),
+        };
     }
 
     public static StrategyResult Result(Strategy s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)

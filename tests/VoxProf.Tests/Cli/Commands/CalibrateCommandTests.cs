@@ -192,7 +192,7 @@ public sealed class CalibrateCommandTests : IClassFixture<RingPostViews>, IDispo
     }
 
     [Theory]
-    [InlineData("--features", "total-iterations,cache-lines", "voxprof: error: --features: unknown measure 'cache-lines'; expected one of: iterations,")]
+    [InlineData("--features", "total-iterations,dram-pages", "voxprof: error: --features: unknown measure 'dram-pages'; expected one of: iterations,")]
     [InlineData("--features", "prepass-skip", "voxprof: error: --features: unknown measure 'prepass-skip'")]
     [InlineData("--device", " ", "voxprof: error: --device: empty; expected the GPU and driver the times were measured on")]
     public void Bad_options_exit_2_with_one_line(string option, string value, string start)

@@ -1,6 +1,7 @@
 using System.CommandLine;
 using VoxProf.Cli;
 using VoxProf.Cli.Commands;
+using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
@@ -63,6 +64,12 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--eye 1,2,3", "--target: missing")]
     [InlineData("--fov 0.5", "--fov: 0.5 is not valid, expected a vertical field of view from 1 to 179 degrees")]
     [InlineData("--fov 179.5", "--fov: 179.5 is not valid, expected a vertical field of view from 1 to 179 degrees")]
+    [InlineData("--memory maybe", "--memory: 'maybe' is not valid, expected one of: on, off")]
+    [InlineData("--memory off --cache-kib 32", "--cache-kib: sets the memory model's cache, which --memory off turns off")]
+    [InlineData("--memory off --counters iterations,lines-per-group32", "--counters: lines-per-group32 comes from the memory model, which --memory off turns off")]
+    [InlineData("--cache-line 96", "--cache-line: 96 is not valid, expected 64 or 128 (bytes)")]
+    [InlineData("--cache-ways 0", "--cache-ways: 0 is not valid, expected 1 to 64")]
+    [InlineData("--cache-kib 1 --cache-ways 16 --cache-line 128", "--cache-kib: 1 KiB with 16 ways of 128-byte lines: cache size: 1024 bytes is not valid, expected a whole number of sets")]
     public void Bad_options_exit_2_with_one_line_before_the_scene_is_read(string options, string message)
     {
         ExpectOneLineBadInput($"trace scene.json {options}", message);
@@ -119,6 +126,15 @@ public sealed class TraceCommandTests : IDisposable
         File.Exists(Path.Combine(_dir, "heatmap-dda-subgroup64.png")).Should().BeTrue();
         _requests.Should().ContainSingle().Which.Width.Should().Be(32);
         _requests[0].Camera.Name.Should().Be("gate", "the scene's first camera is the default");
+    }
+
+    [Fact]
+    public void The_memory_model_is_on_at_its_defaults_unless_turned_off_and_the_cache_options_reach_the_trace()
+    {
+        Run($"trace scene.json --size 8x4 --out {_dir}/a --quiet").Code.Should().Be(ExitCodes.Ok);
+        Run($"trace scene.json --size 8x4 --out {_dir}/b --quiet --cache-line 128 --cache-kib 32 --cache-ways 8").Code.Should().Be(ExitCodes.Ok);
+        Run($"trace scene.json --size 8x4 --out {_dir}/c --quiet --memory off").Code.Should().Be(ExitCodes.Ok);
+        _requests.Select(r => r.Memory).Should().Equal(MemorySettings.Default, new MemorySettings(128, 32 * 1024, 8), null);
     }
 
     [Fact]

@@ -98,7 +98,7 @@ public sealed partial class HtmlReportTests : IDisposable
         string table = html[html.IndexOf("<table class=\"sortable\" id=\"strategy-table\">", StringComparison.Ordinal)..];
         table = table[..table.IndexOf("</table>", StringComparison.Ordinal)];
         var headers = Regex.Matches(table, "<button type=\"button\">([^<]*)</button>").Select(m => m.Groups[1].Value);
-        headers.Should().Equal(["strategy", .. MetricColumns.For(MetricColumns.Summary, prepass: false).Select(c => c.Metric)]);
+        headers.Should().Equal(["strategy", .. MetricColumns.For(MetricColumns.Summary, prepass: false, memory: true).Select(c => c.Metric)]);
         table.Should().Contain("<tr class=\"baseline\" data-strategy=\"dda\">", "the first tree strategy is the default baseline");
     }
 

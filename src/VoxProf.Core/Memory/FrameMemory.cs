@@ -1,0 +1,175 @@
+using System.Collections.Concurrent;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+
+namespace VoxProf.Core.Memory;
+
+/// <summary>
+/// The memory model of one strategy's image, fed one tracer tile at a time from any thread: each tile's recorded
+/// node reads become the pixels' <see cref="Counter.CacheLines"/>, the lockstep groups' distinct lines, and a replay
+/// through a cache of its own that starts empty (docs/counters.md, "Memory traffic"). Every tile is processed alone
+/// and the totals are sums of integers, so results do not depend on the thread count or the order tiles finish in.
+/// </summary>
+public sealed class FrameMemory
+{
+    private readonly MemorySettings _settings;
+    private readonly int _width;
+    private readonly uint[][] _groupLines;
+    private readonly ConcurrentBag<TileReads> _pool = [];
+    private long _accesses;
+    private long _hits;
+
+    public FrameMemory(MemorySettings settings, int width, int height)
+    {
+        if (settings.Problem() is { } problem)
+            throw new ArgumentException(problem, nameof(settings));
+        foreach (SubgroupShape s in SubgroupShape.Standard.Append(settings.Group))
+        {
+            // A group must lie inside one tracer tile, since each tile is modelled alone.
+            if (Tracer.TileSize % s.TileWidth != 0 || Tracer.TileSize % s.TileHeight != 0)
+                throw new InvalidOperationException($"{s.Name} tiles do not divide the tracer's {Tracer.TileSize}-pixel tiles");
+        }
+        _settings = settings;
+        _width = width;
+        _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
+    }
+
+    /// <summary>
+    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts"/> until
+    /// <see cref="EndTile"/>, which must run on the same thread.
+    /// </summary>
+    public TileReads BeginTile(int x0, int y0, int x1, int y1)
+    {
+        if (!_pool.TryTake(out TileReads? reads))
+            reads = new TileReads();
+        reads.Begin(x0, y0, x1, y1);
+        MemoryCounts.Attach(reads);
+        return reads;
+    }
+
+    /// <summary>Models the recorded tile, writing each pixel's distinct lines into <paramref name="cacheLines"/> (the image's buffer).</summary>
+    public void EndTile(TileReads reads, uint[] cacheLines)
+    {
+        MemoryCounts.Attach(null);
+        if (reads.Pixels != (reads.X1 - reads.X0) * (reads.Y1 - reads.Y0))
+            throw new InvalidOperationException($"the tile's {reads.Pixels} pixels were not all flushed");
+        TileScratch scratch = reads.Scratch;
+        PixelLines(reads, scratch, cacheLines);
+        for (int i = 0; i < _groupLines.Length; i++)
+            GroupsOf(reads, scratch, SubgroupShape.Standard[i], _groupLines[i]);
+        (long accesses, long hits) = Replay(reads, scratch);
+        Interlocked.Add(ref _accesses, accesses);
+        Interlocked.Add(ref _hits, hits);
+        _pool.Add(reads);
+    }
+
+    /// <summary>The result once every tile has ended.</summary>
+    public MemoryResult Finish() => new(_settings,
+        SubgroupShape.Standard.Select((s, i) => new GroupLines(s, _groupLines[i])).ToArray(),
+        Interlocked.Read(ref _accesses), Interlocked.Read(ref _hits));
+
+    /// <summary>Each pixel's distinct lines, kept per pixel in the scratch for the group unions.</summary>
+    private void PixelLines(TileReads reads, TileScratch scratch, uint[] cacheLines)
+    {
+        int shift = _settings.LineShift;
+        int tileWidth = reads.X1 - reads.X0;
+        LineSet set = scratch.Set;
+        int at = 0;
+        for (int k = 0; k < reads.Pixels; k++)
+        {
+            set.Clear();
+            foreach (int node in reads.Of(k))
+            {
+                int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
+                set.Add(first);
+                if (last != first)
+                    set.Add(last);
+            }
+            set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
+            at += set.Count;
+            scratch.PixelEnds[k] = at;
+            cacheLines[(reads.Y0 + k / tileWidth) * _width + reads.X0 + k % tileWidth] = (uint)set.Count;
+        }
+    }
+
+    private void GroupsOf(TileReads reads, TileScratch scratch, SubgroupShape shape, uint[] groups)
+    {
+        int tileWidth = reads.X1 - reads.X0;
+        int tilesX = shape.TilesX(_width);
+        LineSet set = scratch.Set;
+        for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
+        {
+            for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
+            {
+                set.Clear();
+                for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
+                {
+                    for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
+                    {
+                        foreach (int line in scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0))
+                            set.Add(line);
+                    }
+                }
+                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)set.Count;
+            }
+        }
+    }
+
+    /// <summary>
+    /// Replays the tile through an empty cache: the lockstep groups in row-major order; within a group, step k
+    /// issues the k-th read of every lane that still has one, in lane order, and the distinct lines of that step
+    /// (lanes reading one line share one request) go to the cache in the order they first appear.
+    /// </summary>
+    private (long Accesses, long Hits) Replay(TileReads reads, TileScratch scratch)
+    {
+        SubgroupShape shape = _settings.Group;
+        LruCache cache = scratch.Cache(_settings);
+        cache.Clear();
+        int shift = _settings.LineShift;
+        int tileWidth = reads.X1 - reads.X0;
+        Span<int> starts = stackalloc int[shape.Lanes];
+        Span<int> lengths = stackalloc int[shape.Lanes];
+        ReadOnlySpan<int> all = reads.All;
+        LineSet step = scratch.Set;
+        long accesses = 0, hits = 0;
+        for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
+        {
+            for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
+            {
+                int laneCount = 0, longest = 0;
+                for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
+                {
+                    for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
+                    {
+                        int k = (y - reads.Y0) * tileWidth + x - reads.X0;
+                        starts[laneCount] = reads.Start(k);
+                        lengths[laneCount] = reads.Of(k).Length;
+                        longest = Math.Max(longest, lengths[laneCount++]);
+                    }
+                }
+                for (int s = 0; s < longest; s++)
+                {
+                    // The set keeps each line once, in the order it first appears: one request per distinct line.
+                    step.Clear();
+                    for (int lane = 0; lane < laneCount; lane++)
+                    {
+                        if (s >= lengths[lane])
+                            continue;
+                        int node = all[starts[lane] + s];
+                        int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
+                        step.Add(first);
+                        if (last != first)
+                            step.Add(last);
+                    }
+                    foreach (int line in step.Members)
+                    {
+                        if (cache.Access(line))
+                            hits++;
+                    }
+                    accesses += step.Count;
+                }
+            }
+        }
+        return (accesses, hits);
+    }
+}

@@ -1,0 +1,43 @@
+namespace VoxProf.Core.Memory;
+
+/// <summary>
+/// A set-associative cache with least-recently-used replacement, holding line numbers only (no data): line
+/// <c>L</c> maps to set <c>L mod Sets</c>, and a miss in a full set evicts the line of that set used longest ago.
+/// </summary>
+public sealed class LruCache
+{
+    private const int Empty = -1;
+
+    // Each set's lines, most recently used first: ways are few (at most 64), so moving a line to the front is a short copy.
+    private readonly int[] _lines;
+
+    public LruCache(int sets, int ways)
+    {
+        ArgumentOutOfRangeException.ThrowIfLessThan(sets, 1);
+        ArgumentOutOfRangeException.ThrowIfLessThan(ways, 1);
+        Sets = sets;
+        Ways = ways;
+        _lines = new int[checked(sets * ways)];
+        Clear();
+    }
+
+    public int Sets { get; }
+    public int Ways { get; }
+
+    /// <summary>Empties every set.</summary>
+    public void Clear() => _lines.AsSpan().Fill(Empty);
+
+    /// <summary>Reads line <paramref name="line"/> (not negative): true on a hit. Either way it becomes its set's most recent line.</summary>
+    public bool Access(int line)
+    {
+        ArgumentOutOfRangeException.ThrowIfNegative(line);
+        Span<int> set = _lines.AsSpan(line % Sets * Ways, Ways);
+        int found = set.IndexOf(line);
+        bool hit = found >= 0;
+        // On a miss the last way (the least recent, or an empty one) is the one dropped.
+        int shift = hit ? found : Ways - 1;
+        set[..shift].CopyTo(set[1..]);
+        set[0] = line;
+        return hit;
+    }
+}

@@ -1,0 +1,156 @@
+using FluentAssertions;
+using VoxProf.Core.Memory;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using Xunit;
+
+namespace VoxProf.Tests.Memory;
+
+/// <summary>The memory model fed made-up node reads through the tracer's protocol, against an obvious replay.</summary>
+public sealed class FrameMemoryTests
+{
+    private sealed record Frame(int Width, int Height, int[][] Reads);
+
+    /// <summary>Random reads per pixel: a few popular nodes (the tree's top) and a wide spread of others.</summary>
+    private static Frame RandomFrame(int seed, int width, int height)
+    {
+        var rng = new Random(seed);
+        var reads = new int[width * height][];
+        for (int p = 0; p < reads.Length; p++)
+            reads[p] = Enumerable.Range(0, rng.Next(0, 40)).Select(_ => rng.Next(4) == 0 ? rng.Next(6) : rng.Next(3000)).ToArray();
+        return new Frame(width, height, reads);
+    }
+
+    /// <summary>Runs the frame through <see cref="FrameMemory"/> tile by tile, as the tracer does.</summary>
+    private static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings)
+    {
+        var memory = new FrameMemory(settings, f.Width, f.Height);
+        var buffers = new uint[CounterNames.Count][];
+        for (int c = 0; c < buffers.Length; c++)
+            buffers[c] = new uint[f.Width * f.Height];
+        for (int y0 = 0; y0 < f.Height; y0 += Tracer.TileSize)
+        {
+            for (int x0 = 0; x0 < f.Width; x0 += Tracer.TileSize)
+            {
+                int x1 = Math.Min(f.Width, x0 + Tracer.TileSize), y1 = Math.Min(f.Height, y0 + Tracer.TileSize);
+                TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                for (int y = y0; y < y1; y++)
+                {
+                    for (int x = x0; x < x1; x++)
+                    {
+                        MemoryCounts counts = default;
+                        foreach (int node in f.Reads[y * f.Width + x])
+                            counts.NodeFetch(node);
+                        counts.Flush(buffers, y * f.Width + x);
+                    }
+                }
+                memory.EndTile(reads, buffers[(int)Counter.CacheLines]);
+            }
+        }
+        buffers[(int)Counter.NodeFetches].Should().Equal(f.Reads.Select(r => (uint)r.Length), "the counts pass through unchanged");
+        return (memory.Finish(), buffers[(int)Counter.CacheLines]);
+    }
+
+    private static IEnumerable<int> LinesOf(int node, int lineBytes)
+    {
+        long start = (long)node * 24, end = start + 23;
+        for (long line = start / lineBytes; line <= end / lineBytes; line++)
+            yield return (int)line;
+    }
+
+    private static IEnumerable<int> PixelsOf(int gx, int gy, SubgroupShape s, Frame f) =>
+        from y in Enumerable.Range(gy * s.TileHeight, s.TileHeight)
+        from x in Enumerable.Range(gx * s.TileWidth, s.TileWidth)
+        where x < f.Width && y < f.Height
+        select y * f.Width + x;
+
+    [Theory]
+    [InlineData(1, 64, 16384, 4)]
+    [InlineData(2, 128, 4096, 2)]
+    [InlineData(3, 64, 1024, 1)]
+    public void Pixel_and_group_lines_and_the_cache_replay_agree_with_an_obvious_replay(int seed, int lineBytes, int cacheBytes, int ways)
+    {
+        // 37 × 21: partial tracer tiles and partial groups at the right and bottom.
+        Frame f = RandomFrame(seed, 37, 21);
+        var settings = new MemorySettings(lineBytes, cacheBytes, ways);
+        (MemoryResult result, uint[] cacheLines) = Model(f, settings);
+
+        for (int p = 0; p < f.Reads.Length; p++)
+            cacheLines[p].Should().Be((uint)f.Reads[p].SelectMany(n => LinesOf(n, lineBytes)).Distinct().Count(), $"pixel {p}");
+
+        foreach (SubgroupShape s in SubgroupShape.Standard)
+        {
+            uint[] groups = result.Of(s)!.Lines;
+            groups.Should().HaveCount(s.TilesX(f.Width) * s.TilesY(f.Height));
+            for (int gy = 0; gy < s.TilesY(f.Height); gy++)
+            {
+                for (int gx = 0; gx < s.TilesX(f.Width); gx++)
+                {
+                    int expected = PixelsOf(gx, gy, s, f).SelectMany(p => f.Reads[p]).SelectMany(n => LinesOf(n, lineBytes)).Distinct().Count();
+                    groups[gy * s.TilesX(f.Width) + gx].Should().Be((uint)expected, $"{s.Name} group ({gx}, {gy})");
+                }
+            }
+        }
+
+        // The replay written out plainly: per tracer tile an empty cache; its 32-lane groups in row order; step k
+        // takes the k-th read of each lane in lane order; a step's distinct lines, first appearance first.
+        long accesses = 0, hits = 0;
+        SubgroupShape g = settings.Group;
+        for (int ty = 0; ty < f.Height; ty += Tracer.TileSize)
+        {
+            for (int tx = 0; tx < f.Width; tx += Tracer.TileSize)
+            {
+                var cache = new List<int>[settings.Sets];
+                for (int i = 0; i < cache.Length; i++)
+                    cache[i] = [];
+                for (int gy = ty / g.TileHeight; gy * g.TileHeight < Math.Min(f.Height, ty + Tracer.TileSize); gy++)
+                {
+                    for (int gx = tx / g.TileWidth; gx * g.TileWidth < Math.Min(f.Width, tx + Tracer.TileSize); gx++)
+                    {
+                        int[][] lanes = PixelsOf(gx, gy, g, f).Select(p => f.Reads[p]).ToArray();
+                        for (int k = 0; k < lanes.Max(l => l.Length); k++)
+                        {
+                            foreach (int line in lanes.Where(l => k < l.Length).SelectMany(l => LinesOf(l[k], lineBytes)).Distinct())
+                            {
+                                List<int> set = cache[line % settings.Sets];
+                                accesses++;
+                                if (set.Remove(line))
+                                    hits++;
+                                set.Insert(0, line);
+                                if (set.Count > settings.Ways)
+                                    set.RemoveAt(set.Count - 1);
+                            }
+                        }
+                    }
+                }
+            }
+        }
+        (result.Accesses, result.Hits).Should().Be((accesses, hits));
+        result.BytesFetched.Should().Be((accesses - hits) * lineBytes);
+        hits.Should().BeGreaterThan(0).And.BeLessThan(accesses, "the case should exercise both hits and misses");
+    }
+
+    [Fact]
+    public void Lanes_reading_the_same_record_in_the_same_step_share_one_request()
+    {
+        // Every pixel of one 8×4 group reads node 0, then node 2 (bytes 48..71: lines 0 and 1 of 64 bytes).
+        var reads = new int[8 * 4][];
+        for (int p = 0; p < reads.Length; p++)
+            reads[p] = [0, 2];
+        (MemoryResult result, uint[] cacheLines) = Model(new Frame(8, 4, reads), MemorySettings.Default);
+        cacheLines.Should().OnlyContain(c => c == 2);
+        result.Of(SubgroupShape.Lanes32)!.Lines.Should().Equal(2u);
+        // Step 0: line 0, a miss. Step 1: lines 0 (hit) and 1 (miss).
+        (result.Accesses, result.Hits, result.BytesFetched).Should().Be((3L, 1L, 128L));
+    }
+
+    [Fact]
+    public void Settings_the_cache_cannot_have_are_refused_with_what_was_expected()
+    {
+        new MemorySettings(96).Problem().Should().Be("line size: 96 is not valid, expected 64 or 128 bytes");
+        new MemorySettings(Ways: 0).Problem().Should().StartWith("ways: 0 is not valid");
+        new MemorySettings(CacheBytes: 1000).Problem().Should().StartWith("cache size: 1000 bytes is not valid");
+        MemorySettings.Default.Problem().Should().BeNull();
+        MemorySettings.Default.Sets.Should().Be(64, "16 KiB of 64-byte lines in sets of 4");
+    }
+}
