@@ -13,6 +13,7 @@ public static partial class Cli
         root.Subcommands.Add(TraceCommand.Create(output, error));
         root.Subcommands.Add(CompareCommand.Create(output, error));
         root.Subcommands.Add(CalibrateCommand.Create(output, error));
+        root.Subcommands.Add(MergeCommand.Create(output, error));
         return root;
     }
 

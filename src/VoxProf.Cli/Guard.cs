@@ -1,5 +1,6 @@
 using VoxProf.Core;
 using VoxProf.Core.Limits;
+using VoxProf.Core.Strategies;
 
 namespace VoxProf.Cli;
 
@@ -15,6 +16,14 @@ public static class Guard
         catch (LimitException ex)
         {
             WriteError(error, ex.Message + SceneOptions.Hint(ex.Kind));
+            return ExitCodes.BadInput;
+        }
+        catch (StrategyCompileException ex)
+        {
+            // The compiler's own lines, which editors and CI logs link to the place, then one line of ours.
+            foreach (string line in ex.Errors)
+                error.WriteLine(MessageText.ForDisplay(line));
+            WriteError(error, ex.Message);
             return ExitCodes.BadInput;
         }
         catch (Exception ex) when (ex is InputException or IOException or UnauthorizedAccessException)

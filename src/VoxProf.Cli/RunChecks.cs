@@ -1,5 +1,6 @@
 using VoxProf.Core.Limits;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 
@@ -19,11 +20,11 @@ internal static class RunChecks
 
     /// <summary>A trace: the build, the grid reference's steps when it is traced, and the memory of everything together.</summary>
     public static void BeforeTrace(Scene scene, CameraSpec camera, int branching, int width, int height,
-        IReadOnlyList<Strategy> strategies, IReadOnlyList<string> heatmaps, double maxWork, MemoryLimit memory)
+        IReadOnlyList<StrategyDefinition> strategies, IReadOnlyList<string> heatmaps, double maxWork, MemoryLimit memory)
     {
         var build = BuildEstimate.Of(scene, branching);
         build.RequireWork(maxWork);
-        if (strategies.Contains(Strategy.Grid))
+        if (strategies.Contains(BuiltInStrategies.Grid))
             TraceCost.RequireGridWork(scene, camera, width, height, maxWork);
         var parts = build.MemoryParts()
             .Concat(TraceCost.MemoryParts(width, height, strategies.Count))

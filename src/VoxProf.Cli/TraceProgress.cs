@@ -21,10 +21,13 @@ internal sealed class TraceProgress : IProgress<int>, IProgress<string>
     private readonly object _lock = new();
     private long _lastDrawMs = -1000;
     private int _lastLength;
+    private readonly string _prefix;
 
     /// <param name="strategies">Strategy names in trace order; the tracer reports rows summed over them.</param>
-    public TraceProgress(TextWriter error, int height, IReadOnlyList<string> strategies)
+    /// <param name="prefix">Put before every line: which view of a run of several ("view 3/72 walk#002: ").</param>
+    public TraceProgress(TextWriter error, int height, IReadOnlyList<string> strategies, string prefix = "")
     {
+        _prefix = prefix;
         _error = error;
         _height = Math.Max(1, height);
         _strategies = strategies;
@@ -81,6 +84,7 @@ internal sealed class TraceProgress : IProgress<int>, IProgress<string>
 
     private void Draw(string text)
     {
+        text = _prefix + text;
         // Pad over the previous text: a shorter line must not leave the end of a longer one behind.
         string padded = text.Length < _lastLength ? text + new string(' ', _lastLength - text.Length) : text;
         _error.Write("\r" + padded);

@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -14,7 +15,7 @@ namespace VoxProf.Benchmarks;
 /// </summary>
 public static class PrepassTiming
 {
-    public static void Run(Scene scene, int width, int height, int block, Strategy strategy, int rounds, string? camera, int threads, TextWriter output)
+    public static void Run(Scene scene, int width, int height, int block, StrategyDefinition strategy, int rounds, string? camera, int threads, TextWriter output)
     {
         BrickTree tree = TreeBuilder.Build(scene, 4);
         // The tree's first prepass builds its coarse grids; that is timed apart, once, like the tree's build.
@@ -64,7 +65,7 @@ public static class PrepassTiming
             double pixels = (double)width * height;
             double Mean(TraceRun run, Counter c) => run.Results[0].Counters[(int)c].Sum(v => (long)v) / pixels;
             output.WriteLine(FormattableString.Invariant(
-                $"{cam.Name},{strategy.Name()},{block},{Median(wall):F3},{Median(cpu):F3},{Median(plainWall):F3},{Median(fastWall):F3},{mapSeconds:F3},{mapSeconds * 1e9 / coarseIterations:F1},{Mean(plain!, Counter.Iterations):F1},{Mean(fast!, Counter.Iterations):F1},{Mean(plain!, Counter.Descents):F2},{Mean(fast!, Counter.Descents):F2},{Mean(fast!, Counter.PrepassIterations):F2},{Mean(fast!, Counter.PrepassNodeFetches):F2}"));
+                $"{cam.Name},{strategy.Name},{block},{Median(wall):F3},{Median(cpu):F3},{Median(plainWall):F3},{Median(fastWall):F3},{mapSeconds:F3},{mapSeconds * 1e9 / coarseIterations:F1},{Mean(plain!, Counter.Iterations):F1},{Mean(fast!, Counter.Iterations):F1},{Mean(plain!, Counter.Descents):F2},{Mean(fast!, Counter.Descents):F2},{Mean(fast!, Counter.PrepassIterations):F2},{Mean(fast!, Counter.PrepassNodeFetches):F2}"));
         }
     }
 

@@ -1,7 +1,7 @@
 using BenchmarkDotNet.Running;
 using VoxProf.Benchmarks;
 using VoxProf.Core.Scenes;
-using VoxProf.Core.Traversal;
+using VoxProf.Core.Strategies;
 
 if (args.Length > 1 && args[0] == "build")
 {
@@ -24,14 +24,21 @@ if (args.Length > 0 && args[0] == "quick")
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
     return 0;
 }
+if (args.Length > 2 && args[0] == "views")
+{
+    (int w, int h) = args.Length > 3 ? Size(args[3]) : (1280, 720);
+    ViewsTiming.Run(SceneLoader.Load(args[1]), args[2], w, h, Console.Out);
+    return 0;
+}
 if (args.Length > 1 && args[0] == "prepass")
 {
+    // prepass SCENE [WxH] [K] [STRATEGY] [ROUNDS] [CAMERA|all] [THREADS]: see PrepassTiming.
     Scene scene = SceneLoader.Load(args[1]);
     (int w, int h) = args.Length > 2 ? Size(args[2]) : (1280, 720);
     int block = args.Length > 3 ? int.Parse(args[3]) : 4;
-    Strategy strategy = Strategy.Dda;
-    if (args.Length > 4 && !StrategyNames.TryParse(args[4], out strategy))
-        throw new ArgumentException($"unknown strategy {args[4]}");
+    StrategyDefinition strategy = args.Length > 4
+        ? BuiltInStrategies.All.FirstOrDefault(d => d.Name == args[4]) ?? throw new ArgumentException($"unknown strategy {args[4]}")
+        : BuiltInStrategies.Dda;
     int rounds = args.Length > 5 ? int.Parse(args[5]) : 3;
     string? only = args.Length > 6 && args[6] != "all" ? args[6] : null;
     int threads = args.Length > 7 ? int.Parse(args[7]) : 0;

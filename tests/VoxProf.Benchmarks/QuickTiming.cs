@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -24,7 +25,7 @@ public static class QuickTiming
         output.WriteLine("camera,strategy,prepass,wall_s_counting,wall_s_uncounted,mrays_per_s,iterations_per_pixel,m_iterations_per_s_per_core_counting,m_iterations_per_s_per_core_uncounted,m_iterations_per_cpu_s_counting,m_iterations_per_cpu_s_uncounted,wall_s_memory_model");
         foreach (CameraSpec cam in scene.Cameras)
         {
-            foreach (Strategy s in StrategyNames.All)
+            foreach (StrategyDefinition s in BuiltInStrategies.All)
             {
                 // Warm up the JIT's optimised code for this kernel before timing.
                 Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, [s], prepass));
@@ -41,7 +42,7 @@ public static class QuickTiming
                     + counted.Results[0].Counters[(int)Counter.PrepassIterations].Sum(v => (long)v);
                 double pixels = (double)width * height;
                 output.WriteLine(FormattableString.Invariant(
-                    $"{cam.Name},{s.Name()},{prepass},{tc:F3},{tu:F3},{pixels / tc / 1e6:F2},{iterations / pixels:F1},{iterations / tc / cores / 1e6:F1},{iterations / tu / cores / 1e6:F1},{iterations / (cpu1 - cpu0).TotalSeconds / 1e6:F1},{iterations / (cpu2 - cpu1).TotalSeconds / 1e6:F1},{modelled.Results[0].Elapsed.TotalSeconds:F3}"));
+                    $"{cam.Name},{s.Name},{prepass},{tc:F3},{tu:F3},{pixels / tc / 1e6:F2},{iterations / pixels:F1},{iterations / tc / cores / 1e6:F1},{iterations / tu / cores / 1e6:F1},{iterations / (cpu1 - cpu0).TotalSeconds / 1e6:F1},{iterations / (cpu2 - cpu1).TotalSeconds / 1e6:F1},{modelled.Results[0].Elapsed.TotalSeconds:F3}"));
             }
         }
     }

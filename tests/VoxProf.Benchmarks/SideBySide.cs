@@ -2,6 +2,7 @@ using System.Diagnostics;
 using System.Globalization;
 using System.Text.RegularExpressions;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -19,7 +20,7 @@ namespace VoxProf.Benchmarks;
 /// </summary>
 public static partial class SideBySide
 {
-    private static readonly Strategy[] Strategies = [Strategy.Dda, Strategy.DdaMask, Strategy.Hdda];
+    private static readonly StrategyDefinition[] Strategies = [BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
 
     public static int Run(string refbrick, string scenePath, string camera, int width, int height, int rounds,
         (int Width, int Height)? shareSize, TextWriter output)
@@ -28,22 +29,22 @@ public static partial class SideBySide
         BrickTree tree = TreeBuilder.Build(scene, 4);
         CameraSpec cam = scene.Cameras.FirstOrDefault(c => c.Name == camera)
             ?? throw new ArgumentException($"no camera '{camera}' in {scenePath}");
-        foreach (Strategy s in Strategies)
+        foreach (StrategyDefinition s in Strategies)
             Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, [s], Threads: 1));
 
         double pixels = (double)width * height;
         var ratios = Strategies.ToDictionary(s => s, _ => new List<double>());
-        var voxIterations = new Dictionary<Strategy, long>();
+        var voxIterations = new Dictionary<StrategyDefinition, long>();
         var cIterations = new Dictionary<string, long>();
         for (int r = 0; r < rounds; r++)
         {
-            Dictionary<Strategy, double> vox = [];
+            Dictionary<StrategyDefinition, double> vox = [];
             Dictionary<string, double> c = [];
             for (int side = 0; side < 2; side++)
             {
                 if ((side == 0) == (r % 2 == 0))
                 {
-                    foreach (Strategy s in Strategies)
+                    foreach (StrategyDefinition s in Strategies)
                     {
                         (double cpu, long iterations) = TraceCpu(scene, tree, cam, width, height, s);
                         vox[s] = pixels / cpu;
@@ -59,28 +60,28 @@ public static partial class SideBySide
                     }
                 }
             }
-            ratios[Strategy.Dda].Add(vox[Strategy.Dda] / c["dda"]);
-            ratios[Strategy.DdaMask].Add(vox[Strategy.DdaMask] / c["mask"]);
-            ratios[Strategy.Hdda].Add(vox[Strategy.Hdda] / c["dda"]);
-            output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[Strategy.Dda] / 1e6:F3}, dda-mask {vox[Strategy.DdaMask] / 1e6:F3}, hdda {vox[Strategy.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}"));
+            ratios[BuiltInStrategies.Dda].Add(vox[BuiltInStrategies.Dda] / c["dda"]);
+            ratios[BuiltInStrategies.DdaMask].Add(vox[BuiltInStrategies.DdaMask] / c["mask"]);
+            ratios[BuiltInStrategies.Hdda].Add(vox[BuiltInStrategies.Hdda] / c["dda"]);
+            output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[BuiltInStrategies.Dda] / 1e6:F3}, dda-mask {vox[BuiltInStrategies.DdaMask] / 1e6:F3}, hdda {vox[BuiltInStrategies.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}"));
         }
 
-        long worst = Math.Max(Math.Max(Math.Abs(voxIterations[Strategy.Dda] - cIterations["dda"]), Math.Abs(voxIterations[Strategy.Hdda] - cIterations["dda"])),
-            Math.Abs(voxIterations[Strategy.DdaMask] - cIterations["mask"]));
-        output.WriteLine(Invariant($"check: iterations dda {voxIterations[Strategy.Dda]}, hdda {voxIterations[Strategy.Hdda]}, C dda {cIterations["dda"]}; dda-mask {voxIterations[Strategy.DdaMask]}, C mask {cIterations["mask"]}: {(worst == 0 ? "same work" : $"totals differ by up to {worst} ({100.0 * worst / cIterations["mask"]:G2}%)")}"));
-        output.WriteLine(Invariant($"ratio dda-mask / C mask = {Median(ratios[Strategy.DdaMask]):F2} (rounds {Range(ratios[Strategy.DdaMask])})"));
-        output.WriteLine(Invariant($"ratio dda / C dda = {Median(ratios[Strategy.Dda]):F2} (rounds {Range(ratios[Strategy.Dda])})"));
-        output.WriteLine(Invariant($"ratio hdda / C dda = {Median(ratios[Strategy.Hdda]):F2} (rounds {Range(ratios[Strategy.Hdda])})"));
+        long worst = Math.Max(Math.Max(Math.Abs(voxIterations[BuiltInStrategies.Dda] - cIterations["dda"]), Math.Abs(voxIterations[BuiltInStrategies.Hdda] - cIterations["dda"])),
+            Math.Abs(voxIterations[BuiltInStrategies.DdaMask] - cIterations["mask"]));
+        output.WriteLine(Invariant($"check: iterations dda {voxIterations[BuiltInStrategies.Dda]}, hdda {voxIterations[BuiltInStrategies.Hdda]}, C dda {cIterations["dda"]}; dda-mask {voxIterations[BuiltInStrategies.DdaMask]}, C mask {cIterations["mask"]}: {(worst == 0 ? "same work" : $"totals differ by up to {worst} ({100.0 * worst / cIterations["mask"]:G2}%)")}"));
+        output.WriteLine(Invariant($"ratio dda-mask / C mask = {Median(ratios[BuiltInStrategies.DdaMask]):F2} (rounds {Range(ratios[BuiltInStrategies.DdaMask])})"));
+        output.WriteLine(Invariant($"ratio dda / C dda = {Median(ratios[BuiltInStrategies.Dda]):F2} (rounds {Range(ratios[BuiltInStrategies.Dda])})"));
+        output.WriteLine(Invariant($"ratio hdda / C dda = {Median(ratios[BuiltInStrategies.Hdda]):F2} (rounds {Range(ratios[BuiltInStrategies.Hdda])})"));
         if (shareSize is (int sw, int sh))
         {
-            var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, Strategy.DdaMask).Cpu).ToList();
+            var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, BuiltInStrategies.DdaMask).Cpu).ToList();
             output.WriteLine(Invariant($"traversal cpu seconds dda-mask {sw}x{sh} = {Median(cpus):F3}"));
         }
         return 0;
     }
 
     /// <summary>Process CPU seconds of one single-threaded trace, and its total iterations.</summary>
-    private static (double Cpu, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, Strategy s)
+    private static (double Cpu, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, StrategyDefinition s)
     {
         TimeSpan before = Process.GetCurrentProcess().TotalProcessorTime;
         TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1));

@@ -1,5 +1,6 @@
 using BenchmarkDotNet.Attributes;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -23,7 +24,7 @@ public class TraceBenchmarks
     [Params(0, 1)]
     public int CameraIndex { get; set; }
 
-    public static IEnumerable<string> Strategies => StrategyNames.All.Where(s => s != VoxProf.Core.Traversal.Strategy.Grid).Select(s => s.Name());
+    public static IEnumerable<string> Strategies => BuiltInStrategies.All.Where(s => s != VoxProf.Core.Strategies.BuiltInStrategies.Grid).Select(s => s.Name);
 
     [GlobalSetup]
     public void Setup()
@@ -35,7 +36,7 @@ public class TraceBenchmarks
 
     private TraceRequest Request(bool count)
     {
-        StrategyNames.TryParse(Strategy, out Strategy s);
+        new StrategyCatalog().TryParse(Strategy, out StrategyDefinition s);
         CameraSpec cam = _scene.Cameras[Math.Min(CameraIndex, _scene.Cameras.Count - 1)];
         return new TraceRequest(_scene, _tree, cam, 1280, 720, [s], CountWork: count);
     }

@@ -61,9 +61,16 @@ public static class CalibrateCommand
         var loaded = new List<LoadedReport>();
         foreach (string path in reportPaths)
         {
-            LoadedReport report = ReportLoader.Load(path);
-            if (!loaded.Any(r => Path.GetFullPath(r.File) == Path.GetFullPath(report.File)))
-                loaded.Add(report);
+            LoadedReport read = ReportLoader.Load(path);
+            // A run of several views gives each of its views, never the mean over them.
+            IEnumerable<LoadedReport> reports = read.Views is { } runViews
+                ? runViews.Select(v => ReportLoader.Load(Path.Combine(read.Directory, v.Folder)))
+                : [read];
+            foreach (LoadedReport report in reports)
+            {
+                if (!loaded.Any(r => Path.GetFullPath(r.File) == Path.GetFullPath(report.File)))
+                    loaded.Add(report);
+            }
         }
         IReadOnlyList<MeasuredView> views = MeasuredViews.Match(timesPath, rows, loaded, features);
         int needed = CostFitter.MinimumSamples(features.Count);

@@ -13,7 +13,12 @@ public static class CompareCommand
     public static Command Create(TextWriter output, TextWriter error)
     {
         var baseArg = new Argument<string>("base") { Description = "The base report: a directory written by `voxprof trace`, or its report.json." };
-        var candidateArg = new Argument<string>("candidate") { Description = "The candidate report, compared against the base." };
+        var candidateArg = new Argument<string?>("candidate") { Description = "The candidate report, compared against the base (none with --within).", Arity = ArgumentArity.ZeroOrOne };
+        var pairOpt = new Option<string[]>("--pair")
+        {
+            Description = "Compare a strategy of the base with another of the candidate, BASE=CANDIDATE (e.g. dda=dda-mask); repeat or separate with commas for several.",
+        };
+        var withinOpt = new Option<string?>("--within") { Description = "Compare two strategies of one run, BASE,CANDIDATE (e.g. dda,dda-mask); give one report." };
         var outOpt = new Option<string>("--out", "-o")
         {
             Description = "Directory for compare.md, compare.csv, compare.json and the difference heatmaps.",
@@ -31,9 +36,9 @@ public static class CompareCommand
             Description = "Absolute URL the compare files will be served from; compare.md's image links then start with it, so they still work once pasted into a pull request.",
         };
 
-        var cmd = new Command("compare", "Compare two trace reports; exit 1 when a gate rule is broken.")
+        var cmd = new Command("compare", "Compare two trace reports, or two strategies (--pair, --within); exit 1 when a gate rule is broken.")
         {
-            baseArg, candidateArg, outOpt, failOnOpt, quietOpt, noHtmlOpt, linkBaseOpt,
+            baseArg, candidateArg, outOpt, failOnOpt, quietOpt, noHtmlOpt, linkBaseOpt, pairOpt, withinOpt,
         };
         cmd.SetAction(parse =>
         {
@@ -41,7 +46,21 @@ public static class CompareCommand
             {
                 var settings = new Settings(parse.GetValue(outOpt) ?? DefaultOut, parse.GetValue(quietOpt), !parse.GetValue(noHtmlOpt),
                     parse.GetValue(linkBaseOpt) is { } lb ? OptionParsing.LinkBase(lb) : null);
-                return Execute(parse.GetValue(baseArg)!, parse.GetValue(candidateArg)!, parse.GetValue(failOnOpt) ?? [], settings, output, error);
+                string basePath = parse.GetValue(baseArg)!;
+                string? candidatePath = parse.GetValue(candidateArg);
+                IReadOnlyList<StrategyPair> pairs = StrategyPair.Parse(parse.GetValue(pairOpt) ?? []);
+                if (parse.GetValue(withinOpt) is { } within)
+                {
+                    if (candidatePath is not null)
+                        throw new InputException($"--within: compares two strategies of one run; give one report, not also '{MessageText.Excerpt(candidatePath)}'");
+                    if (pairs.Count > 0)
+                        throw new InputException("--within: give either --within or --pair, not both");
+                    pairs = [StrategyPair.Within(within)];
+                    candidatePath = basePath;
+                }
+                if (candidatePath is null)
+                    throw new InputException("candidate: missing; give BASE CANDIDATE, or one run with --within BASE,CANDIDATE");
+                return Execute(basePath, candidatePath, pairs, parse.GetValue(failOnOpt) ?? [], settings, output, error);
             });
         });
         return cmd;
@@ -49,12 +68,12 @@ public static class CompareCommand
 
     private sealed record Settings(string OutDir, bool Quiet, bool Html, Uri? LinkBase);
 
-    private static int Execute(string basePath, string candidatePath, string[] ruleTexts, Settings settings, TextWriter output, TextWriter error)
+    private static int Execute(string basePath, string candidatePath, IReadOnlyList<StrategyPair> pairs, string[] ruleTexts, Settings settings, TextWriter output, TextWriter error)
     {
         // Rule syntax and the output path first: a typo should not wait for two reports to load.
         var rules = GateRules.Parse(ruleTexts);
         OutputDirectory.CheckPath(settings.OutDir, "--out");
-        var comparison = ReportComparison.Create(ReportLoader.Load(basePath), ReportLoader.Load(candidatePath));
+        var comparison = ReportComparison.Create(ReportLoader.Load(basePath), ReportLoader.Load(candidatePath), pairs);
         var verdict = GateRules.Evaluate(comparison, rules);
         string outDir = settings.OutDir;
         bool quiet = settings.Quiet;
@@ -67,7 +86,14 @@ public static class CompareCommand
         };
 
         var failures = new List<string>();
-        if (WithoutPixels(comparison) is { } unavailable)
+        if (comparison.Base.Views is not null)
+        {
+            result = result with
+            {
+                DiffNotes = ["each metric is its mean over the run's views; difference heatmaps are drawn per view: compare a view folder of each run (RUN/views/NAME)"],
+            };
+        }
+        else if (WithoutPixels(comparison) is { } unavailable)
         {
             result = result with { DiffNotes = [unavailable] };
         }

@@ -1,17 +1,18 @@
 using System.CommandLine;
 using System.Globalization;
-using System.Numerics;
 using VoxProf.Core;
 using VoxProf.Core.Limits;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Tables;
+using VoxProf.Reports.Views;
 
 namespace VoxProf.Cli.Commands;
 
@@ -39,13 +40,16 @@ public static class TraceCommand
     internal static Command Create(TextWriter output, TextWriter error, TracePipeline pipeline)
     {
         var scene = new Argument<string>("scene") { Description = "Scene file (JSON)." };
-        var camera = new Option<string?>("--camera", "-c") { Description = "Named camera of the scene (default: the first)." };
+        var camera = new Option<string?>("--camera", "-c") { Description = "Cameras, camera paths or frames (walk#007) of the scene, comma-separated, or all (default: the first the scene lists)." };
+        var shard = new Option<string?>("--shard") { Description = "Trace share I of N of the views (I/N, e.g. 2/4); `voxprof merge` combines the shards." };
         var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
         var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
         var fov = new Option<float?>("--fov") { Description = $"Vertical field of view in degrees, {CameraChecks.MinFovDegrees} to {CameraChecks.MaxFovDegrees} (custom camera default 60)." };
         var size = new Option<string>("--size") { Description = "Image size WxH.", DefaultValueFactory = _ => $"{DefaultWidth}x{DefaultHeight}" };
-        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {StrategyNames.ValidList}." };
+        var strategy = new Option<string?>("--strategy", "-s") { Description = $"Comma-separated strategies (default all): {new StrategyCatalog().ValidList}, and those of --strategy-file and --strategy-assembly." };
+        var strategyFile = new Option<string[]>("--strategy-file") { Description = "C# file of strategies of your own, compiled before the trace (docs/writing-a-strategy.md); repeatable. Its code runs as yours." };
+        var strategyAssembly = new Option<string[]>("--strategy-assembly") { Description = "Built .NET library of strategies of your own; repeatable. Its code runs as yours." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
         var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
         var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
@@ -63,8 +67,8 @@ public static class TraceCommand
 
         var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries, report.json and report.html.")
         {
-            scene, camera, eye, target, up, fov, size, strategy, prepass, branching, counters, scale, range, outDir, threads,
-            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration,
+            scene, camera, eye, target, up, fov, size, strategy, strategyFile, strategyAssembly, prepass, branching, counters, scale, range, outDir, threads,
+            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration, shard,
         };
         var sceneOptions = new SceneOptions();
         sceneOptions.AddTo(cmd);
@@ -76,11 +80,17 @@ public static class TraceCommand
             {
                 // Option values first: a mistake is reported before any slow work starts.
                 var (width, height) = OptionParsing.Size(parse.GetValue(size)!);
-                List<Strategy> strategies = parse.GetValue(strategy) is { } s
-                    ? OptionParsing.List<Strategy>(s, "--strategy", "strategy", StrategyNames.TryParse, StrategyNames.ValidList)
-                    : [.. StrategyNames.All];
+                StrategyCatalog catalog = LoadStrategies(parse.GetValue(strategyFile) ?? [], parse.GetValue(strategyAssembly) ?? []);
+                List<StrategyDefinition> strategies = parse.GetValue(strategy) is { } s
+                    ? OptionParsing.List<StrategyDefinition>(s, "--strategy", "strategy", catalog.TryParse, catalog.ValidList)
+                    : [.. catalog.All];
+                IReadOnlyList<string> mapNames = HeatmapNames.For(strategies);
                 List<string> heatmaps = parse.GetValue(counters) is { } c
-                    ? OptionParsing.List<string>(c, "--counters", "counter", HeatmapNames.TryParse, HeatmapNames.ValidList)
+                    ? OptionParsing.List<string>(c, "--counters", "counter", (string text, out string name) =>
+                    {
+                        name = mapNames.FirstOrDefault(n => string.Equals(n, text, StringComparison.OrdinalIgnoreCase)) ?? "";
+                        return name.Length > 0;
+                    }, string.Join(", ", mapNames))
                     : [.. HeatmapNames.Default];
                 int prepassBlock = parse.GetValue(prepass) ?? 0;
                 if (parse.GetValue(prepass) is { } k && k is not (2 or 4 or 8))
@@ -93,17 +103,18 @@ public static class TraceCommand
                     throw new InputException($"--threads: {threadCount} is not valid, expected 0 (every processor) or more");
                 ScaleKind scaleKind = OptionParsing.Choice(parse.GetValue(scale)!, "--scale", "linear", "log") == "log" ? ScaleKind.Log : ScaleKind.Linear;
                 (double Min, double Max)? fixedRange = parse.GetValue(range) is { } r ? OptionParsing.Range(r) : null;
-                Strategy? baselineStrategy = null;
+                StrategyDefinition? baselineStrategy = null;
                 if (parse.GetValue(baseline) is { } b)
                 {
-                    if (!StrategyNames.TryParse(b.Trim(), out Strategy bs))
-                        throw new InputException($"--baseline: unknown strategy '{b}'; expected one of: {StrategyNames.ValidList}");
+                    if (!catalog.TryParse(b.Trim(), out StrategyDefinition bs))
+                        throw new InputException($"--baseline: unknown strategy '{b}'; expected one of: {catalog.ValidList}");
                     if (!strategies.Contains(bs))
-                        throw new InputException($"--baseline: {bs.Name()} is not among the traced strategies ({string.Join(", ", strategies.Select(x => x.Name()))})");
+                        throw new InputException($"--baseline: {bs.Name} is not among the traced strategies ({string.Join(", ", strategies.Select(x => x.Name))})");
                     baselineStrategy = bs;
                 }
                 var view = new CameraChoice(parse.GetValue(camera), parse.GetValue(eye), parse.GetValue(target), parse.GetValue(up), parse.GetValue(fov));
                 view.Validate();
+                ShardChoice? shardChoice = parse.GetValue(shard) is { } sc ? ShardChoice.Parse(sc) : null;
                 Uri? links = parse.GetValue(linkBase) is { } lb ? OptionParsing.LinkBase(lb) : null;
                 AppliedCalibration? calibrated = parse.GetValue(calibration) is { } cf ? CalibrationFile.Read(cf) : null;
                 if (calibrated is not null)
@@ -119,18 +130,17 @@ public static class TraceCommand
 
                 // Scene, camera, estimates, output directory (proved writable before the trace), tree, trace.
                 Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
-                CameraSpec cam = view.Resolve(loaded);
-                RunChecks.BeforeTrace(loaded, cam, branch, width, height, strategies, heatmaps, maxWork,
-                    (pipeline.AvailableMemory ?? MemoryLimit.Probe)());
-                string dir = outOption ?? Path.Combine("voxprof-out", $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
+                IReadOnlyList<CameraSpec> views = view.ResolveAll(loaded);
+                bool severalViews = shardChoice is not null || views.Count > 1 || view.NamesSeveral;
+                MemoryLimit available = (pipeline.AvailableMemory ?? MemoryLimit.Probe)();
+                foreach (CameraSpec v in views)
+                    RunChecks.BeforeTrace(loaded, v, branch, width, height, strategies, heatmaps, maxWork, available);
+                CameraSpec cam = views[0];
+                string dir = outOption ?? Path.Combine("voxprof-out", severalViews
+                    ? $"{SafeName(loaded.Name)}-{SafeName(view.Name ?? cam.Name.Split('#')[0])}{(shardChoice is { } sh ? $"-shard{sh.Index}of{sh.Count}" : "")}"
+                    : $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
-                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name()).ToArray()) : null;
-                ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
-                BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
-                var request = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory);
-                TraceRun run = pipeline.Trace(request, progress);
-
                 var options = new ReportOptions
                 {
                     Scale = scaleKind,
@@ -146,22 +156,54 @@ public static class TraceCommand
                     CommandLine = parse.Tokens.Select(t => t.Value).ToArray(),
                     Calibration = calibrated,
                 };
+                if (severalViews)
+                {
+                    options = options with { CommandLine = TraceViews.RecordedCommand(options.CommandLine) };
+                    var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, memory, options);
+                    ReportResultSummary written = TraceViews.Run(request, folder, pipeline, error, showProgress);
+                    return Finish(output, error, options, written.Document.Views.Count, written.Files, written.Directory, written.Failures,
+                        () => RunConsole.Write(output, written.Document));
+                }
+                var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name).ToArray()) : null;
+                ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
+                BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
+                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory);
+                TraceRun run = pipeline.Trace(traceRequest, progress);
                 ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
                 progress?.Finish();
-                if (ToolInfo.IsDebug(options.Environment))
-                    error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
-                SummaryConsole.Write(output, result.Document);
-                output.WriteLine($"wrote {result.Files.Count.ToString(CultureInfo.InvariantCulture)} files to {result.Directory}");
-                if (result.Failures.Count > 0)
-                    Guard.WriteError(error, "could not write " + string.Join("; ", result.Failures.Select(f => f.Message)));
-                if (result.Failures.Count == 0)
-                    return ExitCodes.Ok;
-                return result.Failures.All(f => f.Error is IOException or UnauthorizedAccessException or InputException)
-                    ? ExitCodes.BadInput
-                    : ExitCodes.InternalError;
+                return Finish(output, error, options, 1, result.Files.Count, result.Directory, result.Failures,
+                    () => SummaryConsole.Write(output, result.Document));
             });
         });
         return cmd;
+    }
+
+    /// <summary>The built-in strategies plus those of every file and library named, in the order given.</summary>
+    private static StrategyCatalog LoadStrategies(IEnumerable<string> files, IEnumerable<string> assemblies)
+    {
+        var catalog = new StrategyCatalog();
+        foreach (string file in files)
+            catalog.Add(StrategyFiles.Compile(file));
+        foreach (string assembly in assemblies)
+            catalog.Add(StrategyFiles.LoadAssembly(assembly));
+        return catalog;
+    }
+
+    private static int Finish(TextWriter output, TextWriter error, ReportOptions options, int views, int files, string directory,
+        IReadOnlyList<ExportFailure> failures, Action summary)
+    {
+        if (ToolInfo.IsDebug(options.Environment))
+            error.WriteLine($"voxprof: warning: {ToolInfo.DebugWarning}");
+        summary();
+        string of = views == 1 ? "" : $" ({views.ToString(CultureInfo.InvariantCulture)} views)";
+        output.WriteLine($"wrote {files.ToString(CultureInfo.InvariantCulture)} files to {directory}{of}");
+        if (failures.Count > 0)
+            Guard.WriteError(error, "could not write " + string.Join("; ", failures.Select(f => f.Message)));
+        if (failures.Count == 0)
+            return ExitCodes.Ok;
+        return failures.All(f => f.Error is IOException or UnauthorizedAccessException or InputException)
+            ? ExitCodes.BadInput
+            : ExitCodes.InternalError;
     }
 
     private static string SafeName(string name)
@@ -169,68 +211,5 @@ public static class TraceCommand
         var chars = name.Select(ch => char.IsLetterOrDigit(ch) || ch is '-' or '_' or '.' ? ch : '_').ToArray();
         string safe = new string(chars).Trim('.');
         return safe.Length == 0 ? "scene" : safe;
-    }
-
-    /// <summary>--camera, or a custom view from --eye/--target; --up and --fov adjust either.</summary>
-    private sealed record CameraChoice(string? Name, string? Eye, string? Target, string? Up, float? Fov)
-    {
-        public void Validate()
-        {
-            if (Name is not null && (Eye is not null || Target is not null))
-                throw new InputException("--camera: give either --camera NAME or --eye and --target, not both");
-            if ((Eye is null) != (Target is null))
-                throw new InputException($"{(Eye is null ? "--eye" : "--target")}: missing; a custom camera needs both --eye and --target");
-            if (Fov is { } f && !(f >= CameraChecks.MinFovDegrees && f <= CameraChecks.MaxFovDegrees))
-                throw new InputException($"--fov: {f.ToString(CultureInfo.InvariantCulture)} is not valid, expected {CameraChecks.FovRange}");
-            if (Eye is not null)
-                OptionParsing.Vector(Eye, "--eye");
-            if (Target is not null)
-                OptionParsing.Vector(Target, "--target");
-            if (Up is not null)
-                OptionParsing.Vector(Up, "--up");
-        }
-
-        public CameraSpec Resolve(Scene scene)
-        {
-            Vector3? up = Up is null ? null : OptionParsing.Vector(Up, "--up");
-            if (Eye is not null && Target is not null)
-            {
-                var custom = new CameraSpec("custom", OptionParsing.Vector(Eye, "--eye"), OptionParsing.Vector(Target, "--target"),
-                    up ?? Vector3.UnitY, Fov ?? DefaultFov);
-                Check(custom, up is null, "");
-                return custom;
-            }
-            string valid = scene.Cameras.Count == 0 ? "none" : string.Join(", ", scene.Cameras.Select(c => c.Name));
-            CameraSpec chosen;
-            if (Name is null)
-            {
-                chosen = scene.Cameras.Count > 0
-                    ? scene.Cameras[0]
-                    : throw new InputException($"{scene.SourcePath ?? scene.Name}: the scene has no cameras; give --eye and --target");
-            }
-            else
-            {
-                chosen = scene.Cameras.FirstOrDefault(c => string.Equals(c.Name, Name, StringComparison.OrdinalIgnoreCase))
-                    ?? throw new InputException($"--camera: no camera '{Name}' in {scene.SourcePath ?? scene.Name}; cameras: {valid}");
-            }
-            CameraSpec adjusted = chosen with { Up = up ?? chosen.Up, FovYDegrees = Fov ?? chosen.FovYDegrees };
-            // The scene loader checked the camera as written; --up can still turn it into one that looks along up.
-            Check(adjusted, upIsDefault: false, $" (camera '{chosen.Name}' of {scene.SourcePath ?? scene.Name})");
-            return adjusted;
-        }
-
-        /// <summary>The scene files' camera checks (<see cref="CameraChecks"/>), naming the option at fault.</summary>
-        private void Check(CameraSpec camera, bool upIsDefault, string which)
-        {
-            if (CameraChecks.Check(camera.Eye, camera.Target, camera.Up, camera.FovYDegrees, upIsDefault) is not { } problem)
-                return;
-            string option = problem.Part switch
-            {
-                CameraPart.Up => $"--up {Up}",
-                CameraPart.Fov => $"--fov {Fov?.ToString(CultureInfo.InvariantCulture)}",
-                _ => Target is null ? "--camera" : $"--target {Target}",
-            };
-            throw new InputException($"{option}: {problem.Message}{which}");
-        }
     }
 }

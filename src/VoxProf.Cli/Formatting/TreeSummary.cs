@@ -53,6 +53,11 @@ internal static class TreeSummary
         sb.AppendLine(ic, $"{"camera",-16}  {"eye",-22}  {"target",-22}  {"up",-16}  fovY");
         foreach (CameraSpec c in scene.Cameras)
             sb.AppendLine(ic, $"{Cut(c.Name, 16),-16}  {Point(c.Eye),-22}  {Point(c.Target),-22}  {Point(c.Up),-16}  {c.FovYDegrees:0.##}");
+        foreach (VoxProf.Core.Scenes.Paths.CameraPath p in scene.Paths)
+        {
+            string how = p.Interpolation == VoxProf.Core.Scenes.Paths.PathInterpolation.Linear ? "linear" : "catmull-rom";
+            sb.AppendLine(ic, $"{Cut(p.Name, 16),-16}  path: {p.Frames} frames {p.FrameName(0)}…{p.FrameName(p.Frames - 1)} through {p.Keys.Count} keys ({how})");
+        }
         return sb.ToString();
     }
 

@@ -67,12 +67,15 @@ public sealed class TileReads
 /// length of one tile on the thread that traces it. Only the recording differs, so the counts are exactly those of a
 /// run without the model.
 /// </summary>
-public struct MemoryCounts : ICostCounters
+public struct MemoryCounts : ICostCounters, ICountFlush
 {
     [ThreadStatic]
     private static TileReads? _current;
 
     public CostCounts Counts;
+
+    /// <summary>The strategy's own counters, for a strategy file that declares some.</summary>
+    public ExtraCounts Extras;
 
     /// <summary>Makes <paramref name="reads"/> the recorder of this thread's node reads (null to detach).</summary>
     internal static void Attach(TileReads? reads) => _current = reads;
@@ -84,6 +87,7 @@ public struct MemoryCounts : ICostCounters
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Ascent() => Counts.Ascent();
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskCulled(int cells) => Counts.MaskCulled(cells);
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => Counts.MaskSkipped();
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Extra(int index, uint amount) => Extras[index] += amount;
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public void NodeFetch(int nodeIndex)
@@ -96,6 +100,8 @@ public struct MemoryCounts : ICostCounters
     public readonly void Flush(uint[][] buffers, int pixel)
     {
         Counts.Flush(buffers, pixel);
+        for (int i = CounterNames.Count; i < buffers.Length; i++)
+            buffers[i][pixel] = Extras[i - CounterNames.Count];
         _current!.EndPixel();
     }
 }

@@ -1,4 +1,5 @@
 using VoxProf.Core.Geometry;
+using VoxProf.Core.Scenes.Paths;
 
 namespace VoxProf.Core.Scenes;
 
@@ -26,6 +27,12 @@ public sealed class Scene
     public int ExtentZ { get; }
     public IReadOnlyList<Layer> Layers { get; }
     public IReadOnlyList<CameraSpec> Cameras { get; }
+
+    /// <summary>The scene's camera paths, each a sequence of views (docs/scene-format.md, "Camera paths").</summary>
+    public IReadOnlyList<CameraPath> Paths { get; init; } = [];
+
+    /// <summary>Names of cameras and paths in the order the scene file lists them; empty for cameras, then paths.</summary>
+    public IReadOnlyList<string> CameraOrder { get; init; } = [];
 
     /// <summary>Scene name (the file name without extension when loaded from a file).</summary>
     public string Name { get; }

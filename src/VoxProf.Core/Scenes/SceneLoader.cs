@@ -1,9 +1,9 @@
 using System.Globalization;
-using System.Numerics;
 using System.Security.Cryptography;
 using System.Text.Json;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes.Loading;
+using VoxProf.Core.Scenes.Paths;
 
 namespace VoxProf.Core.Scenes;
 
@@ -60,18 +60,33 @@ public static class SceneLoader
         if (cameraValues.Length == 0)
             throw new SceneFormatException(path, "$.cameras", "empty; expected at least one camera (the first is the default)");
         var cameras = new List<CameraSpec>(cameraValues.Length);
+        var paths = new List<CameraPath>();
+        var order = new List<string>(cameraValues.Length);
         var names = new HashSet<string>(StringComparer.Ordinal);
         foreach (JsonValue c in cameraValues)
         {
-            CameraSpec camera = ReadCamera(c);
+            bool isPath = c.Element.ValueKind == JsonValueKind.Object && c.Element.TryGetProperty("path", out _);
+            CameraPath? cameraPath = isPath ? CameraReader.ReadPath(c) : null;
+            CameraSpec? camera = isPath ? null : CameraReader.ReadCamera(c);
+            string name = cameraPath?.Name ?? camera!.Name;
             // A set, not a search of the list so far: a scene of 50,000 cameras loads in linear time.
-            if (!names.Add(camera.Name))
-                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{MessageText.Excerpt(camera.Name)}\"; expected unique names");
-            cameras.Add(camera);
+            if (!names.Add(name))
+                throw new SceneFormatException(path, c.Path + ".name", $"duplicate camera name \"{MessageText.Excerpt(name)}\"; expected unique names");
+            order.Add(name);
+            if (cameraPath is not null)
+                paths.Add(cameraPath);
+            else
+                cameras.Add(camera!);
         }
+        CameraReader.RequireDistinctFrames(path, cameras, paths);
 
         string contentHash = Convert.ToHexStringLower(hash.GetHashAndReset());
-        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash) { Description = description };
+        return new Scene(e[0], e[1], e[2], layers, cameras, NameOf(path), path, contentHash)
+        {
+            Description = description,
+            Paths = paths,
+            CameraOrder = order,
+        };
     }
 
     /// <summary>The scene name for a path: the file name without <see cref="Extension"/> (or its last extension).</summary>
@@ -137,39 +152,5 @@ public static class SceneLoader
                 detail = detail[..cut].TrimEnd(' ', '|');
             throw new SceneFormatException(path, $"line {line}, column {column}", $"malformed JSON: {MessageText.CutEchoes(detail)}");
         }
-    }
-
-    private static CameraSpec ReadCamera(JsonValue value)
-    {
-        JsonObjectReader c = value.AsObject("an object holding a camera");
-        c.AllowOnly("in a camera", "name", "eye", "target", "up", "fovY");
-        JsonValue nameValue = c.Required("name", "a camera name");
-        string name = nameValue.String("a non-empty camera name");
-        if (name.Length == 0)
-            throw nameValue.Error("empty; expected a non-empty camera name");
-        JsonValue eyeValue = c.Required("eye", "[x, y, z] eye position");
-        JsonValue targetValue = c.Required("target", "[x, y, z] point looked at");
-        Vector3 eye = eyeValue.Vector("[x, y, z] eye position");
-        Vector3 target = targetValue.Vector("[x, y, z] point looked at");
-        Vector3 up = Vector3.UnitY;
-        JsonValue? upValue = c.Optional("up");
-        if (upValue is { } u)
-            up = u.Vector("[x, y, z] up direction");
-        float fov = 60;
-        JsonValue? fovValue = c.Optional("fovY");
-        if (fovValue is { } f)
-            fov = (float)f.Number(CameraChecks.FovRange, CameraChecks.MinFovDegrees, CameraChecks.MaxFovDegrees);
-
-        if (CameraChecks.Check(eye, target, up, fov, upIsDefault: upValue is null) is { } problem)
-        {
-            JsonValue at = problem.Part switch
-            {
-                CameraPart.Up => upValue!.Value,
-                CameraPart.Fov => fovValue!.Value,
-                _ => targetValue,
-            };
-            throw at.Error(problem.Message);
-        }
-        return new CameraSpec(name, eye, target, up, fov);
     }
 }

@@ -1,3 +1,4 @@
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Statistics;
@@ -51,6 +52,17 @@ public static class Measures
         .. CounterNames.All.Select(c => new MeasureDefinition(c.Name(), c.Unit(), c.LowerIsBetter(), [c], c.Description())),
         .. Derived,
     ];
+
+    /// <summary>
+    /// The measures of one strategy: <see cref="All"/>, then one per counter of its own. An own counter's part is
+    /// its buffer index past the built-in counters, which <see cref="MeasureDefinition.Values"/> reads like any other.
+    /// </summary>
+    public static IReadOnlyList<MeasureDefinition> For(StrategyDefinition strategy) =>
+        strategy.ExtraCounters.Count == 0 ? All :
+        [
+            .. All,
+            .. strategy.ExtraCounters.Select((c, i) => new MeasureDefinition(c.Name, "count", true, [(Counter)(CounterNames.Count + i)], c.Description)),
+        ];
 
     /// <summary>The measure called <paramref name="name"/> (case-insensitive), if any.</summary>
     public static MeasureDefinition? Find(string name) =>

@@ -1,4 +1,5 @@
 using VoxProf.Core.Memory;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Statistics;
@@ -9,7 +10,7 @@ namespace VoxProf.Core.Statistics;
 /// </summary>
 public sealed class StrategyStatistics
 {
-    private StrategyStatistics(Strategy strategy, long pixels, MeasureSummary[] measures, SubgroupSummary[] subgroups, double hitRate, long? mismatchPixels)
+    private StrategyStatistics(StrategyDefinition strategy, long pixels, MeasureSummary[] measures, SubgroupSummary[] subgroups, double hitRate, long? mismatchPixels)
     {
         Strategy = strategy;
         Pixels = pixels;
@@ -19,15 +20,15 @@ public sealed class StrategyStatistics
         MismatchPixels = mismatchPixels;
     }
 
-    public Strategy Strategy { get; }
+    public StrategyDefinition Strategy { get; }
 
     /// <summary>Pixels in the image (width × height).</summary>
     public long Pixels { get; }
 
     /// <summary>The strategy's name, which keys it in every report.</summary>
-    public string Name => Strategy.Name();
+    public string Name => Strategy.Name;
 
-    /// <summary>One per <see cref="Statistics.Measures.All"/> entry, in that order.</summary>
+    /// <summary>One per <see cref="Statistics.Measures.For"/> entry of the strategy, in that order.</summary>
     public IReadOnlyList<MeasureSummary> Measures { get; }
 
     /// <summary>One per <see cref="SubgroupShape.Standard"/> shape, in that order.</summary>
@@ -64,7 +65,7 @@ public sealed class StrategyStatistics
     /// <param name="reference">The grid result to check hits against; null when grid was not traced.</param>
     public static StrategyStatistics Compute(StrategyResult result, StrategyResult? reference)
     {
-        IReadOnlyList<MeasureDefinition> all = Statistics.Measures.All;
+        IReadOnlyList<MeasureDefinition> all = Statistics.Measures.For(result.Strategy);
         var measures = new MeasureSummary[all.Count];
         Parallel.For(0, measures.Length, m => measures[m] = new MeasureSummary(all[m], CounterSummary.Compute(all[m].Values(result))));
         ReadOnlySpan<uint> iterations = result.Get(Counter.Iterations);

@@ -19,10 +19,20 @@ public interface ICostCounters
     void NodeFetch(int nodeIndex);
     void MaskCulled(int cells);
     void MaskSkipped();
+    /// <summary>Adds <paramref name="amount"/> to the strategy's own counter <paramref name="index"/> (the order of
+    /// its declared extra counters, below <see cref="ExtraCounts.Capacity"/>).</summary>
+    void Extra(int index, uint amount);
+}
+
+/// <summary>How the tracer hands a ray's counts to the per-pixel buffers.</summary>
+internal interface ICountFlush
+{
+    /// <summary>Writes this ray's counts into the per-pixel buffers (indexed by <see cref="Counter"/>, then extra counters).</summary>
+    void Flush(uint[][] buffers, int pixel);
 }
 
 /// <summary>Counting compiled out.</summary>
-public struct NoCounters : ICostCounters
+public struct NoCounters : ICostCounters, ICountFlush
 {
     public void Iteration() { }
     public void CellStep() { }
@@ -32,10 +42,16 @@ public struct NoCounters : ICostCounters
     public void NodeFetch(int nodeIndex) { }
     public void MaskCulled(int cells) { }
     public void MaskSkipped() { }
+    public void Extra(int index, uint amount) { }
+    readonly void ICountFlush.Flush(uint[][] buffers, int pixel) { }
 }
 
-/// <summary>Counts every event of one ray. Definitions: docs/counters.md.</summary>
-public struct CostCounts : ICostCounters
+/// <summary>
+/// Counts every built-in event of one ray (definitions: docs/counters.md). The tracer uses it for strategies that
+/// declare no counters of their own, so their counts stay eight registers' worth; <see cref="Extra"/> is a no-op here
+/// and <see cref="CostCountsWithExtras"/> serves the others.
+/// </summary>
+public struct CostCounts : ICostCounters, ICountFlush
 {
     public uint Iterations;
     public uint CellSteps;
@@ -54,6 +70,7 @@ public struct CostCounts : ICostCounters
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void NodeFetch(int nodeIndex) => NodeFetches++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskCulled(int cells) => MaskCulledCells += (uint)cells;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => MaskSkippedNodes++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public readonly void Extra(int index, uint amount) { }
 
     /// <summary>Writes this ray's counts into the per-pixel buffers (indexed by <see cref="Counter"/>).</summary>
     public readonly void Flush(uint[][] buffers, int pixel)
@@ -66,5 +83,43 @@ public struct CostCounts : ICostCounters
         buffers[(int)Counter.NodeFetches][pixel] = NodeFetches;
         buffers[(int)Counter.MaskCulledCells][pixel] = MaskCulledCells;
         buffers[(int)Counter.MaskSkippedNodes][pixel] = MaskSkippedNodes;
+    }
+}
+
+/// <summary>A strategy's own counters of one ray.</summary>
+[InlineArray(Capacity)]
+public struct ExtraCounts
+{
+    /// <summary>Most extra counters a strategy may declare.</summary>
+    public const int Capacity = 8;
+
+    private uint _first;
+}
+
+/// <summary>
+/// <see cref="CostCounts"/> plus a strategy's own counters, for strategies that declare some. The extra counts follow
+/// the built-in ones in the per-pixel buffers, in the order the strategy declares them.
+/// </summary>
+public struct CostCountsWithExtras : ICostCounters, ICountFlush
+{
+    public CostCounts Counts;
+    public ExtraCounts Extras;
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Iteration() => Counts.Iterations++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void CellStep() => Counts.CellSteps++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void SlabTest() => Counts.SlabTests++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Descent() => Counts.Descents++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Ascent() => Counts.Ascents++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void NodeFetch(int nodeIndex) => Counts.NodeFetches++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskCulled(int cells) => Counts.MaskCulledCells += (uint)cells;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => Counts.MaskSkippedNodes++;
+    [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Extra(int index, uint amount) => Extras[index] += amount;
+
+    /// <summary>Writes the built-in counts, then one buffer per extra counter after <see cref="CounterNames.Count"/>.</summary>
+    public readonly void Flush(uint[][] buffers, int pixel)
+    {
+        Counts.Flush(buffers, pixel);
+        for (int i = CounterNames.Count; i < buffers.Length; i++)
+            buffers[i][pixel] = Extras[i - CounterNames.Count];
     }
 }

@@ -9,7 +9,7 @@ namespace VoxProf.Core.Traversal;
 /// same double. Crossings are ordered by (T, axis): at equal times the lowest axis goes first. A walk's position is the
 /// key (t, lastAxis) of its latest crossing; every cell it is in at that key follows from the order alone.
 /// </summary>
-internal static class CrossingOrder
+public static class CrossingOrder
 {
     /// <summary>Time at which the ray crosses the plane at <paramref name="plane"/> (an integer-valued double).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]

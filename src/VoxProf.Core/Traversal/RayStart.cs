@@ -4,7 +4,7 @@ using VoxProf.Core.Rays;
 namespace VoxProf.Core.Traversal;
 
 /// <summary>Where a ray's walk through the volume starts and ends, shared by every kernel.</summary>
-internal struct RayStart
+public struct RayStart
 {
     /// <summary>Parameter at which the walk starts (volume entry, 0 inside the volume, or the prepass distance).</summary>
     public double T;

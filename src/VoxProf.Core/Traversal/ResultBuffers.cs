@@ -7,9 +7,9 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 internal sealed class ResultBuffers
 {
-    private ResultBuffers(int pixels)
+    private ResultBuffers(int counters, int pixels)
     {
-        Counters = new uint[CounterNames.Count][];
+        Counters = new uint[counters][];
         // Uninitialised: the one clearing below is then the only pass over the memory.
         for (int c = 0; c < Counters.Length; c++)
             Counters[c] = GC.AllocateUninitializedArray<uint>(pixels);
@@ -19,21 +19,13 @@ internal sealed class ResultBuffers
     public uint[][] Counters { get; }
     public PixelHit[] Hits { get; }
 
-    public static ResultBuffers[] Allocate(int strategies, int pixels, ParallelOptions options)
+    /// <param name="counters">Per strategy, the number of its counters.</param>
+    public static ResultBuffers[] Allocate(IReadOnlyList<int> counters, int pixels, ParallelOptions options)
     {
-        var buffers = new ResultBuffers[strategies];
-        for (int s = 0; s < strategies; s++)
-            buffers[s] = new ResultBuffers(pixels);
+        var buffers = counters.Select(n => new ResultBuffers(n, pixels)).ToArray();
+        var arrays = buffers.SelectMany(b => b.Counters.Select(c => (Array)c).Append(b.Hits)).ToArray();
         // Clearing writes every page: the memory is committed here rather than inside the kernels.
-        Parallel.For(0, strategies * (CounterNames.Count + 1), options, i =>
-        {
-            ResultBuffers b = buffers[i / (CounterNames.Count + 1)];
-            int c = i % (CounterNames.Count + 1);
-            if (c < CounterNames.Count)
-                Array.Clear(b.Counters[c]);
-            else
-                Array.Clear(b.Hits);
-        });
+        Parallel.For(0, arrays.Length, options, i => Array.Clear(arrays[i]));
         return buffers;
     }
 }

@@ -1,4 +1,5 @@
 using VoxProf.Core.Memory;
+using VoxProf.Core.Strategies;
 
 namespace VoxProf.Core.Traversal;
 
@@ -8,10 +9,10 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 public sealed class StrategyResult
 {
-    public StrategyResult(Strategy strategy, int width, int height, uint[][] counters, PixelHit[] hits, TimeSpan elapsed)
+    public StrategyResult(StrategyDefinition strategy, int width, int height, uint[][] counters, PixelHit[] hits, TimeSpan elapsed)
     {
-        if (counters.Length != CounterNames.Count)
-            throw new ArgumentException($"expected {CounterNames.Count} counter buffers", nameof(counters));
+        if (counters.Length != strategy.CounterNames.Count)
+            throw new ArgumentException($"expected {strategy.CounterNames.Count} counter buffers", nameof(counters));
         Strategy = strategy;
         Width = width;
         Height = height;
@@ -20,11 +21,14 @@ public sealed class StrategyResult
         Elapsed = elapsed;
     }
 
-    public Strategy Strategy { get; }
+    public StrategyDefinition Strategy { get; }
+
+    /// <summary>The name of each buffer of <see cref="Counters"/>: the built-in counters, then the strategy's own.</summary>
+    public IReadOnlyList<string> CounterNames => Strategy.CounterNames;
     public int Width { get; }
     public int Height { get; }
 
-    /// <summary>Indexed by <see cref="Counter"/>, then by pixel y * Width + x.</summary>
+    /// <summary>Indexed by <see cref="Counter"/> (then the strategy's own counters), then by pixel y * Width + x.</summary>
     public uint[][] Counters { get; }
 
     public PixelHit[] Hits { get; }
@@ -36,4 +40,16 @@ public sealed class StrategyResult
     public MemoryResult? Memory { get; init; }
 
     public ReadOnlySpan<uint> Get(Counter c) => Counters[(int)c];
+
+    /// <summary>The buffer of the counter called <paramref name="name"/> (case-insensitive), or null when this
+    /// strategy has no such counter.</summary>
+    public uint[]? Find(string name)
+    {
+        for (int i = 0; i < Counters.Length; i++)
+        {
+            if (string.Equals(CounterNames[i], name, StringComparison.OrdinalIgnoreCase))
+                return Counters[i];
+        }
+        return null;
+    }
 }

@@ -1,4 +1,5 @@
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Core.Traversal;
@@ -25,5 +26,5 @@ public sealed class TraceRun
     public IReadOnlyList<StrategyResult> Results { get; }
 
     /// <summary>The grid result when it was traced: the reference for hit mismatches.</summary>
-    public StrategyResult? Reference => Results.FirstOrDefault(r => r.Strategy == Strategy.Grid);
+    public StrategyResult? Reference => Results.FirstOrDefault(r => r.Strategy == BuiltInStrategies.Grid);
 }

@@ -3,6 +3,7 @@ using System.Runtime.CompilerServices;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Core.Traversal;
@@ -19,7 +20,7 @@ public sealed record TraceRequest(
     CameraSpec Camera,
     int Width,
     int Height,
-    IReadOnlyList<Strategy> Strategies,
+    IReadOnlyList<StrategyDefinition> Strategies,
     int PrepassBlock = 0,
     int Threads = 0,
     bool CountWork = true,
@@ -47,7 +48,7 @@ public static class Tracer
         // The prepass depends only on geometry and camera, so every strategy that uses it shares one map.
         PrepassMap? prepass = null;
         TimeSpan prepassTime = TimeSpan.Zero;
-        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s != Strategy.Grid))
+        if (request.PrepassBlock > 0 && request.Strategies.Any(s => s.UsesPrepass))
         {
             // The coarse grids belong to the tree, as its nodes do: built once, on its first prepass, outside the timing.
             _ = request.Tree.Coarse;
@@ -57,18 +58,20 @@ public static class Tracer
         }
 
         var results = new List<StrategyResult>();
-        ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Count, request.Width * request.Height, options);
+        ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Select(d => d.CounterNames.Count).ToArray(),
+            request.Width * request.Height, options);
         long pixelsDone = 0;
         for (int s = 0; s < request.Strategies.Count; s++)
         {
-            Strategy strategy = request.Strategies[s];
+            StrategyDefinition definition = request.Strategies[s];
             (uint[][] counters, PixelHit[] hits) = (buffers[s].Counters, buffers[s].Hits);
             var sw = Stopwatch.StartNew();
-            PrepassMap? map = strategy == Strategy.Grid ? null : prepass;
+            PrepassMap? map = definition.UsesPrepass ? prepass : null;
 
             int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
             long before = pixelsDone;
             FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, request.Width, request.Height) : null;
+            var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
             Parallel.For(0, tilesX * tilesY, options, tile =>
             {
                 int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
@@ -77,16 +80,12 @@ public static class Tracer
                 {
                     // The memory model: the same kernels, with a counter that also records each node read.
                     TileReads reads = memory.BeginTile(x0, y0, x1, y1);
-                    TraceTile<MemoryCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                    definition.TraceTile(job, x0, y0, x1, y1);
                     memory.EndTile(reads, counters[(int)Counter.CacheLines]);
-                }
-                else if (request.CountWork)
-                {
-                    TraceTile<CostCounts>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
                 }
                 else
                 {
-                    TraceTile<NoCounters>(view, camera, strategy, map, x0, y0, x1, y1, counters, hits);
+                    definition.TraceTile(job, x0, y0, x1, y1);
                 }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
@@ -94,17 +93,24 @@ public static class Tracer
             pixelsDone = before + (long)request.Width * request.Height;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
-            results.Add(new StrategyResult(strategy, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });
+            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
     }
 
-    private static void TraceTile<TCounters>(in TreeView view, Camera camera, Strategy strategy, PrepassMap? prepass,
-        int x0, int y0, int x1, int y1, uint[][] buffers, PixelHit[] hits)
-        where TCounters : struct, ICostCounters
+    /// <summary>The tile loop of one strategy, specialised per strategy, branching and counter type.</summary>
+    internal static void TraceTile<TStrategy, TBranching, TCounters>(in TileJob job, int x0, int y0, int x1, int y1)
+        where TStrategy : struct, IStrategy
+        where TBranching : struct, IBranching
+        where TCounters : struct, ICostCounters, ICountFlush
     {
-        Span<WalkFrame> stack = stackalloc WalkFrame[view.Depth + 1];
+        TreeView view = job.View;
+        Camera camera = job.Camera;
+        PrepassMap? prepass = job.Prepass;
+        PixelHit[] hits = job.Hits;
+        uint[][] buffers = job.Counters;
+        Span<Node> path = stackalloc Node[view.Depth + 1];
         int width = camera.Width;
         for (int y = y0; y < y1; y++)
         {
@@ -113,23 +119,13 @@ public static class Tracer
                 int pixel = y * width + x;
                 RaySetup ray = camera.Ray(x, y);
                 double tMin = prepass?.Start(x, y) ?? 0;
-                TCounters counters = default;
                 ref PixelHit hit = ref hits[pixel];
-                switch (strategy)
-                {
-                    case Strategy.Grid: GridKernel.Trace(view, ray, tMin, ref counters, ref hit); break;
-                    case Strategy.Slab: StackWalkKernel.Trace<SlabMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.Dda: StackWalkKernel.Trace<DdaMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.DdaMask: StackWalkKernel.Trace<MaskedDdaMode, TCounters>(view, ray, tMin, stack, ref counters, ref hit); break;
-                    case Strategy.Hdda: HddaKernel.Trace(view, ray, tMin, stack, ref counters, ref hit); break;
-                }
+                hit = default;
+                TCounters counters = TStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
-                if (typeof(TCounters) == typeof(CostCounts) || typeof(TCounters) == typeof(MemoryCounts))
+                if (typeof(TCounters) != typeof(NoCounters))
                 {
-                    if (typeof(TCounters) == typeof(MemoryCounts))
-                        Unsafe.As<TCounters, MemoryCounts>(ref counters).Flush(buffers, pixel);
-                    else
-                        Unsafe.As<TCounters, CostCounts>(ref counters).Flush(buffers, pixel);
+                    counters.Flush(buffers, pixel);
                     if (prepass != null)
                     {
                         buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);
@@ -156,7 +152,18 @@ public static class Tracer
             throw new ArgumentOutOfRangeException(nameof(r), "image size must be positive");
         if (r.PrepassBlock is not (0 or 2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(r), "prepass block must be 0, 2, 4 or 8");
+        var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
+        foreach (StrategyDefinition s in r.Strategies)
+        {
+            if (!names.Add(s.Name))
+                throw new ArgumentException($"strategy '{s.Name}' is requested twice", nameof(r));
+        }
         if (r.Tree.ExtentX != r.Scene.ExtentX || r.Tree.ExtentY != r.Scene.ExtentY || r.Tree.ExtentZ != r.Scene.ExtentZ)
             throw new ArgumentException("the tree was not built from this scene", nameof(r));
     }
 }
+
+/// <summary>What every tile of one strategy's trace shares: the tree, the rays, the prepass and the result buffers.</summary>
+/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts"/>, which records each node read.</param>
+internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork,
+    bool RecordsReads);

@@ -44,8 +44,8 @@ public static class CompareDiffImages
         (LoadedReport Report, List<string> Strategies)[] missing = [(cmp.Base, []), (cmp.Candidate, [])];
         foreach (var strategy in cmp.Strategies)
         {
-            var basePixels = Load(cmp.Base, strategy, missing[0].Strategies);
-            var candidatePixels = Load(cmp.Candidate, strategy, missing[1].Strategies);
+            var basePixels = Load(cmp.Base, cmp.BaseName(strategy), missing[0].Strategies);
+            var candidatePixels = Load(cmp.Candidate, cmp.CandidateName(strategy), missing[1].Strategies);
             if (basePixels is null || candidatePixels is null)
                 continue;
 

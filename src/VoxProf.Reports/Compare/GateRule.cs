@@ -82,7 +82,7 @@ public sealed partial record GateRule(string Text, string Strategy, string Metri
     }
 
     // Names are lower-case words joined by '-' (dda-mask, cell-steps, tile-max-mean, subgroup32); a metric is one
-    // name or two joined by '.'; no ':' inside.
-    [GeneratedRegex(@"^(?<strategy>\*|[A-Za-z0-9_-]+)\.(?<metric>(?:\*|[A-Za-z0-9_-]+)(?:\.(?:\*|[A-Za-z0-9_-]+))?):(?<limit>(?<sign>[+-]?)(?<number>[0-9]+(?:\.[0-9]+)?)(?<pct>%)?)$")]
+    // name or two joined by '.'; no ':' inside. A paired strategy is BASE=CANDIDATE (compare --pair, --within).
+    [GeneratedRegex(@"^(?<strategy>\*|[A-Za-z0-9_-]+(?:=[A-Za-z0-9_-]+)?)\.(?<metric>(?:\*|[A-Za-z0-9_-]+)(?:\.(?:\*|[A-Za-z0-9_-]+))?):(?<limit>(?<sign>[+-]?)(?<number>[0-9]+(?:\.[0-9]+)?)(?<pct>%)?)$")]
     private static partial Regex Shape();
 }

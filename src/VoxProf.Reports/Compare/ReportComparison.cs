@@ -40,6 +40,31 @@ public sealed class ReportComparison
     /// <summary>Metrics of a strategy in both reports that have no value in one of them, so they were left out.</summary>
     public IReadOnlyList<NotCompared> NotComparedMetrics { get; }
 
+    /// <summary>
+    /// The pairs compared when strategies were paired (--pair, --within), by label; empty when each strategy is
+    /// compared with itself.
+    /// </summary>
+    public IReadOnlyDictionary<string, StrategyPair> Pairs { get; private set; } = new Dictionary<string, StrategyPair>();
+
+    /// <summary>The name a compared strategy has in the base report (its pair's base, or itself).</summary>
+    public string BaseName(string strategy) => Pairs.TryGetValue(strategy, out var p) ? p.Base : strategy;
+
+    /// <summary>The name a compared strategy has in the candidate report.</summary>
+    public string CandidateName(string strategy) => Pairs.TryGetValue(strategy, out var p) ? p.Candidate : strategy;
+
+    /// <summary>Compares strategy with strategy as <paramref name="pairs"/> say, e.g. dda of the base with dda-mask of the candidate.</summary>
+    public static ReportComparison Create(LoadedReport @base, LoadedReport candidate, IReadOnlyList<StrategyPair> pairs)
+    {
+        if (pairs.Count == 0)
+            return Create(@base, candidate);
+        var (b, c) = StrategyPair.Apply(@base, candidate, pairs);
+        ReportComparison cmp = Create(b, c);
+        cmp.Pairs = pairs.ToDictionary(p => p.Label, StringComparer.OrdinalIgnoreCase);
+        var notes = new List<string> { $"strategies paired: {string.Join(", ", pairs.Select(p => $"base {p.Base} against candidate {p.Candidate}"))}" };
+        notes.AddRange(cmp.Notes);
+        return new ReportComparison(cmp.Base, cmp.Candidate, notes, cmp.Strategies, cmp.Changes, cmp.NotComparedMetrics) { Pairs = cmp.Pairs };
+    }
+
     /// <summary>Refuses (with <see cref="InputException"/>) reports of different image sizes or cameras.</summary>
     public static ReportComparison Create(LoadedReport @base, LoadedReport candidate)
     {
@@ -89,6 +114,9 @@ public sealed class ReportComparison
             var cs = candidateByName[bs.Name];
             foreach (var m in comparable)
             {
+                // A counter of another strategy's own: neither side measures it for this strategy.
+                if (!bs.Values.ContainsKey(m.Name) && !cs.Values.ContainsKey(m.Name))
+                    continue;
                 // A null value was not measured (mismatch without the grid reference): not a 0, so not comparable.
                 if (bs.Value(m.Name) is { } bv && cs.Value(m.Name) is { } cv)
                     changes.Add(new MetricChange(bs.Name, m, bv, cv));
@@ -137,6 +165,16 @@ public sealed class ReportComparison
             throw new InputException(
                 $"cannot compare runs of different image sizes: base {b.Run.Width}x{b.Run.Height} ({@base.File}), candidate {c.Run.Width}x{c.Run.Height} ({candidate.File})");
         }
+        if ((@base.Views is null) != (candidate.Views is null))
+        {
+            var (run, single) = @base.Views is null ? (candidate, @base) : (@base, candidate);
+            throw new InputException($"cannot compare a run of {run.Views!.Count} views ({run.File}) with the report of one view ({single.File}); compare two runs, or a view folder of the run (RUN/views/NAME) with the single view");
+        }
+        if (@base.Views is { } bv && candidate.Views is { } cv && !SameViews(bv, cv))
+        {
+            throw new InputException(
+                $"cannot compare runs of different views: base {bv.Count} views ({@base.File}), candidate {cv.Count} views ({candidate.File}); trace both with the same --camera and scene cameras");
+        }
         // Exact float equality: both runs read the camera from the same text, so any difference is a real move.
         if (!b.Camera.Eye.SequenceEqual(c.Camera.Eye) || !b.Camera.Target.SequenceEqual(c.Camera.Target)
             || !b.Camera.Up.SequenceEqual(c.Camera.Up) || b.Camera.FovDegrees != c.Camera.FovDegrees)
@@ -145,6 +183,11 @@ public sealed class ReportComparison
                 $"cannot compare runs of different cameras: base {Describe(b.Camera)} ({@base.File}), candidate {Describe(c.Camera)} ({candidate.File})");
         }
     }
+
+    private static bool SameViews(IReadOnlyList<Views.RunView> a, IReadOnlyList<Views.RunView> b) =>
+        a.Count == b.Count && a.Zip(b).All(p => p.First.Name == p.Second.Name && p.First.Camera.Eye.SequenceEqual(p.Second.Camera.Eye)
+            && p.First.Camera.Target.SequenceEqual(p.Second.Camera.Target) && p.First.Camera.Up.SequenceEqual(p.Second.Camera.Up)
+            && p.First.Camera.FovDegrees == p.Second.Camera.FovDegrees);
 
     private static void AddOnlyIn(List<string> notes, string what, IEnumerable<string> inBase, IEnumerable<string> inCandidate)
     {
@@ -158,7 +201,7 @@ public sealed class ReportComparison
             notes.Add($"{what} only in candidate, not compared: {string.Join(", ", onlyCandidate)}");
     }
 
-    public static string Describe(CameraInfo camera) =>
+    public static string Describe(CameraInfo camera) => camera.FovDegrees == 0 ? $"'{camera.Name}'" :
         $"'{camera.Name}' eye {Vec(camera.Eye)} target {Vec(camera.Target)} up {Vec(camera.Up)} fov {camera.FovDegrees.ToString("R", CultureInfo.InvariantCulture)}";
 
     private static string Vec(float[] v) => string.Join(",", v.Select(x => x.ToString("R", CultureInfo.InvariantCulture)));

@@ -15,6 +15,9 @@ public sealed record LoadedReport(string File, ReportDocument Document)
 
     /// <summary>The folder's manifest.json when it has one: files read beside report.json are checked against it.</summary>
     public ReportManifest? Manifest { get; init; }
+
+    /// <summary>For a run of several views read as one report (values averaged over them), its views; else null.</summary>
+    public IReadOnlyList<Views.RunView>? Views { get; init; }
 }
 
 /// <summary>
@@ -59,6 +62,8 @@ public static partial class ReportLoader
         var bytes = JsonText.WithoutBom(raw);
         if (JsonText.FindInvalidUtf8(bytes.Span) is { } notUtf8)
             throw new InputException($"{file}: {notUtf8.Where}: {notUtf8.Problem}");
+        if (Views.RunReports.IsRun(bytes))
+            return Views.RunReports.Load(file, bytes, manifest);
         CheckSchema(file, bytes);
         ReportDocument? doc;
         try

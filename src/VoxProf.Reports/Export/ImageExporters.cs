@@ -2,6 +2,7 @@ using SixLabors.ImageSharp;
 using SixLabors.ImageSharp.PixelFormats;
 using VoxProf.Core.Calibration;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Model;
@@ -20,12 +21,12 @@ public sealed class HeatmapExporter : IReportExporter
         var jobs = new List<(StrategyResult Result, string Map, HeatmapScale Scale)>();
         foreach (string map in context.Options.Heatmaps)
         {
-            foreach (StrategyResult r in run.Results)
+            foreach (StrategyResult r in run.Results.Where(r => HeatmapNames.AppliesTo(map, r.Strategy)))
                 jobs.Add((r, map, ScaleFor(map, context, r)));
         }
         Parallel.ForEach(jobs, job =>
         {
-            string strategy = job.Result.Strategy.Name();
+            string strategy = job.Result.Strategy.Name;
             var title = new ImageTitle(
                 [context.Run.Scene.Name, context.Run.Camera.Name, strategy, job.Map],
                 [UnitOf(job.Map), $"{job.Result.Width}×{job.Result.Height}"]);
@@ -47,7 +48,8 @@ public sealed class HeatmapExporter : IReportExporter
             return $"{Counter.Iterations.Name()} per pixel: the largest in its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes)";
         if (HeatmapNames.IsGroupLines(map, out shape))
             return $"distinct cache lines its {shape.TileWidth}×{shape.TileHeight} tile ({shape.Lanes} lanes) touched, per pixel";
-        Counter c = Parse(map);
+        if (!CounterNames.TryParse(map, out Counter c))
+            return $"{map} per pixel";
         return c.Unit() == "count" ? $"{c.Name()} per pixel" : $"{c.Unit()} per pixel ({c.Name()})";
     }
 
@@ -63,12 +65,12 @@ public sealed class HeatmapExporter : IReportExporter
         var o = context.Options;
         if (o.RangeMin is { } min && o.RangeMax is { } max)
             return new HeatmapScale(o.Scale, min, max);
-        bool ownScale = result.Strategy == Strategy.Grid && context.Run.Results.Count > 1;
+        bool ownScale = result.Strategy == BuiltInStrategies.Grid && context.Run.Results.Count > 1;
         double top = 0;
         foreach (StrategyResult r in context.Run.Results)
         {
-            bool shares = ownScale ? r.Strategy == Strategy.Grid : r.Strategy != Strategy.Grid || context.Run.Results.Count == 1;
-            if (shares)
+            bool shares = ownScale ? r.Strategy == BuiltInStrategies.Grid : r.Strategy != BuiltInStrategies.Grid || context.Run.Results.Count == 1;
+            if (shares && HeatmapNames.AppliesTo(map, r.Strategy))
                 top = Math.Max(top, Top(r, map, o.Calibration?.Model));
         }
         return HeatmapScale.Auto(o.Scale, Math.Ceiling(top));
@@ -94,7 +96,7 @@ public sealed class HeatmapExporter : IReportExporter
         }
         else
         {
-            s = CounterSummary.Compute(r.Counters[(int)Parse(map)]);
+            s = CounterSummary.Compute(CounterValues(r, map));
         }
         return s.P99 > 0 ? s.P99 : s.Max;
     }
@@ -116,7 +118,7 @@ public sealed class HeatmapExporter : IReportExporter
         }
         else
         {
-            return r.Counters[(int)Parse(map)];
+            return CounterValues(r, map);
         }
         var pixels = new uint[r.Width * r.Height];
         SubgroupModel.ExpandTiles(tiles, r.Width, r.Height, shape, pixels);
@@ -126,8 +128,8 @@ public sealed class HeatmapExporter : IReportExporter
     private static uint[] GroupLines(StrategyResult r, string map, SubgroupShape shape) =>
         r.Memory?.Of(shape)?.Lines ?? throw new ArgumentException($"the {map} map needs the memory model (trace without --memory off)", nameof(map));
 
-    private static Counter Parse(string map) =>
-        CounterNames.TryParse(map, out Counter c) ? c : throw new ArgumentException($"unknown heatmap {map}", nameof(map));
+    private static uint[] CounterValues(StrategyResult r, string map) =>
+        r.Find(map) ?? throw new ArgumentException($"{r.Strategy.Name} has no counter {map}", nameof(map));
 }
 
 /// <summary>preview.png from the reference (grid) result, or the first strategy traced.</summary>
@@ -141,10 +143,10 @@ public sealed class PreviewExporter : IReportExporter
         if (source is null)
             return;
         var title = new ImageTitle(
-            [context.Run.Scene.Name, context.Run.Camera.Name, $"preview ({source.Strategy.Name()})"],
+            [context.Run.Scene.Name, context.Run.Camera.Name, $"preview ({source.Strategy.Name})"],
             ["material colours lit from above, shaded by the face the ray entered", $"{source.Width}×{source.Height}"]);
         using Image<Rgba32> image = PreviewImage.Render(source.Hits, source.Width, source.Height, title);
-        Png.AddText(image, "Strategy", source.Strategy.Name());
+        Png.AddText(image, "Strategy", source.Strategy.Name);
         Png.AddText(image, "Software", $"VoxProf {context.Options.ToolVersion}");
         output.Write(OutputNames.Preview, s => Png.Save(image, s));
     }
@@ -166,13 +168,13 @@ public sealed class MismatchExporter : IReportExporter
                 continue;
             StrategyResult r = context.Run.Results.First(x => x.Strategy == s.Strategy);
             var title = new ImageTitle(
-                [context.Run.Scene.Name, context.Run.Camera.Name, s.Strategy.Name()],
+                [context.Run.Scene.Name, context.Run.Camera.Name, s.Strategy.Name],
                 ["a hit differs when one ray hits and the other misses, or they hit different voxels", $"{r.Width}×{r.Height}"]);
-            using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height, reference.Strategy.Name(), title);
-            Png.AddText(image, "Strategy", s.Strategy.Name());
-            Png.AddText(image, "Reference", reference.Strategy.Name());
+            using Image<Rgba32> image = PreviewImage.RenderMismatch(r.Hits, reference.Hits, r.Width, r.Height, reference.Strategy.Name, title);
+            Png.AddText(image, "Strategy", s.Strategy.Name);
+            Png.AddText(image, "Reference", reference.Strategy.Name);
             Png.AddText(image, "Mismatched pixels", mismatched.ToString(System.Globalization.CultureInfo.InvariantCulture));
-            output.Write(OutputNames.Mismatch(s.Strategy.Name()), st => Png.Save(image, st));
+            output.Write(OutputNames.Mismatch(s.Strategy.Name), st => Png.Save(image, st));
         }
     }
 }

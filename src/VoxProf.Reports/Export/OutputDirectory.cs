@@ -20,6 +20,10 @@ public sealed class OutputDirectory : IDisposable
     private bool _committed;
     private bool _disposed;
 
+    // A subfolder (Folder) shares its root's stage, lock and manifest; only the root commits.
+    private readonly OutputDirectory? _root;
+    private readonly string _prefix = "";
+
     private OutputDirectory(string path, string parent, string name, string stage, FileStream held)
     {
         FullPath = path;
@@ -30,6 +34,18 @@ public sealed class OutputDirectory : IDisposable
         RunId = Guid.NewGuid().ToString("N");
     }
 
+    private OutputDirectory(OutputDirectory root, string prefix)
+    {
+        _root = root;
+        _prefix = prefix;
+        FullPath = Path.Combine(root.FullPath, prefix);
+        _parent = root._parent;
+        _name = root._name;
+        _stage = root._stage;
+        _lock = root._lock;
+        RunId = root.RunId;
+    }
+
     /// <summary>The folder the files end up in (after <see cref="Commit"/>).</summary>
     public string FullPath { get; }
 
@@ -37,20 +53,41 @@ public sealed class OutputDirectory : IDisposable
     /// Where this run's files are until <see cref="Commit"/> puts them at <see cref="FullPath"/>: an exporter that
     /// reads a file written earlier in the run (a page inlining its images) reads it here.
     /// </summary>
-    public string WorkingPath => _committed ? FullPath : _stage;
+    public string WorkingPath => _root is { } root ? Path.Combine(root.WorkingPath, _prefix) : _committed ? FullPath : _stage;
 
     /// <summary>A fresh id for this run, written into the manifest.</summary>
     public string RunId { get; }
 
-    /// <summary>File names written so far, in completion order.</summary>
+    /// <summary>File names written so far, in completion order (for a subfolder, those inside it, relative to it).</summary>
     public IReadOnlyList<string> Written
     {
         get
         {
+            if (_root is { } root)
+            {
+                string start = _prefix + "/";
+                return root.Written.Where(n => n.StartsWith(start, StringComparison.Ordinal)).Select(n => n[start.Length..]).ToList();
+            }
             lock (_sync)
                 return _written.Select(f => f.Name).ToList();
         }
     }
+
+    /// <summary>
+    /// A subfolder of this run's folder (one run of several views writes one per view), written through the same
+    /// stage and committed with it: its files are listed in the root's manifest as "FOLDER/NAME".
+    /// </summary>
+    /// <param name="relative">Plain names joined by '/', such as "views/main-street".</param>
+    public OutputDirectory Folder(string relative)
+    {
+        if (!IsRelativePath(relative))
+            throw new ArgumentException($"not a plain relative folder: {relative}", nameof(relative));
+        return _root is { } root ? root.Folder(_prefix + "/" + relative) : new OutputDirectory(this, relative);
+    }
+
+    private static bool IsRelativePath(string relative) =>
+        relative.Length > 0 && !relative.Contains('\\', StringComparison.Ordinal) &&
+        relative.Split('/').All(part => part.Length > 0 && !part.StartsWith('.') && part != ReportManifest.FileName);
 
     /// <summary>Refuses an empty path (<c>--out ''</c>) or one naming a file, before any slow work.</summary>
     public static void CheckPath(string? path, string option)
@@ -90,7 +127,7 @@ public sealed class OutputDirectory : IDisposable
             held = FolderSwap.Lock(parent, name)
                 ?? throw new InputException($"{path}: another voxprof run is writing this folder (it holds {FolderSwap.LockPath(parent, name)}); wait for it to finish or choose another output folder");
             FolderSwap.CleanUp(parent, name);
-            RequireOurs(path, full);
+            FolderOwnership.RequireOurs(path, full);
             string stage = FolderSwap.NewSibling(parent, name, "stage");
             Directory.CreateDirectory(stage);
             return new OutputDirectory(full, parent, name, stage, held);
@@ -112,10 +149,22 @@ public sealed class OutputDirectory : IDisposable
     {
         if (name.IndexOfAny(['/', '\\']) >= 0 || name.StartsWith('.') || name == ReportManifest.FileName)
             throw new ArgumentException($"not a plain file name: {name}", nameof(name));
+        if (_root is { } root)
+        {
+            root.WriteRelative(_prefix + "/" + name, write);
+            return;
+        }
+        WriteRelative(name, write);
+    }
+
+    private void WriteRelative(string name, Action<Stream> write)
+    {
         ObjectDisposedException.ThrowIf(_disposed, this);
         if (_committed)
             throw new InvalidOperationException("the output folder is already committed");
         string path = Path.Combine(_stage, name);
+        if (name.Contains('/', StringComparison.Ordinal))
+            Directory.CreateDirectory(Path.GetDirectoryName(path)!);
         ManifestFile entry;
         try
         {
@@ -147,6 +196,8 @@ public sealed class OutputDirectory : IDisposable
     /// <summary>Writes the manifest and puts this run's folder in place of the old one, whole; then releases the lock.</summary>
     public void Commit()
     {
+        if (_root is not null)
+            throw new InvalidOperationException("a subfolder is committed with its run's folder");
         ObjectDisposedException.ThrowIf(_disposed, this);
         if (_committed)
             throw new InvalidOperationException("the output folder is already committed");
@@ -163,37 +214,12 @@ public sealed class OutputDirectory : IDisposable
     /// <summary>Without a commit, throws this run's files away and leaves the folder as it was.</summary>
     public void Dispose()
     {
-        if (_disposed)
+        if (_disposed || _root is not null)
             return;
         _disposed = true;
         if (!_committed)
             FolderSwap.DeleteTree(_stage);
         _lock.Dispose();
-    }
-
-    // A folder voxprof did not write (a home folder, a repository given as --out by mistake), or a file someone put
-    // into a report folder, must never be swapped away: every entry must be listed in the folder's manifest or
-    // carry a name voxprof writes (a folder from before manifests).
-    private static void RequireOurs(string path, string full)
-    {
-        if (!Directory.Exists(full))
-            return;
-        var listed = new HashSet<string>(StringComparer.Ordinal);
-        try
-        {
-            foreach (ManifestFile f in ReportManifest.Read(full)?.Files ?? [])
-                listed.Add(f.Name);
-        }
-        catch (InputException)
-        {
-            // A damaged manifest vouches for nothing: the names alone decide.
-        }
-        foreach (string entry in Directory.EnumerateFileSystemEntries(full))
-        {
-            string name = Path.GetFileName(entry);
-            if (Directory.Exists(entry) || !(listed.Contains(name) || OutputNames.IsOwn(name)))
-                throw new InputException($"{path}: holds {(Directory.Exists(entry) ? "a folder" : "a file")} voxprof did not write ('{MessageText.Excerpt(name)}'); expected a new or empty folder, or one voxprof wrote (it replaces the whole folder)");
-        }
     }
 
     private static void TryDelete(string path)

@@ -1,5 +1,6 @@
 using System.Globalization;
 using CsvHelper;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Model;
 using VoxProf.Reports.Pixels;
@@ -18,7 +19,7 @@ public sealed class PixelDataExporter : IReportExporter
         if (!context.Options.PixelData)
             return;
         foreach (StrategyResult r in context.Run.Results)
-            output.Write(OutputNames.PixelData(r.Strategy.Name()), s => PixelDataFile.Write(PixelData.From(r), s));
+            output.Write(OutputNames.PixelData(r.Strategy.Name), s => PixelDataFile.Write(PixelData.From(r), s));
     }
 }
 
@@ -34,13 +35,13 @@ public sealed class PixelCsvExporter : IReportExporter
         if (!context.Options.PerPixel)
             return;
         foreach (StrategyResult r in context.Run.Results)
-            output.WriteText(OutputNames.PixelCsv(r.Strategy.Name()), w => Write(r, w));
+            output.WriteText(OutputNames.PixelCsv(r.Strategy.Name), w => Write(r, w));
     }
 
     public static void Write(StrategyResult r, TextWriter writer)
     {
         using var csv = CsvWriter.Create(writer, null, leaveOpen: true);
-        csv.WriteHeader([.. FixedColumns, .. CounterNames.All.Select(c => c.Name())]);
+        csv.WriteHeader([.. FixedColumns, .. r.CounterNames]);
         var inv = CultureInfo.InvariantCulture;
         for (int y = 0; y < r.Height; y++)
         {

@@ -1,5 +1,7 @@
 using VoxProf.Core.Memory;
+using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Images;
 using VoxProf.Reports.Metrics;
@@ -16,22 +18,22 @@ public static class ReportBuilder
         var tree = run.Tree;
         var cam = run.Camera;
         var settings = run.Settings;
-        string[] counters = CounterNames.All.Select(c => c.Name()).ToArray();
+        string[] counters = CounterNames.All.Select(c => c.Name()).Concat(run.Results.SelectMany(r => r.CounterNames))
+            .Distinct(StringComparer.OrdinalIgnoreCase).ToArray();
 
         var calibration = options.Calibration?.Model;
         var strategies = stats.Select(s => new StrategyReport(s.Name, MetricCatalogue.Values(s, calibration), FilesOf(s, options))).ToList();
         IReadOnlyList<MetricDescriptor> metrics = stats.Count > 0
-            ? MetricCatalogue.Describe(stats[0].Measures.Select(m => m.Measure), stats[0].Subgroups.Select(g => g.Shape), calibration, stats[0].Memory?.Settings)
+            ? MetricCatalogue.Describe(stats.SelectMany(s => s.Measures.Select(m => m.Measure)).DistinctBy(m => m.Name, StringComparer.OrdinalIgnoreCase),
+                stats[0].Subgroups.Select(g => g.Shape), calibration, stats[0].Memory?.Settings)
             : MetricCatalogue.Describe(Measures.All, SubgroupShape.Standard, calibration);
 
         var document = new ReportDocument(
             ReportDocument.CurrentSchema,
             options.ToolVersion,
-            new SceneInfo(scene.Name, scene.SourcePath is null ? null : Path.GetFileName(scene.SourcePath), scene.ContentHash,
-                [scene.ExtentX, scene.ExtentY, scene.ExtentZ]),
+            SceneOf(scene),
             new TreeInfo(tree.Branching, tree.Depth, tree.NodeCount, tree.SolidVoxels, tree.TotalBytes, tree.NodesPerLevel) { RootSize = tree.RootSize },
-            new CameraInfo(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z],
-                [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees),
+            CameraOf(cam),
             new RunInfo(settings.Width, settings.Height, settings.PrepassBlock, stats.Select(s => s.Name).ToArray(), counters)
             {
                 Branching = settings.Branching,
@@ -39,7 +41,7 @@ public static class ReportBuilder
                 Scale = options.Scale == ScaleKind.Log ? "log" : "linear",
                 RangeMin = options.RangeMin,
                 RangeMax = options.RangeMax,
-                Baseline = Baseline(stats, options.Baseline)?.Name(),
+                Baseline = Baseline(stats, options.Baseline)?.Name,
                 PixelData = options.PixelData,
                 Memory = run.Results.Select(r => r.Memory?.Settings).FirstOrDefault(m => m is not null) is { } mem
                     ? new MemoryInfo(mem.LineBytes, mem.CacheBytes, mem.Ways, mem.Group.Lanes, NodeLayout.RecordBytes)
@@ -50,7 +52,7 @@ public static class ReportBuilder
             metrics,
             strategies,
             options.Environment,
-            new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name(), r => r.Elapsed.TotalSeconds))
+            new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name, r => r.Elapsed.TotalSeconds))
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
             });
@@ -72,15 +74,23 @@ public static class ReportBuilder
         return document with { Run = document.Run with { HeatmapRanges = Ranges(new ReportContext(run, stats, document, options)) } };
     }
 
+    /// <summary>The scene as report.json records it.</summary>
+    public static SceneInfo SceneOf(Scene scene) =>
+        new(scene.Name, scene.SourcePath is null ? null : Path.GetFileName(scene.SourcePath), scene.ContentHash, [scene.ExtentX, scene.ExtentY, scene.ExtentZ]);
+
+    /// <summary>A camera as report.json records it.</summary>
+    public static CameraInfo CameraOf(CameraSpec cam) =>
+        new(cam.Name, [cam.Eye.X, cam.Eye.Y, cam.Eye.Z], [cam.Target.X, cam.Target.Y, cam.Target.Z], [cam.Up.X, cam.Up.Y, cam.Up.Z], cam.FovYDegrees);
+
     /// <summary>
     /// The requested baseline if it was traced, otherwise the first tree strategy traced: ratios to the grid
     /// reference, which costs an order of magnitude more, would all be tiny. Grid only when nothing else was traced.
     /// </summary>
-    public static Strategy? Baseline(IReadOnlyList<StrategyStatistics> stats, Strategy? requested)
+    public static StrategyDefinition? Baseline(IReadOnlyList<StrategyStatistics> stats, StrategyDefinition? requested)
     {
         if (requested is { } r && stats.Any(s => s.Strategy == r))
             return r;
-        return stats.FirstOrDefault(s => s.Strategy != Strategy.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
+        return stats.FirstOrDefault(s => s.Strategy != BuiltInStrategies.Grid)?.Strategy ?? stats.FirstOrDefault()?.Strategy;
     }
 
     /// <summary>The scale of every heatmap as the heatmap writer draws it (<see cref="HeatmapExporter.ScaleFor"/>).</summary>
@@ -89,10 +99,10 @@ public static class ReportBuilder
         var ranges = new List<HeatmapRange>();
         foreach (string map in context.Options.Heatmaps)
         {
-            foreach (StrategyResult r in context.Run.Results)
+            foreach (StrategyResult r in context.Run.Results.Where(r => HeatmapNames.AppliesTo(map, r.Strategy)))
             {
                 HeatmapScale scale = HeatmapExporter.ScaleFor(map, context, r);
-                ranges.Add(new HeatmapRange(r.Strategy.Name(), map, OutputNames.Heatmap(r.Strategy, map),
+                ranges.Add(new HeatmapRange(r.Strategy.Name, map, OutputNames.Heatmap(r.Strategy.Name, map),
                     scale.Kind == ScaleKind.Log ? "log" : "linear", scale.Min, scale.Max));
             }
         }
@@ -102,7 +112,7 @@ public static class ReportBuilder
     private static List<string> FilesOf(StrategyStatistics s, ReportOptions options)
     {
         string name = s.Name;
-        var files = options.Heatmaps.Select(h => OutputNames.Heatmap(name, h)).ToList();
+        var files = options.Heatmaps.Where(h => HeatmapNames.AppliesTo(h, s.Strategy)).Select(h => OutputNames.Heatmap(name, h)).ToList();
         if (s.MismatchPixels > 0)
             files.Add(OutputNames.Mismatch(name));
         if (options.PixelData)

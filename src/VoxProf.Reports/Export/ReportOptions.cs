@@ -1,4 +1,5 @@
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Images;
@@ -23,7 +24,7 @@ public sealed record ReportOptions
     public bool PerPixel { get; init; }
 
     /// <summary>The strategy summary.md's ratios are relative to; null for the first tree strategy traced.</summary>
-    public Strategy? Baseline { get; init; }
+    public StrategyDefinition? Baseline { get; init; }
 
     /// <summary>Write pixels-STRATEGY.bin.gz (false with --no-pixels: compare then has no per-pixel differences).</summary>
     public bool PixelData { get; init; } = true;
@@ -61,6 +62,18 @@ public static class HeatmapNames
     public static string LinesOf(SubgroupShape shape) => $"lines-per-group{shape.Lanes}";
 
     public static string ValidList => string.Join(", ", All);
+
+    /// <summary>Every heatmap name a run of <paramref name="strategies"/> can draw: <see cref="All"/>, then each
+    /// counter a strategy declares for itself.</summary>
+    public static IReadOnlyList<string> For(IEnumerable<StrategyDefinition> strategies) =>
+        [.. All, .. strategies.SelectMany(s => s.ExtraCounters).Select(c => c.Name).Distinct(StringComparer.OrdinalIgnoreCase)];
+
+    /// <summary>
+    /// Whether a strategy with these counters has the map: every strategy has the built-in counters and the subgroup
+    /// and predicted-cost maps; a counter of a strategy's own is drawn for that strategy only.
+    /// </summary>
+    public static bool AppliesTo(string map, StrategyDefinition strategy) =>
+        map == PredictedCost || IsSubgroup(map, out _) || IsGroupLines(map, out _) || strategy.CounterNames.Contains(map, StringComparer.OrdinalIgnoreCase);
 
     /// <summary>
     /// Each pixel's GPU time predicted by a calibration, in picoseconds: drawn with --calibration, not a --counters

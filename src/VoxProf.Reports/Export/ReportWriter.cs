@@ -43,12 +43,18 @@ public sealed class ReportWriter
     /// </summary>
     public static ReportResult WriteAll(TraceRun run, ReportOptions options, OutputDirectory output, IProgress<string>? step = null)
     {
+        ReportResult result = WriteFiles(run, options, output, step);
+        output.Commit();
+        return result;
+    }
+
+    /// <summary>Statistics, report document and every file, without the commit: one view of a run of several.</summary>
+    public static ReportResult WriteFiles(TraceRun run, ReportOptions options, OutputDirectory output, IProgress<string>? step = null)
+    {
         step?.Report("computing statistics");
         IReadOnlyList<StrategyStatistics> stats = StrategyStatistics.Compute(run);
         var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, options), options);
-        ReportResult result = new ReportWriter(DefaultExporters()).Write(context, output, step);
-        output.Commit();
-        return result;
+        return new ReportWriter(DefaultExporters()).Write(context, output, step);
     }
 
     public ReportResult Write(ReportContext context, OutputDirectory output, IProgress<string>? step = null)

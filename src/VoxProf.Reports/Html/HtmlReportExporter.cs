@@ -1,5 +1,6 @@
 using System.Globalization;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Model;
@@ -77,18 +78,22 @@ public sealed class HtmlReportExporter : IReportExporter
             HtmlPage.ViewerImage(w, image, keys, caption, caption);
         w.Write("<div class=\"viewer-empty\" hidden>No image for this strategy and map: a mismatch image exists only for a strategy whose hits differ from grid's.</div>\n");
         w.Write("<figcaption></figcaption>\n</figure>\n");
-        Readout(w);
+        Readout(w, context);
         w.Write("</div>\n</section>\n");
     }
 
-    private static void Readout(TextWriter w)
+    private static void Readout(TextWriter w, ReportContext context)
     {
         w.Write("<aside class=\"readout\" id=\"readout\" aria-live=\"polite\">\n<h3>Pixel <span id=\"ro-pixel\">–</span></h3>\n<dl>\n");
         foreach (var (id, label) in new[] { ("ro-strategy", "strategy"), ("ro-voxel", "hit voxel"), ("ro-face", "entry face"), ("ro-t", "t (voxels)"), ("ro-material", "material") })
             w.Write($"<dt>{label}</dt><dd id=\"{id}\">–</dd>\n");
         w.Write("</dl>\n<h4>Counters</h4>\n<dl id=\"ro-counters\">\n");
-        foreach (Counter c in CounterNames.All)
-            w.Write($"<dt title=\"{HtmlText.Encode(c.Description())}\">{c.Name()}</dt><dd data-counter=\"{c.Name()}\">–</dd>\n");
+        // Every counter of the run: the built-in ones, then those strategies declare for themselves.
+        foreach (string name in context.Document.Run.Counters)
+        {
+            string description = context.Statistics.SelectMany(s => s.Measures).FirstOrDefault(m => m.Name == name).Measure?.Description ?? name;
+            w.Write($"<dt title=\"{HtmlText.Encode(description)}\">{HtmlText.Encode(name)}</dt><dd data-counter=\"{HtmlText.Encode(name)}\">–</dd>\n");
+        }
         w.Write("</dl>\n</aside>\n");
     }
 
@@ -104,9 +109,9 @@ public sealed class HtmlReportExporter : IReportExporter
         foreach (StrategyStatistics s in context.Statistics)
         {
             StrategyResult r = results.First(x => x.Strategy == s.Strategy);
-            bool ownRange = s.Strategy == Strategy.Grid && results.Count > 1;
+            bool ownRange = s.Strategy == BuiltInStrategies.Grid && results.Count > 1;
             double range = context.Statistics
-                .Where(o => ownRange ? o.Strategy == Strategy.Grid : o.Strategy != Strategy.Grid || results.Count == 1)
+                .Where(o => ownRange ? o.Strategy == BuiltInStrategies.Grid : o.Strategy != BuiltInStrategies.Grid || results.Count == 1)
                 .Max(o => o[measure.Name].P99);
             CounterSummary summary = s[measure.Name];
             var histogram = CostHistogram.Build(measure.Values(r), range, summary.Mean, summary.P90);

@@ -41,11 +41,12 @@ public sealed class PixelBlock
             if (owner is null)
                 owners.Add((data[i].Hits, id));
         }
+        // One counter list for the page: every strategy's planes follow it, a counter of another strategy's own as zeros.
+        string[] counters = [.. CounterNames.All.Select(c => c.Name()).Concat(data.SelectMany(d => d.CounterNames)).Distinct(StringComparer.OrdinalIgnoreCase)];
         // Packing is independent per strategy and deflate is the slow part: one strategy per core.
         List<int[]> first = data.Length > 0 ? PixelPack.HitPlaneValues(data[0].Hits) : [];
         var blobs = new (string Id, byte[] Packed)[data.Length];
-        Parallel.For(0, data.Length, i => blobs[i] = (entries[i].Blob, PixelPack.Encode(Planes(data[i], entries[i], first))));
-        string[] counters = data.Length > 0 ? [.. data[0].CounterNames] : [.. CounterNames.All.Select(c => c.Name())];
+        Parallel.For(0, data.Length, i => blobs[i] = (entries[i].Blob, PixelPack.Encode(Planes(data[i], counters, entries[i], first))));
         var faces = Enumerable.Range(0, 7).Select(f => PixelHit.FaceName((HitFace)f)).ToArray();
         var page = new PageData(run.Settings.Width, run.Settings.Height, counters, [.. PixelPack.HitPlanes], faces, entries);
         return new PixelBlock(page, blobs);
@@ -58,13 +59,18 @@ public sealed class PixelBlock
     /// plane before it asks for the next, and a full-size page then costs one plane of memory per strategy, not
     /// eighteen of garbage.
     /// </summary>
-    private static IEnumerable<int[]> Planes(PixelData data, StrategyEntry entry, List<int[]> first)
+    private static IEnumerable<int[]> Planes(PixelData data, string[] counters, StrategyEntry entry, List<int[]> first)
     {
         var buffer = new int[data.Width * data.Height];
-        foreach (uint[] counter in data.Counters)
+        foreach (string name in counters)
         {
-            for (int i = 0; i < buffer.Length; i++)
-                buffer[i] = unchecked((int)counter[i]);
+            if (data.Find(name) is { } counter)
+            {
+                for (int i = 0; i < buffer.Length; i++)
+                    buffer[i] = unchecked((int)counter[i]);
+            }
+            else
+                Array.Clear(buffer);
             yield return buffer;
         }
         if (entry.Hits != entry.Blob)

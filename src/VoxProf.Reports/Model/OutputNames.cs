@@ -20,7 +20,6 @@ public static partial class OutputNames
 
     public static string PixelCsv(string strategy) => $"pixels-{strategy}.csv";
 
-    public static string Heatmap(Strategy s, string map) => Heatmap(s.Name(), map);
 
     /// <summary>
     /// Whether a file name is one voxprof writes into an output folder (report, compare and HTML files, images, pixel
@@ -29,6 +28,6 @@ public static partial class OutputNames
     public static bool IsOwn(string name) => OwnName().IsMatch(name);
 
     [System.Text.RegularExpressions.GeneratedRegex(
-        @"^(?:(?:report|compare|manifest|calibration)\.json|(?:summary|compare|calibration)\.(?:csv|md)|(?:report|compare)\.html|preview\.png|(?:heatmap|mismatch|diff)-[^/\\]+\.png|pixels-[^/\\]+\.(?:bin\.gz|csv)|\..+\.tmp)$")]
+        @"^(?:(?:report|compare|manifest|calibration)\.json|(?:summary|compare|calibration)\.(?:csv|md)|views\.csv|worst-views\.png|(?:report|compare)\.html|preview\.png|(?:heatmap|mismatch|diff)-[^/\\]+\.png|pixels-[^/\\]+\.(?:bin\.gz|csv)|\..+\.tmp)$")]
     private static partial System.Text.RegularExpressions.Regex OwnName();
 }

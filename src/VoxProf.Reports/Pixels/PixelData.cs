@@ -1,4 +1,5 @@
 using VoxProf.Core;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Reports.Pixels;
@@ -43,5 +44,5 @@ public sealed class PixelData
         Find(counter.Name()) ?? throw new InputException($"pixel data of {Strategy}: no counter {counter.Name()}, found: {string.Join(", ", CounterNames)}");
 
     public static PixelData From(StrategyResult result) =>
-        new(result.Strategy.Name(), result.Width, result.Height, Core.Traversal.CounterNames.All.Select(c => c.Name()).ToArray(), result.Counters, result.Hits);
+        new(result.Strategy.Name, result.Width, result.Height, [.. result.CounterNames], result.Counters, result.Hits);
 }

@@ -1,3 +1,4 @@
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Tests.Traversal;
 using Xunit.Abstractions;
@@ -18,7 +19,7 @@ public class PrepassSweepTests(ITestOutputHelper output)
     public void The_prepass_never_changes_a_hit(int batch)
     {
         var settings = new PrepassProperty.Settings([512, 2048, 8192, 16384], 160, 120,
-            [Strategy.Slab, Strategy.Dda, Strategy.DdaMask, Strategy.Hdda]);
+            [BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda]);
         var tally = new PrepassProperty.Tally();
         for (int seed = 1000 + batch * 50; seed < 1000 + (batch + 1) * 50; seed++)
             PrepassProperty.Check(seed, settings, tally);

@@ -1,5 +1,6 @@
 using System.Numerics;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Tests.Traversal;
@@ -16,7 +17,7 @@ namespace VoxProf.Sweeps.Traversal;
 public class SampleSceneAgreementTests(ITestOutputHelper output)
 {
     private const int RandomCameras = 200;
-    private static readonly Strategy[] Fast = [Strategy.Slab, Strategy.Dda, Strategy.DdaMask, Strategy.Hdda];
+    private static readonly StrategyDefinition[] Fast = [BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
 
     public static TheoryData<string> Samples()
     {
@@ -38,7 +39,7 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
         foreach (CameraSpec cam in scene.Cameras)
         {
             // grid reads the tree only to look voxels up, so one branching factor serves as the reference for both.
-            PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 1280, 720, [Strategy.Grid])).Reference!.Hits;
+            PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 1280, 720, [BuiltInStrategies.Grid])).Reference!.Hits;
             hits += reference.Count(h => h.Hit);
             foreach (BrickTree tree in trees)
                 foreach (int block in new[] { 0, 2, 4, 8 })
@@ -63,7 +64,7 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
             CameraSpec cam = RandomCamera(rng, scene);
             // Each camera gets both branching factors; the prepass block cycles through off, 2, 4 and 8.
             int block = new[] { 0, 2, 4, 8 }[c % 4];
-            PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 160, 90, [Strategy.Grid])).Reference!.Hits;
+            PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 160, 90, [BuiltInStrategies.Grid])).Reference!.Hits;
             hits += reference.Count(h => h.Hit);
             foreach (BrickTree tree in trees)
                 bad += Compare($"{file} camera {c} branching {tree.Branching} prepass {block}", reference,
@@ -85,7 +86,7 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
                 if (PrepassProperty.Same(r.Hits[i], reference[i]))
                     continue;
                 if (bad++ < 10)
-                    output.WriteLine($"{what} {r.Strategy.Name()} pixel {i % r.Width},{i / r.Width}: {Describe(reference[i])} vs {Describe(r.Hits[i])}");
+                    output.WriteLine($"{what} {r.Strategy.Name} pixel {i % r.Width},{i / r.Width}: {Describe(reference[i])} vs {Describe(r.Hits[i])}");
             }
         }
         return bad;

@@ -2,6 +2,7 @@ using System.Globalization;
 using CsvHelper;
 using VoxProf.Core.Calibration;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Compare;
@@ -44,7 +45,7 @@ public sealed class PredictedMetricTests : IDisposable
         metric.Better.Should().Be(Better.Lower);
         metric.Title.Should().Contain("lab card A, driver 9.1");
         foreach (var r in run.Results)
-            doc.Strategies.Single(s => s.Name == r.Strategy.Name()).Value(MetricCatalogue.PredictedMs).Should().BeApproximately(ByHandMs(r), 1e-15);
+            doc.Strategies.Single(s => s.Name == r.Strategy.Name).Value(MetricCatalogue.PredictedMs).Should().BeApproximately(ByHandMs(r), 1e-15);
         doc.Calibration.Should().NotBeNull();
         doc.Calibration!.Device.Should().Be("lab card A, driver 9.1");
         doc.Calibration.File.Should().Be("lab.json");
@@ -109,8 +110,8 @@ public sealed class PredictedMetricTests : IDisposable
         result.Failures.Should().BeEmpty();
         foreach (var r in run.Results)
         {
-            string file = OutputNames.Heatmap(r.Strategy, HeatmapNames.PredictedCost);
-            result.Document.Strategies.Single(s => s.Name == r.Strategy.Name()).Files.Should().Contain(file);
+            string file = OutputNames.Heatmap(r.Strategy.Name, HeatmapNames.PredictedCost);
+            result.Document.Strategies.Single(s => s.Name == r.Strategy.Name).Files.Should().Contain(file);
             var png = PngPicture.Read(Path.Combine(dir, file));
             png.Text["Counter"].Should().Be("predicted-cost");
             png.Width.Should().Be(r.Width);

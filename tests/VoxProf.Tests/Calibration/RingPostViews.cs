@@ -1,5 +1,6 @@
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -23,8 +24,8 @@ public sealed class RingPostViews
         foreach (CameraSpec camera in Scene.Cameras)
         {
             foreach (int prepass in new[] { 0, 4 })
-                runs.Add(Tracer.Run(new TraceRequest(Scene, tree, camera, Width, Height, StrategyNames.All, prepass, 2)));
-            runs.Add(Tracer.Run(new TraceRequest(Scene, tree, camera, 32, 24, StrategyNames.All, 0, 2)));
+                runs.Add(Tracer.Run(new TraceRequest(Scene, tree, camera, Width, Height, BuiltInStrategies.All, prepass, 2)));
+            runs.Add(Tracer.Run(new TraceRequest(Scene, tree, camera, 32, 24, BuiltInStrategies.All, 0, 2)));
         }
         Runs = runs;
         Statistics = runs.SelectMany(StrategyStatistics.Compute).ToArray();

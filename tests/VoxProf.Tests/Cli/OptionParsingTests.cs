@@ -1,6 +1,7 @@
 using System.Numerics;
 using VoxProf.Cli;
 using VoxProf.Core;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Tests.Cli;
@@ -51,9 +52,9 @@ public class OptionParsingTests
     [Fact]
     public void Lists_keep_order_drop_duplicates_and_name_every_valid_choice_on_error()
     {
-        OptionParsing.List<Strategy>("dda, grid,dda", "--strategy", "strategy", StrategyNames.TryParse, StrategyNames.ValidList)
-            .Should().Equal(Strategy.Dda, Strategy.Grid);
-        FluentActions.Invoking(() => OptionParsing.List<Strategy>("dda,octo", "--strategy", "strategy", StrategyNames.TryParse, StrategyNames.ValidList))
+        OptionParsing.List<StrategyDefinition>("dda, grid,dda", "--strategy", "strategy", new StrategyCatalog().TryParse, new StrategyCatalog().ValidList)
+            .Should().Equal(BuiltInStrategies.Dda, BuiltInStrategies.Grid);
+        FluentActions.Invoking(() => OptionParsing.List<StrategyDefinition>("dda,octo", "--strategy", "strategy", new StrategyCatalog().TryParse, new StrategyCatalog().ValidList))
             .Should().Throw<InputException>()
             .WithMessage("--strategy: unknown strategy 'octo'; expected one of: grid, slab, dda, dda-mask, hdda");
     }

@@ -3,6 +3,7 @@ using System.Globalization;
 using System.IO.Compression;
 using CsvHelper;
 using VoxProf.Core;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Pixels;
@@ -24,7 +25,7 @@ public class PixelFileTests
         var hits = new PixelHit[n];
         for (int i = 0; i < n; i++)
             hits[i] = new PixelHit { Hit = true, X = i, Y = 2 * i, Z = 3 * i, T = Distances[i], Material = 1, Face = HitFace.NegY };
-        return new StrategyResult(Strategy.Hdda, n, 1, counters, hits, TimeSpan.Zero);
+        return new StrategyResult(BuiltInStrategies.Hdda, n, 1, counters, hits, TimeSpan.Zero);
     }
 
     [Fact]

@@ -1,6 +1,7 @@
 using System.Globalization;
 using CsvHelper;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Metrics;
@@ -146,7 +147,7 @@ public class SummaryOutputTests
     [Fact]
     public void Markdown_ratios_are_relative_to_the_requested_baseline()
     {
-        var doc = Document(TestRuns.Options with { Baseline = VoxProf.Core.Traversal.Strategy.Grid });
+        var doc = Document(TestRuns.Options with { Baseline = VoxProf.Core.Strategies.BuiltInStrategies.Grid });
         string md = SummaryMarkdown.Render(doc, MetricTable.FromReport(doc));
         md.Should().Contain("| grid (baseline) |");
         var table = MetricTable.FromReport(doc);
@@ -160,9 +161,9 @@ public class SummaryOutputTests
     {
         var full = TestRuns.Small();
         var stats = StrategyStatistics.Compute(full);
-        ReportBuilder.Baseline(stats, requested: null).Should().Be(VoxProf.Core.Traversal.Strategy.Dda);
-        ReportBuilder.Baseline(stats, VoxProf.Core.Traversal.Strategy.Grid).Should().Be(VoxProf.Core.Traversal.Strategy.Grid);
-        ReportBuilder.Baseline([stats[0]], requested: null).Should().Be(VoxProf.Core.Traversal.Strategy.Grid);
+        ReportBuilder.Baseline(stats, requested: null).Should().Be(VoxProf.Core.Strategies.BuiltInStrategies.Dda);
+        ReportBuilder.Baseline(stats, VoxProf.Core.Strategies.BuiltInStrategies.Grid).Should().Be(VoxProf.Core.Strategies.BuiltInStrategies.Grid);
+        ReportBuilder.Baseline([stats[0]], requested: null).Should().Be(VoxProf.Core.Strategies.BuiltInStrategies.Grid);
         ReportBuilder.Baseline([], requested: null).Should().BeNull();
     }
 
@@ -202,7 +203,7 @@ public class SummaryOutputTests
         var context = new ReportContext(run, StrategyStatistics.Compute(run), doc, options);
         foreach (var range in doc.Run.HeatmapRanges)
         {
-            var result = run.Results.Single(r => r.Strategy.Name() == range.Strategy);
+            var result = run.Results.Single(r => r.Strategy.Name == range.Strategy);
             var drawn = HeatmapExporter.ScaleFor(range.Map, context, result);
             (range.Min, range.Max).Should().Be((drawn.Min, drawn.Max), $"{range.Strategy} {range.Map}");
             range.File.Should().Be(OutputNames.Heatmap(range.Strategy, range.Map));

@@ -3,6 +3,7 @@ using VoxProf.Core.Calibration;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Calibration;
@@ -43,8 +44,8 @@ internal static class TestRuns
         var settings = new TraceSettings(width, height, 4, 0, 2);
         return new TraceRun(scene, camera, settings, tree,
         [
-            WithMemory(Result(Strategy.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30), memory ? 3 : 0),
-            WithMemory(Result(Strategy.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10), memory ? 1 : 0),
+            WithMemory(Result(BuiltInStrategies.Grid, width, height, (x, y) => (uint)(x + y + 1), hitShift: false, elapsedMs: 30), memory ? 3 : 0),
+            WithMemory(Result(BuiltInStrategies.Dda, width, height, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2, hitShift: true, elapsedMs: 10), memory ? 1 : 0),
         ]);
     }
 
@@ -64,7 +65,7 @@ internal static class TestRuns
         };
     }
 
-    public static StrategyResult Result(Strategy s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)
+    public static StrategyResult Result(StrategyDefinition s, int width, int height, Func<int, int, uint> iterations, bool hitShift, double elapsedMs)
     {
         var counters = new uint[CounterNames.Count][];
         for (int c = 0; c < counters.Length; c++)

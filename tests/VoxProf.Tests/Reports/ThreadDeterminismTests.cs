@@ -1,4 +1,5 @@
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Reports.Export;
@@ -18,7 +19,7 @@ public sealed class ThreadDeterminismTests : IDisposable
 
     private ReportResult Trace(Scene scene, BrickTree tree, int threads, string sub)
     {
-        var request = new TraceRequest(scene, tree, scene.Cameras[0], 48, 32, [Strategy.Grid, Strategy.DdaMask, Strategy.Hdda], 4, threads);
+        var request = new TraceRequest(scene, tree, scene.Cameras[0], 48, 32, [BuiltInStrategies.Grid, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda], 4, threads);
         TraceRun run = Tracer.Run(request);
         return ReportWriter.WriteAll(run, TestRuns.Options with { Threads = threads }, Path.Combine(_dir, sub));
     }

@@ -1,12 +1,13 @@
 using MathNet.Numerics.Statistics;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Tests.Statistics;
 
 public class StrategyStatisticsTests
 {
-    private static StrategyResult Result(Strategy strategy, int width, int height, Func<Counter, int, uint> value, PixelHit[]? hits = null)
+    private static StrategyResult Result(StrategyDefinition strategy, int width, int height, Func<Counter, int, uint> value, PixelHit[]? hits = null)
     {
         var counters = new uint[CounterNames.Count][];
         foreach (Counter c in CounterNames.All)
@@ -19,7 +20,7 @@ public class StrategyStatisticsTests
     {
         // Own iterations 0 or 10 and prepass iterations 10 or 0 in alternate pixels: every pixel's total is 10, so
         // every percentile of the total is 10, while the sum of the two p90s is 20.
-        var r = Result(Strategy.Dda, 10, 1, (c, i) => c switch
+        var r = Result(BuiltInStrategies.Dda, 10, 1, (c, i) => c switch
         {
             Counter.Iterations => i % 2 == 0 ? 0u : 10u,
             Counter.PrepassIterations => i % 2 == 0 ? 10u : 0u,
@@ -38,7 +39,7 @@ public class StrategyStatisticsTests
     {
         var rng = new Random(77);
         var values = CounterNames.All.ToDictionary(c => c, _ => Enumerable.Range(0, 24 * 16).Select(_ => (uint)rng.Next(0, 300)).ToArray());
-        var r = Result(Strategy.Hdda, 24, 16, (c, i) => values[c][i]);
+        var r = Result(BuiltInStrategies.Hdda, 24, 16, (c, i) => values[c][i]);
 
         var s = StrategyStatistics.Compute(r, null);
 
@@ -64,8 +65,8 @@ public class StrategyStatisticsTests
     public void Mismatch_is_null_without_a_reference_zero_for_the_reference_itself_and_counted_otherwise()
     {
         var hit = new PixelHit { Hit = true, X = 1, Y = 2, Z = 3 };
-        var grid = Result(Strategy.Grid, 2, 1, (_, _) => 1, [hit, hit]);
-        var dda = Result(Strategy.Dda, 2, 1, (_, _) => 1, [hit, hit with { Z = 4 }]);
+        var grid = Result(BuiltInStrategies.Grid, 2, 1, (_, _) => 1, [hit, hit]);
+        var dda = Result(BuiltInStrategies.Dda, 2, 1, (_, _) => 1, [hit, hit with { Z = 4 }]);
 
         StrategyStatistics.Compute(dda, null).MismatchPixels.Should().BeNull("nothing was checked");
         StrategyStatistics.Compute(grid, grid).MismatchPixels.Should().Be(0);

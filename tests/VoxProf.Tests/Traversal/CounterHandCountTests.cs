@@ -1,6 +1,7 @@
 using System.Numerics;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -29,7 +30,7 @@ public class CounterHandCountTests
     // visits voxels (0,1,0), (1,1,0), (2,1,0), then hits (3,1,0) at t = 4 through its -x face.
     private static readonly CameraSpec Camera = new("hand", new Vector3(-1, 1.5f, 0.5f), new Vector3(10, 1.5f, 0.5f), Vector3.UnitY, 60);
 
-    private static StrategyResult Trace(Strategy strategy)
+    private static StrategyResult Trace(StrategyDefinition strategy)
     {
         TraceRun run = Tracer.Run(new TraceRequest(DenseTree.SceneOf(4, 4, 4), Tree, Camera, 1, 1, [strategy]));
         StrategyResult r = run.Results[0];
@@ -57,7 +58,7 @@ public class CounterHandCountTests
             [Counter.CacheLines] = 0, // the memory model is off
         };
         foreach (Counter c in CounterNames.All)
-            r.Get(c)[0].Should().Be(expected[c], $"{r.Strategy.Name()} {c.Name()}");
+            r.Get(c)[0].Should().Be(expected[c], $"{r.Strategy.Name} {c.Name()}");
     }
 
     [Fact]
@@ -70,7 +71,7 @@ public class CounterHandCountTests
         // Iteration 3, voxel (2,1,0): root (root cell (1,0,0) has a child), node B (local (0,1,0) empty): 2 (6).
         //   Step x to (3,1,0) at t = 4: cell step 3.
         // Iteration 4, voxel (3,1,0): root, B (local (1,1,0) solid): 2 (8). Hit.
-        ShouldCount(Trace(Strategy.Grid), iterations: 4, cellSteps: 3, slabTests: 1, descents: 0, ascents: 0, nodeFetches: 8);
+        ShouldCount(Trace(BuiltInStrategies.Grid), iterations: 4, cellSteps: 3, slabTests: 1, descents: 0, ascents: 0, nodeFetches: 8);
     }
 
     [Fact]
@@ -85,7 +86,7 @@ public class CounterHandCountTests
         // Iteration 4, root (1,0,0) has a child: descent 2, read B: fetch 3, slab test of B's box: 3. Child (0,1,0).
         // Iteration 5, B (0,1,0) empty: step x to (1,1,0) at t = 4: cell step 4.
         // Iteration 6, B (1,1,0) solid: hit.
-        ShouldCount(Trace(Strategy.Dda), iterations: 6, cellSteps: 4, slabTests: 3, descents: 2, ascents: 1, nodeFetches: 3);
+        ShouldCount(Trace(BuiltInStrategies.Dda), iterations: 6, cellSteps: 4, slabTests: 3, descents: 2, ascents: 1, nodeFetches: 3);
     }
 
     [Fact]
@@ -94,7 +95,7 @@ public class CounterHandCountTests
         // The same cells as dda, but every step inside a node is a slab test of the current cell, whose exit plane
         // gives the step: clip 1, descents into A and B 2, in-node steps at iterations 2, 3 and 5: 3, so 6 slab tests.
         // The parent's step after the ascent crosses the plane the child left by, so it needs no slab test.
-        ShouldCount(Trace(Strategy.Slab), iterations: 6, cellSteps: 4, slabTests: 6, descents: 2, ascents: 1, nodeFetches: 3);
+        ShouldCount(Trace(BuiltInStrategies.Slab), iterations: 6, cellSteps: 4, slabTests: 6, descents: 2, ascents: 1, nodeFetches: 3);
     }
 
     [Fact]
@@ -108,7 +109,7 @@ public class CounterHandCountTests
         // Iteration 4, root (1,0,0) has a child: descent 2, read B: fetch 3; refine to (2,1,0).
         // Iteration 5, (2,1,0) empty: step x to (3,1,0): cell step 3.
         // Iteration 6, (3,1,0) solid: hit.
-        ShouldCount(Trace(Strategy.Hdda), iterations: 6, cellSteps: 3, slabTests: 1, descents: 2, ascents: 1, nodeFetches: 3);
+        ShouldCount(Trace(BuiltInStrategies.Hdda), iterations: 6, cellSteps: 3, slabTests: 1, descents: 2, ascents: 1, nodeFetches: 3);
     }
 
     [Fact]
@@ -125,7 +126,7 @@ public class CounterHandCountTests
         //   occupied cell (0,0,1) has y = 0, culled (2 culled cells); (1,1,0) is reachable.
         // Iteration 3, B (0,1,0) empty: step x to (1,1,0): cell step 2; still reachable.
         // Iteration 4, B (1,1,0) solid: hit.
-        ShouldCount(Trace(Strategy.DdaMask), iterations: 4, cellSteps: 2, slabTests: 3, descents: 2, ascents: 1, nodeFetches: 3,
+        ShouldCount(Trace(BuiltInStrategies.DdaMask), iterations: 4, cellSteps: 2, slabTests: 3, descents: 2, ascents: 1, nodeFetches: 3,
             maskCulled: 2, maskSkipped: 1);
     }
 

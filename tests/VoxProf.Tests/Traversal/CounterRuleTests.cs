@@ -1,5 +1,6 @@
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -17,8 +18,8 @@ public class CounterRuleTests
 
     private sealed record Case(BrickTree Tree, TraceRun Run, Camera Camera, PrepassMap? Prepass)
     {
-        public ReadOnlySpan<uint> Get(Strategy s, Counter c) => Run.Results.Single(r => r.Strategy == s).Get(c);
-        public PixelHit Hit(Strategy s, int i) => Run.Results.Single(r => r.Strategy == s).Hits[i];
+        public ReadOnlySpan<uint> Get(StrategyDefinition s, Counter c) => Run.Results.Single(r => r.Strategy == s).Get(c);
+        public PixelHit Hit(StrategyDefinition s, int i) => Run.Results.Single(r => r.Strategy == s).Hits[i];
     }
 
     private static IEnumerable<Case> Runs(int branching, int seed)
@@ -31,14 +32,14 @@ public class CounterRuleTests
         {
             CameraSpec cam = KernelAgreementTests.RandomCamera(rng, size, inside: c % 3 == 0);
             int block = new[] { 0, 2, 4, 8 }[c % 4];
-            TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, Width, Height, StrategyNames.All, block, 2));
+            TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, Width, Height, BuiltInStrategies.All, block, 2));
             var camera = new Camera(cam, Width, Height);
             PrepassMap? map = block > 0 ? PrepassMap.Compute(tree, camera, block, new ParallelOptions()) : null;
             yield return new Case(tree, run, camera, map);
         }
     }
 
-    private static readonly Strategy[] TreeStrategies = [Strategy.Slab, Strategy.Dda, Strategy.DdaMask, Strategy.Hdda];
+    private static readonly StrategyDefinition[] TreeStrategies = [BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
 
     [Theory]
     [MemberData(nameof(Cases))]
@@ -50,20 +51,20 @@ public class CounterRuleTests
             for (int i = 0; i < Width * Height; i++)
             {
                 string at = $"pixel {i} (branching {branching}, prepass {k.Run.Settings.PrepassBlock})";
-                foreach (Strategy s in StrategyNames.All)
+                foreach (StrategyDefinition s in BuiltInStrategies.All)
                 {
                     uint it = k.Get(s, Counter.Iterations)[i], steps = k.Get(s, Counter.CellSteps)[i], slabs = k.Get(s, Counter.SlabTests)[i];
                     uint down = k.Get(s, Counter.Descents)[i], up = k.Get(s, Counter.Ascents)[i], fetches = k.Get(s, Counter.NodeFetches)[i];
                     // Rule 1: the clip is always one slab test; a walk that never starts counts nothing else.
-                    slabs.Should().BeGreaterThanOrEqualTo(1u, $"{s.Name()} {at}");
-                    bool started = s == Strategy.Grid ? it > 0 : fetches > 0;
+                    slabs.Should().BeGreaterThanOrEqualTo(1u, $"{s.Name} {at}");
+                    bool started = s == BuiltInStrategies.Grid ? it > 0 : fetches > 0;
                     if (!started)
                     {
-                        (it, steps, slabs, down, up, fetches).Should().Be((0u, 0u, 1u, 0u, 0u, 0u), $"{s.Name()} {at} never starts");
+                        (it, steps, slabs, down, up, fetches).Should().Be((0u, 0u, 1u, 0u, 0u, 0u), $"{s.Name} {at} never starts");
                         k.Hit(s, i).Hit.Should().BeFalse();
                         continue;
                     }
-                    if (s == Strategy.Grid)
+                    if (s == BuiltInStrategies.Grid)
                     {
                         // Rule 2
                         entered++;
@@ -73,21 +74,21 @@ public class CounterRuleTests
                         continue;
                     }
                     // Rule 3 and 4
-                    fetches.Should().Be(down + 1u, $"{s.Name()} {at}");
-                    up.Should().BeLessThanOrEqualTo(down, $"{s.Name()} {at}");
+                    fetches.Should().Be(down + 1u, $"{s.Name} {at}");
+                    up.Should().BeLessThanOrEqualTo(down, $"{s.Name} {at}");
                     // Rule 5
-                    switch (s)
+                    if (s == BuiltInStrategies.Dda || s == BuiltInStrategies.DdaMask)
                     {
-                        case Strategy.Dda or Strategy.DdaMask:
-                            slabs.Should().Be(1u + down, $"{s.Name()} {at}");
-                            break;
-                        case Strategy.Hdda:
-                            slabs.Should().Be(1u, $"hdda {at}");
-                            break;
-                        case Strategy.Slab:
-                            long extra = slabs - 1L - down - (steps - (long)up);
-                            extra.Should().BeInRange(0, k.Hit(s, i).Hit ? 0 : 1, $"slab {at}");
-                            break;
+                        slabs.Should().Be(1u + down, $"{s.Name} {at}");
+                    }
+                    else if (s == BuiltInStrategies.Hdda)
+                    {
+                        slabs.Should().Be(1u, $"hdda {at}");
+                    }
+                    else if (s == BuiltInStrategies.Slab)
+                    {
+                        long extra = slabs - 1L - down - (steps - (long)up);
+                        extra.Should().BeInRange(0, k.Hit(s, i).Hit ? 0 : 1, $"slab {at}");
                     }
                 }
             }
@@ -105,19 +106,19 @@ public class CounterRuleTests
             for (int i = 0; i < Width * Height; i++)
             {
                 string at = $"pixel {i} (branching {branching}, prepass {k.Run.Settings.PrepassBlock})";
-                (uint It, uint Steps, uint Down, uint Up, uint Fetch) Of(Strategy s) =>
+                (uint It, uint Steps, uint Down, uint Up, uint Fetch) Of(StrategyDefinition s) =>
                     (k.Get(s, Counter.Iterations)[i], k.Get(s, Counter.CellSteps)[i], k.Get(s, Counter.Descents)[i],
                         k.Get(s, Counter.Ascents)[i], k.Get(s, Counter.NodeFetches)[i]);
-                var dda = Of(Strategy.Dda);
+                var dda = Of(BuiltInStrategies.Dda);
                 ascents += dda.Up;
                 // Rule 6: a slab test of the current cell finds the DDA's exit plane, so slab walks the same cells.
-                Of(Strategy.Slab).Should().Be(dda, $"slab against dda {at}");
+                Of(BuiltInStrategies.Slab).Should().Be(dda, $"slab against dda {at}");
                 // Rule 7: hdda walks the same cells without the parent-level step after each ascent.
-                var hdda = Of(Strategy.Hdda);
+                var hdda = Of(BuiltInStrategies.Hdda);
                 (hdda.It, hdda.Down, hdda.Up, hdda.Fetch).Should().Be((dda.It, dda.Down, dda.Up, dda.Fetch), $"hdda against dda {at}");
                 dda.Steps.Should().Be(hdda.Steps + dda.Up, $"hdda against dda {at}");
                 // Rule 8: dda-mask walks a subsequence of dda's cells; leaving a node early can cost one ascent more at the end.
-                var mask = Of(Strategy.DdaMask);
+                var mask = Of(BuiltInStrategies.DdaMask);
                 mask.It.Should().BeLessThanOrEqualTo(dda.It, at);
                 mask.Steps.Should().BeLessThanOrEqualTo(dda.Steps, at);
                 mask.Down.Should().BeLessThanOrEqualTo(dda.Down, at);
@@ -143,8 +144,8 @@ public class CounterRuleTests
                     uint down = r.Get(Counter.Descents)[i];
                     uint mc = r.Get(Counter.MaskCulledCells)[i], ms = r.Get(Counter.MaskSkippedNodes)[i];
                     // Rule 9
-                    if (r.Strategy != Strategy.DdaMask)
-                        (mc, ms).Should().Be((0u, 0u), r.Strategy.Name());
+                    if (r.Strategy != BuiltInStrategies.DdaMask)
+                        (mc, ms).Should().Be((0u, 0u), r.Strategy.Name);
                     else
                     {
                         ms.Should().BeLessThanOrEqualTo(down + 1u);
@@ -152,14 +153,14 @@ public class CounterRuleTests
                         culled += mc;
                     }
                     // Rule 10
-                    if (k.Prepass == null || r.Strategy == Strategy.Grid)
+                    if (k.Prepass == null || r.Strategy == BuiltInStrategies.Grid)
                     {
                         r.Get(Counter.PrepassIterations)[i].Should().Be(0);
                         r.Get(Counter.PrepassNodeFetches)[i].Should().Be(0);
                         r.Get(Counter.PrepassSkip)[i].Should().Be(0);
                     }
                 }
-                if (k.Prepass != null && r.Strategy != Strategy.Grid)
+                if (k.Prepass != null && r.Strategy != BuiltInStrategies.Grid)
                     shared += CheckShares(k.Prepass, r);
             }
         }
@@ -202,12 +203,12 @@ public class CounterRuleTests
         var view = new TreeView(tree);
         var counters = new NoCounters();
         RayStart.Clip(view, ray, 0, ref counters, out RayStart start).Should().BeTrue();
-        var walk = DdaWalk.Start(ray, start.T, start.X, start.Y, start.Z, 1.0);
+        var walk = DdaState.Start(ray, start.T, start.FaceAxis, start.X, start.Y, start.Z, 0);
         uint sum = 0;
         for (int v = 0; v < voxels; v++)
         {
             sum += (uint)LookupDepth(tree, walk.X, walk.Y, walk.Z);
-            walk.TryStep(double.PositiveInfinity);
+            walk.TryStep(ray, double.PositiveInfinity);
         }
         return sum;
     }

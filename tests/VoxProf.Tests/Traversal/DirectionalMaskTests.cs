@@ -8,11 +8,11 @@ public class DirectionalMaskTests
     private static IEnumerable<(int X, int Y, int Z)> CellsVisited(int n, double ox, double oy, double oz, double dx, double dy, double dz)
     {
         var ray = new RaySetup(ox, oy, oz, dx, dy, dz);
-        var w = DdaWalk.Start(ray, 0, (int)ox, (int)oy, (int)oz, 1);
+        var w = DdaState.Start(ray, 0, -1, (int)ox, (int)oy, (int)oz, 0);
         while (w.X >= 0 && w.X < n && w.Y >= 0 && w.Y < n && w.Z >= 0 && w.Z < n)
         {
             yield return (w.X, w.Y, w.Z);
-            if (!w.TryStep(double.MaxValue))
+            if (!w.TryStep(ray, double.MaxValue))
                 yield break;
         }
     }

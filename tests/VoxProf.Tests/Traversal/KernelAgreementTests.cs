@@ -1,5 +1,6 @@
 using System.Numerics;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -8,7 +9,7 @@ namespace VoxProf.Tests.Traversal;
 /// <summary>Differential tests: every tree strategy against the grid reference on seeded random scenes and cameras.</summary>
 public class KernelAgreementTests
 {
-    private static readonly Strategy[] Fast = [Strategy.Slab, Strategy.Dda, Strategy.DdaMask, Strategy.Hdda];
+    private static readonly StrategyDefinition[] Fast = [BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
 
     internal static Func<int, int, int, byte> RandomBlobs(int seed, int size, int count)
     {
@@ -40,7 +41,7 @@ public class KernelAgreementTests
     }
 
     /// <summary>Returns the number of pixels whose hit (voxel, distance, face, material) differs from the grid reference.</summary>
-    internal static int Mismatches(TraceRun run, Strategy strategy)
+    internal static int Mismatches(TraceRun run, StrategyDefinition strategy)
     {
         var reference = run.Reference!.Hits;
         var hits = run.Results.Single(r => r.Strategy == strategy).Hits;
@@ -64,8 +65,8 @@ public class KernelAgreementTests
             CameraSpec cam = RandomCamera(rng, size, inside: c % 3 == 0);
             foreach (int prepass in new[] { 0, 4 })
             {
-                TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 48, 32, [Strategy.Grid, .. Fast], prepass, 2));
-                foreach (Strategy s in Fast)
+                TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 48, 32, [BuiltInStrategies.Grid, .. Fast], prepass, 2));
+                foreach (StrategyDefinition s in Fast)
                     bad += Mismatches(run, s);
                 total += 48 * 32 * Fast.Length;
             }
@@ -81,7 +82,7 @@ public class KernelAgreementTests
         BrickTree tree = DenseTree.Build(32, 32, 32, RandomBlobs(7, 32, 10), 4);
         Scene scene = DenseTree.SceneOf(32, 32, 32);
         var cam = new CameraSpec("c", new Vector3(-20, 40, -15), new Vector3(16, 10, 16), Vector3.UnitY, 50);
-        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 40, 30, [Strategy.Grid, .. Fast]));
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 40, 30, [BuiltInStrategies.Grid, .. Fast]));
         var reference = run.Reference!.Hits;
         reference.Count(h => h.Hit).Should().BeGreaterThan(100, "the camera must see geometry for this test to mean anything");
         foreach (StrategyResult r in run.Results)
@@ -103,7 +104,7 @@ public class KernelAgreementTests
         BrickTree tree = DenseTree.Build(48, 48, 48, RandomBlobs(11, 48, 15), 2);
         Scene scene = DenseTree.SceneOf(48, 48, 48);
         var cam = new CameraSpec("c", new Vector3(-10, 60, -30), new Vector3(24, 12, 24), Vector3.UnitY, 60);
-        Strategy[] all = [Strategy.Grid, .. Fast];
+        StrategyDefinition[] all = [BuiltInStrategies.Grid, .. Fast];
         TraceRun one = Tracer.Run(new TraceRequest(scene, tree, cam, 64, 48, all, 4, Threads: 1));
         TraceRun two = Tracer.Run(new TraceRequest(scene, tree, cam, 64, 48, all, 4, Threads: 2));
         for (int s = 0; s < all.Length; s++)
@@ -123,11 +124,11 @@ public class KernelAgreementTests
         BrickTree tree = DenseTree.Build(16, 16, 16, (x, y, z) => y < 8 ? (byte)3 : (byte)0, branching);
         Scene scene = DenseTree.SceneOf(16, 16, 16);
         var cam = new CameraSpec("c", new Vector3(5.5f, 4.25f, 6.5f), new Vector3(9, 4, 6), Vector3.UnitY, 60);
-        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 8, 6, [Strategy.Grid, .. Fast], 2));
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 8, 6, [BuiltInStrategies.Grid, .. Fast], 2));
         foreach (StrategyResult r in run.Results)
         {
             r.Hits.Should().OnlyContain(h => h.Hit && h.T == 0 && h.X == 5 && h.Y == 4 && h.Z == 6 && h.Face == HitFace.None,
-                $"{r.Strategy.Name()} starts inside solid voxel (5,4,6)");
+                $"{r.Strategy.Name} starts inside solid voxel (5,4,6)");
         }
     }
 }

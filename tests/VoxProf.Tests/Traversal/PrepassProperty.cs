@@ -3,6 +3,7 @@ using VoxProf.Core.Geometry;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Scenes.Layers;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -17,7 +18,7 @@ namespace VoxProf.Tests.Traversal;
 /// </summary>
 internal static class PrepassProperty
 {
-    public sealed record Settings(int[] Lengths, int Width, int Height, Strategy[] Strategies, double MaxDistance = 60000);
+    public sealed record Settings(int[] Lengths, int Width, int Height, StrategyDefinition[] Strategies, double MaxDistance = 60000);
 
     public sealed class Tally
     {
@@ -76,7 +77,7 @@ internal static class PrepassProperty
         var cam = new CameraSpec("far", eye, target, up, fov);
         string name = $"seed {seed}: length {length}, fov {fov:F2}°, distance {distance:F0}";
 
-        TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, settings.Width, settings.Height, [Strategy.Grid], 0, 1));
+        TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, settings.Width, settings.Height, [BuiltInStrategies.Grid], 0, 1));
         PixelHit[] reference = plain.Reference!.Hits;
         var camera = new Camera(cam, settings.Width, settings.Height);
         tally.Pixels += reference.Length;
@@ -94,7 +95,7 @@ internal static class PrepassProperty
                 {
                     tally.Checks++;
                     if (!Same(r.Hits[i], reference[i]))
-                        Fail(tally, $"{name}, K {block}, {r.Strategy.Name()} pixel ({x},{y}): {Describe(r.Hits[i])} against grid {Describe(reference[i])}");
+                        Fail(tally, $"{name}, K {block}, {r.Strategy.Name} pixel ({x},{y}): {Describe(r.Hits[i])} against grid {Describe(reference[i])}");
                     tally.Skipped += r.Get(Counter.PrepassSkip)[i];
                 }
             }

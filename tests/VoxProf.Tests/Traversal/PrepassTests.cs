@@ -1,6 +1,7 @@
 using System.Numerics;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Tests.Scenes;
@@ -54,8 +55,8 @@ public class PrepassTests
         int hits = 0;
         foreach (CameraSpec cam in Cameras())
         {
-            TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, StrategyNames.All));
-            TraceRun fast = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, StrategyNames.All, block));
+            TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, BuiltInStrategies.All));
+            TraceRun fast = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, BuiltInStrategies.All, block));
             PrepassMap map = PrepassMap.Compute(tree, new Camera(cam, 160, 90), block, new ParallelOptions());
             PixelHit[] reference = plain.Reference!.Hits;
             for (int y = 0; y < 90; y++)
@@ -68,7 +69,7 @@ public class PrepassTests
                     map.Start(x, y).Should().BeLessThanOrEqualTo(h.T * (1 + 1e-6) + 1e-6, $"{cam.Name} pixel ({x},{y})");
                 }
             for (int s = 0; s < plain.Results.Count; s++)
-                fast.Results[s].Hits.Should().Equal(plain.Results[s].Hits, $"{cam.Name} {plain.Results[s].Strategy.Name()} with prepass {block}");
+                fast.Results[s].Hits.Should().Equal(plain.Results[s].Hits, $"{cam.Name} {plain.Results[s].Strategy.Name} with prepass {block}");
         }
         hits.Should().BeGreaterThan(0, "the adversarial geometry must be seen by some camera");
     }
@@ -88,14 +89,14 @@ public class PrepassTests
         foreach (int branching in new[] { 4, 2 })
         {
             BrickTree tree = TreeBuilder.Build(scene, branching);
-            TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, [Strategy.Grid]));
-            TraceRun pre = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, StrategyNames.All, 2));
+            TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, [BuiltInStrategies.Grid]));
+            TraceRun pre = Tracer.Run(new TraceRequest(scene, tree, scene.Cameras[0], 320, 240, BuiltInStrategies.All, 2));
             PixelHit g = plain.Reference!.Hits[114 * 320 + 163];
             (g.Hit, g.X, g.Y, g.Z).Should().Be((true, 2028, 44, 39), "the grid reference sees the voxel at pixel (163,114)");
             foreach (StrategyResult r in pre.Results)
             {
-                r.Hits.Should().Equal(plain.Reference!.Hits, $"{r.Strategy.Name()} with prepass 2, branching {branching}");
-                if (r.Strategy != Strategy.Grid)
+                r.Hits.Should().Equal(plain.Reference!.Hits, $"{r.Strategy.Name} with prepass 2, branching {branching}");
+                if (r.Strategy != BuiltInStrategies.Grid)
                     r.Get(Counter.PrepassSkip)[114 * 320 + 163].Should().BeGreaterThan(1500u, "the coarse ray skips most of the empty volume before the voxel");
             }
         }
@@ -105,7 +106,7 @@ public class PrepassTests
     public void Fields_of_view_from_1_to_120_degrees_at_distances_up_to_60000_voxels_never_change_a_hit()
     {
         // The short version of the sweep in tests/VoxProf.Sweeps (same property, more and larger cases there).
-        var settings = new PrepassProperty.Settings([256, 1024, 2048], 64, 48, [Strategy.Dda]);
+        var settings = new PrepassProperty.Settings([256, 1024, 2048], 64, 48, [BuiltInStrategies.Dda]);
         var tally = new PrepassProperty.Tally();
         for (int seed = 1; seed <= 32; seed++)
             PrepassProperty.Check(seed, settings, tally);
@@ -120,7 +121,7 @@ public class PrepassTests
         BrickTree tree = DenseTree.Build(Size, Size, Size, (x, y, z) => z >= 60 ? (byte)1 : (byte)0, 4);
         Scene scene = DenseTree.SceneOf(Size, Size, Size);
         var cam = new CameraSpec("wall", new Vector3(32, 32, -100), new Vector3(32, 32, 64), Vector3.UnitY, 20);
-        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 64, 64, [Strategy.Dda], 4));
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 64, 64, [BuiltInStrategies.Dda], 4));
         uint[] skip = run.Results[0].Counters[(int)Counter.PrepassSkip];
         skip.Average(v => (double)v).Should().BeGreaterThan(30, "about 60 voxels of empty space lie in front of the wall");
         uint[] share = run.Results[0].Counters[(int)Counter.PrepassIterations];

@@ -1,5 +1,6 @@
 using System.Numerics;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -36,13 +37,13 @@ public class TieAgreementTests
             {
                 foreach (int prepass in new[] { 0, 2, 4, 8 })
                 {
-                    TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 15, 11, StrategyNames.All, prepass, 1));
+                    TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 15, 11, BuiltInStrategies.All, prepass, 1));
                     hits += run.Reference!.Hits.Count(h => h.Hit);
                     foreach (StrategyResult r in run.Results.Skip(1))
                     {
                         compared += r.Hits.Length;
                         KernelAgreementTests.Mismatches(run, r.Strategy).Should().Be(0,
-                            $"{r.Strategy.Name()} camera {c} eye {cam.Eye} target {cam.Target} branching {tree.Branching} prepass {prepass}");
+                            $"{r.Strategy.Name} camera {c} eye {cam.Eye} target {cam.Target} branching {tree.Branching} prepass {prepass}");
                     }
                 }
             }

@@ -1,5 +1,6 @@
 using System.Numerics;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 
@@ -35,7 +36,7 @@ public class VolumeFaceStartTests
         Scene scene = DenseTree.SceneOf(Size, Size, Size);
         foreach (BrickTree tree in Trees)
             foreach (int prepass in new[] { 0, 2 })
-                yield return Tracer.Run(new TraceRequest(scene, tree, cam, 12, 8, StrategyNames.All, prepass, 1));
+                yield return Tracer.Run(new TraceRequest(scene, tree, cam, 12, 8, BuiltInStrategies.All, prepass, 1));
     }
 
     private static (int X, int Y, int Z) Expected(int axis, int faceVoxel)
@@ -57,7 +58,7 @@ public class VolumeFaceStartTests
         foreach (TraceRun run in Runs(axis, 0f, lookSign))
             foreach (StrategyResult r in run.Results)
                 r.Hits.Should().OnlyContain(h => h.Hit && h.X == x && h.Y == y && h.Z == z && h.T == 0 && h.Face == HitFace.None,
-                    $"{r.Strategy.Name()} (branching {run.Settings.Branching}, prepass {run.Settings.PrepassBlock}) starts inside solid voxel ({x},{y},{z})");
+                    $"{r.Strategy.Name} (branching {run.Settings.Branching}, prepass {run.Settings.PrepassBlock}) starts inside solid voxel ({x},{y},{z})");
     }
 
     [Theory]
@@ -71,11 +72,11 @@ public class VolumeFaceStartTests
         foreach (TraceRun run in Runs(axis, Size, -1f))
             foreach (StrategyResult r in run.Results)
                 r.Hits.Should().OnlyContain(h => h.Hit && h.X == x && h.Y == y && h.Z == z && h.T == 0 && h.Face == face,
-                    $"{r.Strategy.Name()} enters voxel ({x},{y},{z}) through its +{"xyz"[axis]} face");
+                    $"{r.Strategy.Name} enters voxel ({x},{y},{z}) through its +{"xyz"[axis]} face");
         foreach (TraceRun run in Runs(axis, Size, 1f))
             foreach (StrategyResult r in run.Results)
             {
-                r.Hits.Should().OnlyContain(h => !h.Hit, $"{r.Strategy.Name()} moves away from the volume");
+                r.Hits.Should().OnlyContain(h => !h.Hit, $"{r.Strategy.Name} moves away from the volume");
                 r.Get(Counter.Iterations).ToArray().Should().OnlyContain(v => v == 0);
             }
     }

@@ -2,6 +2,7 @@ using System.Text.Json;
 using StbImageSharp;
 using VoxProf.Cli;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Colour;
 using VoxProf.Reports.Export;
@@ -28,8 +29,8 @@ public class CompareWrittenReportsTests : IDisposable
         var b = TestRuns.Small();
         var scene = new Scene(64, 32, 64, [], b.Scene.Cameras, "yard", "/scenes/yard.json", "ee77ff");
         // Rows 0-1 cost 6 more iterations; dda's pixel (2, 0) now hits a voxel the base missed.
-        var grid = TestRuns.Result(Strategy.Grid, 16, 8, (x, y) => (uint)(x + y + 1 + (y < 2 ? 6 : 0)), hitShift: false, elapsedMs: 31);
-        var dda = TestRuns.Result(Strategy.Dda, 16, 8, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2 + (y < 2 ? 6u : 0u), hitShift: true, elapsedMs: 11);
+        var grid = TestRuns.Result(BuiltInStrategies.Grid, 16, 8, (x, y) => (uint)(x + y + 1 + (y < 2 ? 6 : 0)), hitShift: false, elapsedMs: 31);
+        var dda = TestRuns.Result(BuiltInStrategies.Dda, 16, 8, (x, y) => x == 3 && y == 2 ? 40u : (uint)(x + y + 1) / 2 + (y < 2 ? 6u : 0u), hitShift: true, elapsedMs: 11);
         dda.Hits[15] = new PixelHit { Hit = true, X = 15, Y = 10, Z = 60, T = 40 };
         return new TraceRun(scene, b.Camera, b.Settings, b.Tree, [grid, dda]);
     }

@@ -3,6 +3,7 @@ using VoxProf.Cli;
 using VoxProf.Cli.Commands;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Core.Trees;
 using VoxProf.Tests.Reports;
@@ -155,7 +156,7 @@ public sealed class TraceCommandTests : IDisposable
 
         var (code, _, error) = Run($"trace scene.json --camera tower --out {_dir}");
         code.Should().Be(ExitCodes.BadInput);
-        error.Should().Be("voxprof: error: --camera: no camera 'tower' in /scenes/yard.json; cameras: gate\n");
+        error.Should().Be("voxprof: error: --camera: no camera or path 'tower' in /scenes/yard.json; expected one of: gate, a frame such as NAME#000, or all\n");
     }
 
     // The reproducer (looking straight down with the default up) and its relatives: each camera would give
@@ -189,7 +190,7 @@ public sealed class TraceCommandTests : IDisposable
         var (code, _, error) = Run($"trace scene.json --size 16x8 -s grid,dda -c gate -b grid -q -o {_dir}");
 
         code.Should().Be(ExitCodes.Ok, error);
-        _requests.Single().Strategies.Should().Equal(Strategy.Grid, Strategy.Dda);
+        _requests.Single().Strategies.Should().Equal(BuiltInStrategies.Grid, BuiltInStrategies.Dda);
         File.ReadAllText(Path.Combine(_dir, "summary.md")).Should().Contain("| grid (baseline) |");
     }
 

@@ -1,6 +1,7 @@
 using System.Text.Json;
 using System.Text.RegularExpressions;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Html;
@@ -68,13 +69,13 @@ public sealed partial class HtmlReportTests : IDisposable
         {
             StrategyResult r = run.Results[s];
             JsonElement entry = strategies[s];
-            entry.GetProperty("name").GetString().Should().Be(r.Strategy.Name());
+            entry.GetProperty("name").GetString().Should().Be(r.Strategy.Name);
             string blob = entry.GetProperty("blob").GetString()!;
             bool ownHits = entry.GetProperty("hits").GetString() == blob;
             int count = CounterNames.Count + (ownHits ? PixelPack.HitPlanes.Count : 0);
             int[][] planes = PixelPack.Decode(Convert.FromBase64String(Block(html, blob, "application/octet-stream")), count, r.Width * r.Height);
             for (int c = 0; c < CounterNames.Count; c++)
-                planes[c].Select(v => unchecked((uint)v)).Should().Equal(r.Counters[c], $"{r.Strategy.Name()} {CounterNames.All[c].Name()}");
+                planes[c].Select(v => unchecked((uint)v)).Should().Equal(r.Counters[c], $"{r.Strategy.Name} {CounterNames.All[c].Name()}");
             if (!ownHits)
                 continue;
             List<int[]> expected = PixelPack.HitPlaneValues(r.Hits);
@@ -84,7 +85,7 @@ public sealed partial class HtmlReportTests : IDisposable
             {
                 int[] stored = planes[CounterNames.Count + p];
                 int[] value = relative ? stored.Select((d, i) => unchecked(d + first[p][i])).ToArray() : stored;
-                value.Should().Equal(expected[p], $"{r.Strategy.Name()} {PixelPack.HitPlanes[p]}");
+                value.Should().Equal(expected[p], $"{r.Strategy.Name} {PixelPack.HitPlanes[p]}");
             }
         }
     }

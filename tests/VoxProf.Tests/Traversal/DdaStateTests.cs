@@ -3,14 +3,16 @@ using VoxProf.Core.Traversal;
 
 namespace VoxProf.Tests.Traversal;
 
-public class DdaWalkTests
+public class DdaStateTests
 {
+    /// <summary>Walks unit cells of a ray scaled by 1/<paramref name="cell"/>: the same parameters as cells of that size.</summary>
     private static List<(int X, int Y, int Z, double T)> Walk(RaySetup ray, double cell, double tEnd)
     {
-        int x = (int)Math.Floor(ray.Ox / cell), y = (int)Math.Floor(ray.Oy / cell), z = (int)Math.Floor(ray.Oz / cell);
-        var w = DdaWalk.Start(ray, 0, x, y, z, cell);
+        ray = new RaySetup(ray.Ox / cell, ray.Oy / cell, ray.Oz / cell, ray.Dx / cell, ray.Dy / cell, ray.Dz / cell);
+        int x = (int)Math.Floor(ray.Ox), y = (int)Math.Floor(ray.Oy), z = (int)Math.Floor(ray.Oz);
+        var w = DdaState.Start(ray, 0, -1, x, y, z, 0);
         var cells = new List<(int, int, int, double)> { (w.X, w.Y, w.Z, w.T) };
-        while (w.TryStep(tEnd))
+        while (w.TryStep(ray, tEnd))
             cells.Add((w.X, w.Y, w.Z, w.T));
         return cells;
     }

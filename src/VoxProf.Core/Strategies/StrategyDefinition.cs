@@ -1,0 +1,85 @@
+using VoxProf.Core.Memory;
+using VoxProf.Core.Traversal;
+
+namespace VoxProf.Core.Strategies;
+
+/// <summary>
+/// One strategy as the tracer and the reports see it: its name, description and counters, and a way to trace a tile
+/// with the strategy's kernel specialised for the tree's branching and the counter type. Built-in strategies and
+/// strategies from files are definitions of the same kind, made by <see cref="Of{TStrategy}"/>.
+/// </summary>
+public abstract class StrategyDefinition
+{
+    private protected StrategyDefinition(string name, string description, IReadOnlyList<ExtraCounter> extraCounters, bool usesPrepass, string? source)
+    {
+        Name = name;
+        Description = description;
+        ExtraCounters = extraCounters;
+        UsesPrepass = usesPrepass;
+        Source = source;
+        CounterNames = [.. Traversal.CounterNames.All.Select(c => c.Name()), .. extraCounters.Select(c => c.Name)];
+    }
+
+    public string Name { get; }
+    public string Description { get; }
+
+    /// <summary>The strategy's own counters, after the built-in ones in <see cref="CounterNames"/>.</summary>
+    public IReadOnlyList<ExtraCounter> ExtraCounters { get; }
+
+    /// <summary>Whether rays start where the coarse prepass lets them.</summary>
+    public bool UsesPrepass { get; }
+
+    /// <summary>The file the strategy came from, or null for a built-in one.</summary>
+    public string? Source { get; }
+
+    /// <summary>Every counter of this strategy in buffer order: the built-in counters, then its own.</summary>
+    public IReadOnlyList<string> CounterNames { get; }
+
+    /// <summary>The definition of strategy type <typeparamref name="TStrategy"/>.</summary>
+    public static StrategyDefinition Of<TStrategy>(string? source = null) where TStrategy : struct, IStrategy =>
+        new StrategyDefinition<TStrategy>(source);
+
+    /// <summary>The definition of a strategy type only known at run time (a strategy file's); checked as <see cref="Of{TStrategy}"/>.</summary>
+    public static StrategyDefinition Of(Type strategyType, string? source)
+    {
+        if (!strategyType.IsValueType || !typeof(IStrategy).IsAssignableFrom(strategyType) || strategyType.ContainsGenericParameters)
+            throw new ArgumentException($"{strategyType.FullName} is not a non-generic struct implementing {nameof(IStrategy)}", nameof(strategyType));
+        var type = typeof(StrategyDefinition<>).MakeGenericType(strategyType);
+        return (StrategyDefinition)Activator.CreateInstance(type, source)!;
+    }
+
+    /// <summary>Traces the pixels [x0, x1) × [y0, y1) into the result buffers.</summary>
+    internal abstract void TraceTile(in TileJob job, int x0, int y0, int x1, int y1);
+
+    public override string ToString() => Name;
+}
+
+/// <summary>A strategy type's definition: one tile loop specialised by the JIT per branching and counter type.</summary>
+internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where TStrategy : struct, IStrategy
+{
+    public StrategyDefinition(string? source)
+        : base(TStrategy.Name, TStrategy.Description, StrategyNameRules.CheckCounters(TStrategy.Name, TStrategy.ExtraCounters), TStrategy.UsesPrepass, source)
+    {
+        StrategyNameRules.ThrowIfInvalid(TStrategy.Name, source);
+    }
+
+    internal override void TraceTile(in TileJob job, int x0, int y0, int x1, int y1)
+    {
+        // Choose the specialisation once per tile: inside it, branching and counting are compile-time constants.
+        bool extras = ExtraCounters.Count > 0;
+        if (job.View.N == 4)
+        {
+            if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching4, NoCounters>(job, x0, y0, x1, y1);
+            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching4, MemoryCounts>(job, x0, y0, x1, y1);
+            else if (extras) Tracer.TraceTile<TStrategy, Branching4, CostCountsWithExtras>(job, x0, y0, x1, y1);
+            else Tracer.TraceTile<TStrategy, Branching4, CostCounts>(job, x0, y0, x1, y1);
+        }
+        else
+        {
+            if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching2, NoCounters>(job, x0, y0, x1, y1);
+            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching2, MemoryCounts>(job, x0, y0, x1, y1);
+            else if (extras) Tracer.TraceTile<TStrategy, Branching2, CostCountsWithExtras>(job, x0, y0, x1, y1);
+            else Tracer.TraceTile<TStrategy, Branching2, CostCounts>(job, x0, y0, x1, y1);
+        }
+    }
+}

@@ -1,0 +1,173 @@
+using System.Runtime.CompilerServices;
+using VoxProf.Core.Rays;
+
+namespace VoxProf.Core.Traversal;
+
+/// <summary>
+/// Amanatides &amp; Woo (1987) 3D DDA over the cells of one level of the tree (cells of size 2^<see cref="Shift"/>),
+/// the one DDA state every kernel steps with. Cell coordinates are global at that level (voxel coordinate ≫ Shift), so
+/// the same state serves a flat grid (Shift 0), a walk that restarts per node and a hierarchical DDA that changes level
+/// in place (<see cref="Descend{TBranching}"/>, <see cref="Coarsen{TBranching}"/>).
+/// Tie rule at exact edges and corners: the lowest axis steps first (x, then y, then z). Each next-plane time is
+/// computed in closed form from the plane's coordinate (<see cref="CrossingOrder.Time"/>), never accumulated, so it is
+/// the same double every kernel computes for that plane and every kernel orders the crossings identically
+/// (docs/strategies.md, "The crossing order"). A parallel axis (zero component) has its next-plane time fixed at +∞,
+/// so it never steps and never forms 0·∞.
+/// </summary>
+public struct DdaState
+{
+    /// <summary>Cell coordinates at the current level.</summary>
+    public int X, Y, Z;
+    /// <summary>Log2 of the current cell size in voxels.</summary>
+    public int Shift;
+    /// <summary>Parameter of the walk's latest crossing: where it entered the current cell.</summary>
+    public double T;
+    /// <summary>Axis of the latest crossing, or -1 (none: the walk's key is (T, LastAxis)).</summary>
+    public int LastAxis;
+    /// <summary>Time at which the ray crosses the next plane on each axis.</summary>
+    public double TMaxX, TMaxY, TMaxZ;
+    /// <summary>Coordinate of the next plane on each axis: an exact integer multiple of the cell size.</summary>
+    public double PlaneX, PlaneY, PlaneZ;
+    /// <summary>Signed cell size: what a step adds to the plane coordinate.</summary>
+    public double PlaneStepX, PlaneStepY, PlaneStepZ;
+
+    /// <summary>Starts in cell (x, y, z) of size 2^<paramref name="shift"/> at key (<paramref name="t"/>, <paramref name="lastAxis"/>).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static DdaState Start(in RaySetup ray, double t, int lastAxis, int x, int y, int z, int shift)
+    {
+        var dda = new DdaState { X = x, Y = y, Z = z, Shift = shift, T = t, LastAxis = lastAxis };
+        dda.Restart(ray);
+        return dda;
+    }
+
+    /// <summary>Sets the next planes and their times from the current cell: the DDA's only set-up.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void Restart(in RaySetup ray)
+    {
+        int s = Shift;
+        PlaneX = (X + (ray.StepX > 0 ? 1 : 0)) << s;
+        PlaneY = (Y + (ray.StepY > 0 ? 1 : 0)) << s;
+        PlaneZ = (Z + (ray.StepZ > 0 ? 1 : 0)) << s;
+        SetPlaneSteps(ray);
+        TMaxX = ray.ParallelX ? double.PositiveInfinity : CrossingOrder.Time(PlaneX, ray.Ox, ray.Ix);
+        TMaxY = ray.ParallelY ? double.PositiveInfinity : CrossingOrder.Time(PlaneY, ray.Oy, ray.Iy);
+        TMaxZ = ray.ParallelZ ? double.PositiveInfinity : CrossingOrder.Time(PlaneZ, ray.Oz, ray.Iz);
+    }
+
+    /// <summary>Advances to the next cell along the smallest t; false (and no change) when that cell starts after <paramref name="tEnd"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool TryStep(in RaySetup ray, double tEnd) => TryStep<Branching2>(ray, tEnd, out _);
+
+    /// <summary>
+    /// As <see cref="TryStep(in RaySetup, double)"/>, and tells whether the step left the node that held the cell
+    /// (<see cref="LeftNode{TBranching}"/>), worked out in the branch that knows the axis.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool TryStep<TBranching>(in RaySetup ray, double tEnd, out bool leftNode) where TBranching : struct, IBranching
+    {
+        // One comparison chain, then the next plane's time in closed form; the cell moves in the same branch.
+        // A parallel axis keeps +∞ and is never chosen: some axis is not parallel, and its time is finite.
+        int last = NodeCells<TBranching>.Last;
+        if (TMaxX <= TMaxY && TMaxX <= TMaxZ)
+        {
+            leftNode = false;
+            if (TMaxX > tEnd) return false;
+            T = TMaxX; X += ray.StepX; LastAxis = 0;
+            PlaneX += PlaneStepX;
+            TMaxX = CrossingOrder.Time(PlaneX, ray.Ox, ray.Ix);
+            leftNode = (X & last) == (ray.StepX > 0 ? 0 : last);
+        }
+        else if (TMaxY <= TMaxZ)
+        {
+            leftNode = false;
+            if (TMaxY > tEnd) return false;
+            T = TMaxY; Y += ray.StepY; LastAxis = 1;
+            PlaneY += PlaneStepY;
+            TMaxY = CrossingOrder.Time(PlaneY, ray.Oy, ray.Iy);
+            leftNode = (Y & last) == (ray.StepY > 0 ? 0 : last);
+        }
+        else
+        {
+            leftNode = false;
+            if (TMaxZ > tEnd) return false;
+            T = TMaxZ; Z += ray.StepZ; LastAxis = 2;
+            PlaneZ += PlaneStepZ;
+            TMaxZ = CrossingOrder.Time(PlaneZ, ray.Oz, ray.Iz);
+            leftNode = (Z & last) == (ray.StepZ > 0 ? 0 : last);
+        }
+        return true;
+    }
+
+    /// <summary>Moves the cell one step along <paramref name="axis"/> in the ray's direction, leaving times alone.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void MoveCell(in RaySetup ray, int axis)
+    {
+        if (axis == 0) X += ray.StepX;
+        else if (axis == 1) Y += ray.StepY;
+        else Z += ray.StepZ;
+    }
+
+    /// <summary>
+    /// Whether the latest move along <see cref="LastAxis"/> took the cell out of the node that held it: the new cell's
+    /// coordinate on that axis is the first one a ray moving that way meets in a node.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public readonly bool LeftNode<TBranching>(in RaySetup ray) where TBranching : struct, IBranching
+    {
+        int last = NodeCells<TBranching>.Last;
+        return LastAxis switch
+        {
+            0 => (X & last) == (ray.StepX > 0 ? 0 : last),
+            1 => (Y & last) == (ray.StepY > 0 ? 0 : last),
+            _ => (Z & last) == (ray.StepZ > 0 ? 0 : last),
+        };
+    }
+
+    /// <summary>Bit of the current cell within its node.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public readonly int CellBit<TBranching>() where TBranching : struct, IBranching => NodeCells<TBranching>.BitOf(X, Y, Z);
+
+    /// <summary>
+    /// Goes one level down into the current cell: the child cell is the one the walk is in at its key (T, LastAxis) by
+    /// the crossing order, with its next planes and their times; T is kept.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void Descend<TBranching>(in RaySetup ray) where TBranching : struct, IBranching
+    {
+        int lx = X << Shift, ly = Y << Shift, lz = Z << Shift;
+        int shift = Shift - TBranching.Log2N;
+        int n = NodeCells<TBranching>.N;
+        Shift = shift;
+        X = (lx >> shift) + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, T, LastAxis, lx, n, shift, out PlaneX, out TMaxX);
+        Y = (ly >> shift) + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, T, LastAxis, ly, n, shift, out PlaneY, out TMaxY);
+        Z = (lz >> shift) + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, T, LastAxis, lz, n, shift, out PlaneZ, out TMaxZ);
+        SetPlaneSteps(ray);
+    }
+
+    /// <summary>
+    /// Goes one level up: the coordinates shift to the parent level, which already names the coarse cell holding the
+    /// current one. Plane times are left alone; call <see cref="Restart"/> before stepping at the new level.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void Coarsen<TBranching>() where TBranching : struct, IBranching
+    {
+        X >>= TBranching.Log2N;
+        Y >>= TBranching.Log2N;
+        Z >>= TBranching.Log2N;
+        Shift += TBranching.Log2N;
+    }
+
+    /// <summary>Records a hit on the current (solid) cell: the hit voxel is the one the walk is in at its key.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public readonly void SetHit(ref PixelHit hit, in RaySetup ray, byte material) =>
+        RayStart.SetHit(ref hit, ray, X << Shift, Y << Shift, Z << Shift, Shift, T, LastAxis, material);
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private void SetPlaneSteps(in RaySetup ray)
+    {
+        double size = 1 << Shift;
+        PlaneStepX = ray.StepX * size;
+        PlaneStepY = ray.StepY * size;
+        PlaneStepZ = ray.StepZ * size;
+    }
+}

@@ -1,0 +1,76 @@
+using VoxProf.Core.Rays;
+using VoxProf.Core.Strategies;
+using VoxProf.Core.Trees;
+
+namespace VoxProf.Core.Traversal;
+
+/// <summary>
+/// Hierarchical DDA after Museth (2014), "Hierarchical digital differential analyzer for efficient ray-marching in
+/// OpenVDB": one DDA state (cell coordinates at the current level, next-plane times) that changes level in place.
+/// Descending refines the cell from the current point; ascending coarsens the coordinates by a shift, which already
+/// names the neighbouring coarse cell. No slab test after the volume clip, and no DDA state is saved per level: only
+/// the node records on the path, which a kernel keeps anyway.
+/// </summary>
+public struct HddaStrategy : IStrategy
+{
+    public static string Name => "hdda";
+    public static string Description => "Museth's hierarchical DDA: one DDA state that changes level";
+
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<Node> path, ref PixelHit hit)
+        where TBranching : struct, IBranching
+        where TCounters : struct, ICostCounters
+    {
+        // Count in a local the JIT can keep in registers; the tracer flushes it once per ray.
+        TCounters counters = default;
+        if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
+            return counters;
+        double tExit = start.TExit;
+
+        // One DDA state at the root's level, and the root's record
+        Node node = view.Fetch(0, ref counters);
+        int depth = 0;
+        int rootShift = view.RootShift;
+        var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
+
+        while (true)
+        {
+            counters.Iteration();
+            int bit = dda.CellBit<TBranching>();
+            ulong b = 1UL << bit;
+            if ((node.Occupancy & b) != 0)
+            {
+                if ((node.SolidMask & b) != 0)
+                {
+                    dda.SetHit(ref hit, ray, view.SolidMaterial(node, bit));
+                    return counters;
+                }
+
+                // Descend: refine the cell by the crossing order at the walk's key, keep t
+                path[depth++] = node;
+                node = view.Fetch(TreeView.ChildIndex(node, bit), ref counters);
+                counters.Descent();
+                dda.Descend<TBranching>(ray);
+                continue;
+            }
+
+            // Advance to the next cell at this level along the smallest t
+            if (!dda.TryStep<TBranching>(ray, tExit, out bool leftNode))
+                return counters;
+            counters.CellStep();
+            if (!leftNode)
+                continue;
+
+            // Ascend while the new cell lies outside the current node: a shift names the neighbouring coarse cell
+            do
+            {
+                if (depth == 0)
+                    return counters;
+                node = path[--depth];
+                counters.Ascent();
+                dda.Coarsen<TBranching>();
+            }
+            while (dda.LeftNode<TBranching>(ray));
+            dda.Restart(ray);
+        }
+    }
+}
