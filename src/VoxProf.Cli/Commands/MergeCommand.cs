@@ -2,6 +2,7 @@ using System.CommandLine;
 using System.Globalization;
 using VoxProf.Core;
 using VoxProf.Reports.Export;
+using VoxProf.Reports.Shards;
 using VoxProf.Reports.Views;
 
 namespace VoxProf.Cli.Commands;
@@ -16,7 +17,7 @@ public static class MergeCommand
 
     public static Command Create(TextWriter output, TextWriter error)
     {
-        var shards = new Argument<string[]>("shards") { Description = "The folders written by `voxprof trace --shard I/N`, one per shard, in any order.", Arity = ArgumentArity.OneOrMore };
+        var shards = new Argument<string[]>("shards") { Description = "The folders written by `voxprof trace --shard I/N`, one per shard, in any order (shards of views, or of one view's tiles).", Arity = ArgumentArity.OneOrMore };
         var outOpt = new Option<string>("--out", "-o") { Description = "Folder for the merged run.", DefaultValueFactory = _ => DefaultOut };
         var quiet = new Option<bool>("--quiet", "-q") { Description = "Print only the line naming the folder written." };
         var cmd = new Command("merge", "Combine the shards of a trace into the report the whole run would have written.") { shards, outOpt, quiet };
@@ -33,6 +34,8 @@ public static class MergeCommand
                     if (string.Equals(Path.TrimEndingDirectorySeparator(Path.GetFullPath(f)), outFull, StringComparison.Ordinal))
                         throw new InputException($"--out: {outDir} is also a shard folder; expected a folder of its own for the merged run");
                 }
+                if (folders.Any(TileShard.IsTileShard))
+                    return MergeTiles.Run(folders, outDir, parse.GetValue(quiet), output, error);
                 var read = folders.Select(RunMerge.Read).ToArray();
                 RunMerge.Check(read);
                 using OutputDirectory folder = OutputDirectory.Open(outDir);

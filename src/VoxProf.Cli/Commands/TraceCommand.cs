@@ -11,6 +11,7 @@ using VoxProf.Core.Trees;
 using VoxProf.Reports.Calibration;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Images;
+using VoxProf.Reports.Shards;
 using VoxProf.Reports.Tables;
 using VoxProf.Reports.Views;
 
@@ -41,7 +42,7 @@ public static class TraceCommand
     {
         var scene = new Argument<string>("scene") { Description = "Scene file (JSON)." };
         var camera = new Option<string?>("--camera", "-c") { Description = "Cameras, camera paths or frames (walk#007) of the scene, comma-separated, or all (default: the first the scene lists)." };
-        var shard = new Option<string?>("--shard") { Description = "Trace share I of N of the views (I/N, e.g. 2/4); `voxprof merge` combines the shards." };
+        var shard = new Option<string?>("--shard") { Description = "Trace share I of N of the views, or of one view's image tiles (I/N, e.g. 2/4); `voxprof merge` combines the shards." };
         var eye = new Option<string?>("--eye") { Description = "Custom camera position X,Y,Z in voxels (with --target)." };
         var target = new Option<string?>("--target") { Description = "Point the custom camera looks at, X,Y,Z." };
         var up = new Option<string?>("--up") { Description = "Camera up direction X,Y,Z (default 0,1,0)." };
@@ -131,14 +132,19 @@ public static class TraceCommand
                 // Scene, camera, estimates, output directory (proved writable before the trace), tree, trace.
                 Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
                 IReadOnlyList<CameraSpec> views = view.ResolveAll(loaded);
-                bool severalViews = shardChoice is not null || views.Count > 1 || view.NamesSeveral;
+                // --shard of a single view splits its image's tiles instead of the views (docs/reports.md).
+                bool tileShard = shardChoice is not null && views.Count == 1 && !view.NamesSeveral;
+                bool severalViews = !tileShard && (shardChoice is not null || views.Count > 1 || view.NamesSeveral);
+                if (tileShard && parse.GetValue(noPixels))
+                    throw new InputException("--shard: a shard of one view's tiles is its pixel data, which --no-pixels turns off; trace the shard without --no-pixels");
                 MemoryLimit available = (pipeline.AvailableMemory ?? MemoryLimit.Probe)();
                 foreach (CameraSpec v in views)
                     RunChecks.BeforeTrace(loaded, v, branch, width, height, strategies, heatmaps, maxWork, available);
                 CameraSpec cam = views[0];
+                string shardSuffix = shardChoice is { } sh ? $"-shard{sh.Index}of{sh.Count}" : "";
                 string dir = outOption ?? Path.Combine("voxprof-out", severalViews
-                    ? $"{SafeName(loaded.Name)}-{SafeName(view.Name ?? cam.Name.Split('#')[0])}{(shardChoice is { } sh ? $"-shard{sh.Index}of{sh.Count}" : "")}"
-                    : $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}");
+                    ? $"{SafeName(loaded.Name)}-{SafeName(view.Name ?? cam.Name.Split('#')[0])}{shardSuffix}"
+                    : $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}{shardSuffix}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
                 var options = new ReportOptions
@@ -153,22 +159,33 @@ public static class TraceCommand
                     Html = !parse.GetValue(noHtml),
                     LinkBase = links,
                     Threads = threadCount == 0 ? Environment.ProcessorCount : threadCount,
-                    CommandLine = parse.Tokens.Select(t => t.Value).ToArray(),
+                    CommandLine = TraceViews.RecordedCommand(parse.Tokens.Select(t => t.Value).ToArray()),
                     Calibration = calibrated,
                 };
                 if (severalViews)
                 {
-                    options = options with { CommandLine = TraceViews.RecordedCommand(options.CommandLine) };
                     var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, memory, options);
                     ReportResultSummary written = TraceViews.Run(request, folder, pipeline, error, showProgress);
                     return Finish(output, error, options, written.Document.Views.Count, written.Files, written.Directory, written.Failures,
                         () => RunConsole.Write(output, written.Document));
                 }
                 var progress = showProgress ? new TraceProgress(error, height, strategies.Select(x => x.Name).ToArray()) : null;
+                TileShare? tiles = tileShard ? new TileShare(shardChoice!.Index, shardChoice.Count) : null;
                 ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
-                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory);
+                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory, Tiles: tiles);
                 TraceRun run = pipeline.Trace(traceRequest, progress);
+                if (tiles is not null)
+                {
+                    progress?.Finish();
+                    TileShard.Write(folder, run, options, tiles);
+                    int written = folder.Written.Count;
+                    folder.Commit();
+                    output.WriteLine($"shard {tiles.Index.ToString(CultureInfo.InvariantCulture)} of {tiles.Count.ToString(CultureInfo.InvariantCulture)} of {cam.Name}: "
+                        + $"{tiles.Tiles(width, height).Length.ToString(CultureInfo.InvariantCulture)} of {(Tracer.TilesX(width) * Tracer.TilesY(height)).ToString(CultureInfo.InvariantCulture)} tiles; "
+                        + $"wrote {written.ToString(CultureInfo.InvariantCulture)} files to {folder.FullPath} (`voxprof merge` makes the view's report)");
+                    return ExitCodes.Ok;
+                }
                 ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
                 progress?.Finish();
                 return Finish(output, error, options, 1, result.Files.Count, result.Directory, result.Failures,

@@ -12,7 +12,8 @@ namespace VoxProf.Core.Traversal;
 /// What to trace. <see cref="PrepassBlock"/> is 0 (off), 2, 4 or 8; <see cref="Threads"/> 0 means every processor.
 /// <see cref="CountWork"/> false runs the kernels with counting compiled out (for timing; counters stay zero).
 /// <see cref="Memory"/> turns the memory model on (docs/counters.md, "Memory traffic"); null leaves it off, and it
-/// never runs without counting.
+/// never runs without counting. <see cref="Tiles"/> traces only that share of the image's tiles (the rest of every
+/// buffer stays zero); null traces them all.
 /// </summary>
 public sealed record TraceRequest(
     Scene Scene,
@@ -24,13 +25,28 @@ public sealed record TraceRequest(
     int PrepassBlock = 0,
     int Threads = 0,
     bool CountWork = true,
-    MemorySettings? Memory = null);
+    MemorySettings? Memory = null,
+    TileShare? Tiles = null);
 
 /// <summary>Runs every requested strategy over the same rays, in parallel over image tiles.</summary>
 public static class Tracer
 {
     /// <summary>Tile side in pixels: small enough to balance two cores, large enough to keep scheduling cheap.</summary>
     public const int TileSize = 16;
+
+    /// <summary>Tile columns of an image <paramref name="width"/> pixels wide.</summary>
+    public static int TilesX(int width) => (width + TileSize - 1) / TileSize;
+
+    /// <summary>Tile rows of an image <paramref name="height"/> pixels high.</summary>
+    public static int TilesY(int height) => (height + TileSize - 1) / TileSize;
+
+    /// <summary>The pixels [x0, x1) × [y0, y1) of tile <paramref name="tile"/> (row-major over the tile grid).</summary>
+    public static (int X0, int Y0, int X1, int Y1) TileBounds(int tile, int width, int height)
+    {
+        int tilesX = TilesX(width);
+        int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
+        return (x0, y0, Math.Min(width, x0 + TileSize), Math.Min(height, y0 + TileSize));
+    }
 
     /// <param name="rowsDone">Reports image rows finished so far, summed over strategies (0 .. Height × Strategies.Count);
     /// called from worker threads.</param>
@@ -61,6 +77,13 @@ public static class Tracer
         ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Select(d => d.CounterNames.Count).ToArray(),
             request.Width * request.Height, options);
         long pixelsDone = 0;
+        int[] tiles = (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
+        long heldPixels = 0;
+        foreach (int t in tiles)
+        {
+            var (x0, y0, x1, y1) = TileBounds(t, request.Width, request.Height);
+            heldPixels += (long)(x1 - x0) * (y1 - y0);
+        }
         for (int s = 0; s < request.Strategies.Count; s++)
         {
             StrategyDefinition definition = request.Strategies[s];
@@ -68,14 +91,12 @@ public static class Tracer
             var sw = Stopwatch.StartNew();
             PrepassMap? map = definition.UsesPrepass ? prepass : null;
 
-            int tilesX = (request.Width + TileSize - 1) / TileSize, tilesY = (request.Height + TileSize - 1) / TileSize;
             long before = pixelsDone;
             FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, request.Width, request.Height) : null;
             var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
-            Parallel.For(0, tilesX * tilesY, options, tile =>
+            Parallel.For(0, tiles.Length, options, i =>
             {
-                int x0 = tile % tilesX * TileSize, y0 = tile / tilesX * TileSize;
-                int x1 = Math.Min(request.Width, x0 + TileSize), y1 = Math.Min(request.Height, y0 + TileSize);
+                var (x0, y0, x1, y1) = TileBounds(tiles[i], request.Width, request.Height);
                 if (memory is not null)
                 {
                     // The memory model: the same kernels, with a counter that also records each node read.
@@ -90,7 +111,7 @@ public static class Tracer
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
-            pixelsDone = before + (long)request.Width * request.Height;
+            pixelsDone = before + heldPixels;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
             results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });

@@ -52,6 +52,18 @@ public sealed record ReportManifest(string Tool, string Version, string RunId, I
     }
 
     /// <summary>
+    /// The manifest of <paramref name="folder"/> and its file <paramref name="name"/>'s bytes, checked against it;
+    /// <paramref name="expected"/> says in the error what the folder should have been when it has no manifest.
+    /// </summary>
+    public static (ReportManifest Manifest, byte[] Bytes) ReadListed(string folder, string name, string expected)
+    {
+        ReportManifest manifest = Read(folder) ?? throw new InputException($"{folder}: has no {FileName}; expected {expected}");
+        byte[] bytes = File.ReadAllBytes(Path.Combine(folder, name));
+        manifest.Verify(folder, name, bytes);
+        return (manifest, bytes);
+    }
+
+    /// <summary>
     /// Throws an <see cref="InputException"/> unless <paramref name="bytes"/> are the content the manifest lists for
     /// <paramref name="name"/> (a file it does not list, or one whose length or hash differs, is from another run).
     /// </summary>

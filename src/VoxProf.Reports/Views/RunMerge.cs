@@ -29,10 +29,7 @@ public static class RunMerge
             throw new InputException($"{folder}: not found; expected a folder written by `voxprof trace --shard I/N`");
         if (!File.Exists(file))
             throw new InputException($"{file}: not found; expected a folder written by `voxprof trace --shard I/N`");
-        ReportManifest manifest = ReportManifest.Read(folder)
-            ?? throw new InputException($"{folder}: has no {ReportManifest.FileName}; expected a folder written whole by `voxprof trace --shard I/N`");
-        byte[] bytes = File.ReadAllBytes(file);
-        manifest.Verify(folder, OutputNames.ReportJson, bytes);
+        var (manifest, bytes) = ReportManifest.ReadListed(folder, OutputNames.ReportJson, "a folder written whole by `voxprof trace --shard I/N`");
         RunDocument? run;
         try
         {

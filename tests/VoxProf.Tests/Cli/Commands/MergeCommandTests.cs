@@ -6,7 +6,7 @@ namespace VoxProf.Tests.Cli.Commands;
 /// <summary>A run of several views traced whole, traced in shards and merged: the same folder but for timings.</summary>
 public sealed class MergeCommandTests : IDisposable
 {
-    private const string Layers =
+    internal const string Layers =
         "{'kind': 'box', 'material': 1, 'min': [0, 0, 0], 'max': [64, 6, 64]}," +
         "{'kind': 'sphere', 'material': 2, 'center': [30, 12, 34], 'radius': 9}," +
         "{'kind': 'box', 'material': 3, 'min': [44, 6, 10], 'max': [52, 20, 18]}";

@@ -206,7 +206,7 @@ public sealed class TraceCommandTests : IDisposable
         json.Should().Contain("\"pixelData\": false");
         using var doc = System.Text.Json.JsonDocument.Parse(json);
         doc.RootElement.GetProperty("commandLine").EnumerateArray().Select(e => e.GetString()).Should()
-            .Equal("trace", "scene.json", "--size", "16x8", "--strategy", "grid", "--no-pixels", "--no-html", "--out", _dir);
+            .Equal("trace", "scene.json", "--size", "16x8", "--strategy", "grid", "--no-pixels", "--no-html");
     }
 
     [Fact]

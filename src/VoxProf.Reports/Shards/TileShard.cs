@@ -1,0 +1,191 @@
+using System.Text.Json;
+using VoxProf.Core;
+using VoxProf.Core.Memory;
+using VoxProf.Core.Strategies;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Model;
+using VoxProf.Reports.Pixels;
+
+namespace VoxProf.Reports.Shards;
+
+/// <summary>One strategy's share of the memory model: totals and per-group lines of the shard's tiles (zero elsewhere).</summary>
+public sealed record TileShardMemory(long Accesses, long Hits, IReadOnlyList<uint[]> GroupLines);
+
+/// <summary>One strategy as a tile shard traced it.</summary>
+public sealed record TileShardStrategy(string Name, double Seconds, TileShardMemory? Memory);
+
+/// <summary>tile-shard.json: what a tile shard traced, so merge can check the shards belong together.</summary>
+public sealed record TileShardDocument(
+    string Kind, int SchemaVersion, string ToolVersion, string ToolCommit, string Scene, string? SceneSha256, string View,
+    int Width, int Height, IReadOnlyList<string> CommandLine, int Index, int Count, IReadOnlyList<TileShardStrategy> Strategies)
+{
+    public const string FileName = "tile-shard.json";
+    public const string ShardKind = "tile-shard";
+    public const int CurrentSchema = 1;
+}
+
+/// <summary>
+/// A tile shard of one view (docs/reports.md, "Shards of one view's tiles"): the per-pixel data of its tiles, written
+/// by trace, and read back by merge, which lays the shards' tiles side by side into the trace of the whole image.
+/// </summary>
+public static class TileShard
+{
+    /// <summary>Writes the shard's pixel files and tile-shard.json into <paramref name="output"/>; the caller commits.</summary>
+    public static void Write(OutputDirectory output, TraceRun run, ReportOptions options, TileShare share)
+    {
+        foreach (StrategyResult r in run.Results)
+            output.Write(OutputNames.PixelData(r.Strategy.Name), s => PixelDataFile.Write(PixelData.From(r), s));
+        var strategies = run.Results.Select(r => new TileShardStrategy(r.Strategy.Name, r.Elapsed.TotalSeconds,
+            r.Memory is { } m ? new TileShardMemory(m.Accesses, m.Hits, m.Groups.Select(g => g.Lines).ToArray()) : null)).ToArray();
+        var doc = new TileShardDocument(TileShardDocument.ShardKind, TileShardDocument.CurrentSchema, options.ToolVersion, options.ToolCommit,
+            run.Scene.Name, run.Scene.ContentHash, run.Camera.Name, run.Settings.Width, run.Settings.Height, options.CommandLine,
+            share.Index, share.Count, strategies);
+        output.Write(TileShardDocument.FileName, s => JsonSerializer.Serialize(s, doc, ReportJson.Options));
+    }
+
+    /// <summary>Whether <paramref name="folder"/> holds a tile shard rather than a shard of views.</summary>
+    public static bool IsTileShard(string folder) => File.Exists(Path.Combine(folder, TileShardDocument.FileName));
+
+    /// <summary>Reads a tile shard's tile-shard.json, checked against its manifest.</summary>
+    public static TileShardFolder Read(string folder)
+    {
+        string file = Path.Combine(folder, TileShardDocument.FileName);
+        var (manifest, bytes) = ReportManifest.ReadListed(folder, TileShardDocument.FileName, "a folder written whole by `voxprof trace --shard I/N`");
+        TileShardDocument? doc;
+        try
+        {
+            doc = JsonSerializer.Deserialize<TileShardDocument>(JsonText.WithoutBom(bytes).Span, ReportJson.Options);
+        }
+        catch (JsonException ex)
+        {
+            throw new InputException($"{file}: {Compare.ReportLoader.Where(ex)}: {Compare.ReportLoader.Problem(ex)}", ex);
+        }
+        if (doc is null || doc.Kind != TileShardDocument.ShardKind || doc.SchemaVersion != TileShardDocument.CurrentSchema)
+            throw new InputException($"{file}: expected a tile shard of schema {TileShardDocument.CurrentSchema}; merge shards with the voxprof that traced them");
+        return new TileShardFolder(folder, doc, manifest);
+    }
+
+    /// <summary>Refuses tile shards that are not the N distinct shares of one view traced alike; returns them by index.</summary>
+    public static IReadOnlyList<TileShardFolder> Check(IReadOnlyList<TileShardFolder> shards, string toolVersion, string toolCommit)
+    {
+        TileShardFolder first = shards[0];
+        TileShardDocument a = first.Document;
+        if (a.ToolVersion != toolVersion || a.ToolCommit != toolCommit)
+            throw new InputException($"{first.Folder}: traced by voxprof {a.ToolVersion} commit {a.ToolCommit}, this is {toolVersion} commit {toolCommit}; merge tile shards with the voxprof that traced them");
+        foreach (TileShardFolder s in shards.Skip(1))
+        {
+            TileShardDocument b = s.Document;
+            string Pair(string what, string x, string y) =>
+                $"{s.Folder}: {what} differs from {first.Folder}'s ({y} against {x}); expected shards of one run";
+            if (a.Scene != b.Scene || !string.Equals(a.SceneSha256, b.SceneSha256, StringComparison.OrdinalIgnoreCase))
+                throw new InputException(Pair("the scene", $"{a.Scene} sha256 {a.SceneSha256}", $"{b.Scene} sha256 {b.SceneSha256}"));
+            if (a.ToolVersion != b.ToolVersion || a.ToolCommit != b.ToolCommit)
+                throw new InputException(Pair("the voxprof build", $"{a.ToolVersion} commit {a.ToolCommit}", $"{b.ToolVersion} commit {b.ToolCommit}"));
+            if (!a.CommandLine.SequenceEqual(b.CommandLine))
+                throw new InputException(Pair("the trace options", string.Join(" ", a.CommandLine), string.Join(" ", b.CommandLine)));
+            if (a.Count != b.Count)
+                throw new InputException(Pair("the number of shards", a.Count.ToString(System.Globalization.CultureInfo.InvariantCulture), b.Count.ToString(System.Globalization.CultureInfo.InvariantCulture)));
+        }
+        var byIndex = new TileShardFolder?[a.Count];
+        foreach (TileShardFolder s in shards)
+        {
+            if (s.Document.Index < 1 || s.Document.Index > a.Count)
+                throw new InputException($"{Path.Combine(s.Folder, TileShardDocument.FileName)}: $.index: {s.Document.Index} is out of range, expected 1..{a.Count}");
+            if (byIndex[s.Document.Index - 1] is { } twice)
+                throw new InputException($"{s.Folder}: shard {s.Document.Index} of {a.Count} is given twice (also {twice.Folder})");
+            byIndex[s.Document.Index - 1] = s;
+        }
+        var missing = Enumerable.Range(1, a.Count).Where(i => byIndex[i - 1] is null).ToArray();
+        if (missing.Length > 0)
+            throw new InputException($"merge: shard{(missing.Length == 1 ? "" : "s")} {string.Join(", ", missing)} of {a.Count} missing; expected all {a.Count} shard folders");
+        return byIndex!;
+    }
+
+    /// <summary>
+    /// The results of <paramref name="request"/>, laid together from the shards' tiles instead of traced: each tile's
+    /// pixels from the shard that traced it, the memory model's totals and group lines summed (each group lies in
+    /// one tile, so the other shards hold zeros there), the times summed.
+    /// </summary>
+    public static IReadOnlyList<StrategyResult> Assemble(IReadOnlyList<TileShardFolder> shards, TraceRequest request)
+    {
+        TileShardDocument a = shards[0].Document;
+        if (request.Scene.ContentHash is { } hash && !string.Equals(hash, a.SceneSha256, StringComparison.OrdinalIgnoreCase))
+            throw new InputException($"{request.Scene.SourcePath ?? request.Scene.Name}: the scene's SHA-256 is {hash}, the shards traced {a.SceneSha256}; merge with the scene file the shards traced");
+        if (request.Width != a.Width || request.Height != a.Height || !request.Strategies.Select(s => s.Name).SequenceEqual(a.Strategies.Select(s => s.Name)))
+            throw new InputException($"{shards[0].Folder}: the shard's image or strategies differ from its recorded command; trace the shards again");
+        int width = request.Width, height = request.Height, n = width * height;
+        var results = new List<StrategyResult>();
+        for (int k = 0; k < request.Strategies.Count; k++)
+        {
+            StrategyDefinition definition = request.Strategies[k];
+            var counters = new uint[definition.CounterNames.Count][];
+            for (int c = 0; c < counters.Length; c++)
+                counters[c] = new uint[n];
+            var hits = new PixelHit[n];
+            double seconds = 0;
+            foreach (TileShardFolder shard in shards)
+            {
+                PixelData data = shard.Pixels(definition.Name, width, height);
+                uint[][] theirs = [.. definition.CounterNames.Select(name => data.Find(name)
+                    ?? throw new InputException($"{shard.Folder}: pixel data of {definition.Name} has no counter {name}; trace the shards again"))];
+                foreach (int tile in new TileShare(shard.Document.Index, a.Count).Tiles(width, height))
+                {
+                    var (x0, y0, x1, y1) = Tracer.TileBounds(tile, width, height);
+                    for (int y = y0; y < y1; y++)
+                    {
+                        int from = y * width + x0, length = x1 - x0;
+                        for (int c = 0; c < counters.Length; c++)
+                            Array.Copy(theirs[c], from, counters[c], from, length);
+                        Array.Copy(data.Hits, from, hits, from, length);
+                    }
+                }
+                seconds += shard.Document.Strategies[k].Seconds;
+            }
+            results.Add(new StrategyResult(definition, width, height, counters, hits, TimeSpan.FromSeconds(seconds))
+            {
+                Memory = request.Memory is { } settings ? Memory(shards, k, settings) : null,
+            });
+        }
+        return results;
+    }
+
+    private static MemoryResult Memory(IReadOnlyList<TileShardFolder> shards, int strategy, MemorySettings settings)
+    {
+        TileShardMemory[] parts = [.. shards.Select(s => s.Document.Strategies[strategy].Memory
+            ?? throw new InputException($"{s.Folder}: no memory model in {TileShardDocument.FileName}; trace the shards again"))];
+        var groups = new List<GroupLines>();
+        for (int g = 0; g < SubgroupShape.Standard.Count; g++)
+        {
+            uint[] lines = new uint[parts[0].GroupLines[g].Length];
+            foreach (TileShardMemory p in parts)
+            {
+                for (int i = 0; i < lines.Length; i++)
+                    lines[i] += p.GroupLines[g][i];
+            }
+            groups.Add(new GroupLines(SubgroupShape.Standard[g], lines));
+        }
+        return new MemoryResult(settings, groups, parts.Sum(p => p.Accesses), parts.Sum(p => p.Hits));
+    }
+}
+
+/// <summary>A tile shard's folder as read for a merge.</summary>
+public sealed record TileShardFolder(string Folder, TileShardDocument Document, ReportManifest Manifest)
+{
+    /// <summary>The shard's pixel data of <paramref name="strategy"/>, checked against its manifest and image size.</summary>
+    public PixelData Pixels(string strategy, int width, int height)
+    {
+        string name = OutputNames.PixelData(strategy);
+        string path = Path.Combine(Folder, name);
+        if (!File.Exists(path))
+            throw new InputException($"{path}: not found; expected the pixel data of the shard's tiles (trace the shard without --no-pixels)");
+        byte[] bytes = File.ReadAllBytes(path);
+        Manifest.Verify(Folder, name, bytes);
+        using var stream = new MemoryStream(bytes);
+        PixelData data = PixelDataFile.Read(stream, path);
+        if (data.Width != width || data.Height != height)
+            throw new InputException($"{path}: {data.Width}x{data.Height} pixels, expected {width}x{height}; trace the shard again");
+        return data;
+    }
+}
