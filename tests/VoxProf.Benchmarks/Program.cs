@@ -1,6 +1,7 @@
 using BenchmarkDotNet.Running;
 using VoxProf.Benchmarks;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
 
 if (args.Length > 1 && args[0] == "build")
 {
@@ -17,13 +18,7 @@ if (args.Length > 1 && args[0] == "mesh-scene")
 if (args.Length > 0 && args[0] == "quick")
 {
     Scene scene = args.Length > 1 ? SceneLoader.Load(args[1]) : SampleScenes.Demo();
-    int w = 1280, h = 720;
-    if (args.Length > 2)
-    {
-        string[] parts = args[2].Split('x');
-        w = int.Parse(parts[0]);
-        h = int.Parse(parts[1]);
-    }
+    (int w, int h) = args.Length > 2 ? Size(args[2]) : (1280, 720);
     int branching = args.Length > 3 ? int.Parse(args[3]) : 4;
     int prepass = args.Length > 4 ? int.Parse(args[4]) : 0;
     QuickTiming.Run(scene, w, h, branching, prepass, Console.Out);
@@ -31,15 +26,30 @@ if (args.Length > 0 && args[0] == "quick")
 }
 if (args.Length > 2 && args[0] == "views")
 {
-    int w = 1280, h = 720;
-    if (args.Length > 3)
-    {
-        string[] parts = args[3].Split('x');
-        w = int.Parse(parts[0]);
-        h = int.Parse(parts[1]);
-    }
+    (int w, int h) = args.Length > 3 ? Size(args[3]) : (1280, 720);
     ViewsTiming.Run(SceneLoader.Load(args[1]), args[2], w, h, Console.Out);
     return 0;
+}
+if (args.Length > 1 && args[0] == "prepass")
+{
+    // prepass SCENE [WxH] [K] [STRATEGY] [ROUNDS] [CAMERA|all] [THREADS]: see PrepassTiming.
+    Scene scene = SceneLoader.Load(args[1]);
+    (int w, int h) = args.Length > 2 ? Size(args[2]) : (1280, 720);
+    int block = args.Length > 3 ? int.Parse(args[3]) : 4;
+    StrategyDefinition strategy = args.Length > 4
+        ? BuiltInStrategies.All.FirstOrDefault(d => d.Name == args[4]) ?? throw new ArgumentException($"unknown strategy {args[4]}")
+        : BuiltInStrategies.Dda;
+    int rounds = args.Length > 5 ? int.Parse(args[5]) : 3;
+    string? only = args.Length > 6 && args[6] != "all" ? args[6] : null;
+    int threads = args.Length > 7 ? int.Parse(args[7]) : 0;
+    PrepassTiming.Run(scene, w, h, block, strategy, rounds, only, threads, Console.Out);
+    return 0;
+}
+if (args.Length > 5 && args[0] == "side")
+{
+    // side REFBRICK SCENE CAMERA WxH ROUNDS [SHARE_WxH]: see SideBySide (scripts/side-by-side.sh runs it).
+    (int sw, int sh) = Size(args[4]);
+    return SideBySide.Run(args[1], args[2], args[3], sw, sh, int.Parse(args[5]), args.Length > 6 ? Size(args[6]) : null, Console.Out);
 }
 if (args.Length > 1 && args[0] == "png")
 {
@@ -48,3 +58,9 @@ if (args.Length > 1 && args[0] == "png")
 }
 BenchmarkSwitcher.FromAssembly(typeof(QuickTiming).Assembly).Run(args);
 return 0;
+
+static (int Width, int Height) Size(string text)
+{
+    string[] parts = text.Split('x');
+    return (int.Parse(parts[0]), int.Parse(parts[1]));
+}

@@ -41,7 +41,7 @@ public static class Measures
 
     /// <summary>Node records read by the pixel's own ray plus its share of the coarse prepass ray's.</summary>
     public static MeasureDefinition TotalNodeFetches { get; } = new("total-node-fetches", "count", true,
-        [Counter.NodeFetches, Counter.PrepassNodeFetches], "node records read by the pixel's ray plus its share of the prepass ray's");
+        [Counter.NodeFetches, Counter.PrepassNodeFetches], "node records read by the pixel's ray plus its share of the prepass ray's grid look-ups");
 
     /// <summary>Sums of counters, each computed per pixel before any statistic: a percentile of a sum is not a sum of percentiles.</summary>
     public static IReadOnlyList<MeasureDefinition> Derived { get; } = [TotalIterations, TotalNodeFetches];

@@ -74,7 +74,7 @@ public static class CounterNames
         Counter.MaskCulledCells => "occupied cells proven unreachable by the directional mask",
         Counter.MaskSkippedNodes => "nodes left whole because the directional mask left nothing reachable",
         Counter.PrepassIterations => "the coarse prepass ray's iterations, shared among the pixels it serves",
-        Counter.PrepassNodeFetches => "node records the coarse prepass ray read, shared among the pixels it serves",
+        Counter.PrepassNodeFetches => "look-ups the coarse prepass ray made in the occupancy grids, shared among the pixels it serves",
         Counter.PrepassSkip => "whole voxels of distance the prepass let the ray skip",
         Counter.CacheLines => "distinct cache lines the node records the pixel's ray read lie in (memory model)",
         _ => throw new ArgumentOutOfRangeException(nameof(c)),

@@ -1,67 +1,92 @@
 using System.Numerics;
 using VoxProf.Core.Rays;
+using VoxProf.Core.Trees;
 
 namespace VoxProf.Core.Traversal;
 
 /// <summary>
-/// The prepass result for one image: per K×K block, a start distance and the coarse ray's work (iterations and node
-/// records read), which each pixel of the block is charged a share of.
+/// The prepass result for one image: per K×K block, a start distance and the coarse ray's work (iterations and grid
+/// look-ups), which each pixel of the block is charged a share of.
 /// </summary>
 public sealed class PrepassMap
 {
     private readonly double[] _start;
     private readonly uint[] _iterations;
-    private readonly uint[] _nodeFetches;
+    private readonly uint[] _lookups;
+    private readonly int _log2Block, _width, _height;
 
-    private PrepassMap(int block, int blocksX, int blocksY, double[] start, uint[] iterations, uint[] nodeFetches)
+    private PrepassMap(int block, int blocksX, int blocksY, int width, int height, double[] start, uint[] iterations, uint[] lookups)
     {
         Block = block;
         BlocksX = blocksX;
         BlocksY = blocksY;
+        _log2Block = BitOperations.Log2((uint)block);
+        _width = width;
+        _height = height;
         _start = start;
         _iterations = iterations;
-        _nodeFetches = nodeFetches;
+        _lookups = lookups;
     }
 
     public int Block { get; }
     public int BlocksX { get; }
     public int BlocksY { get; }
 
+    // Per-pixel calls run for every pixel of a traced image: the block is a power of two, so shifts and masks replace
+    // divisions (a handful of integer divisions per pixel cost more than the pixel's own walk saved).
+    private int BlockOf(int x, int y) => (y >> _log2Block) * BlocksX + (x >> _log2Block);
+
     /// <summary>Distance at which every pixel ray of the block containing (x, y) may start (+∞: it meets nothing).</summary>
-    public double Start(int x, int y) => _start[y / Block * BlocksX + x / Block];
+    public double Start(int x, int y) => _start[BlockOf(x, y)];
 
     /// <summary>Iterations of the coarse ray of the block containing (x, y).</summary>
-    public uint BlockIterations(int x, int y) => _iterations[y / Block * BlocksX + x / Block];
+    public uint BlockIterations(int x, int y) => _iterations[BlockOf(x, y)];
 
-    /// <summary>Node records the coarse ray of the block containing (x, y) read in its neighbourhood look-ups.</summary>
-    public uint BlockNodeFetches(int x, int y) => _nodeFetches[y / Block * BlocksX + x / Block];
+    /// <summary>Look-ups the coarse ray of the block containing (x, y) made in the coarse occupancy grids.</summary>
+    public uint BlockNodeFetches(int x, int y) => _lookups[BlockOf(x, y)];
 
     /// <summary>This pixel's share of its block's coarse-ray iterations (see <see cref="Share(uint, int, int, int, int)"/>).</summary>
     public uint IterationShare(int x, int y, int width, int height) => Share(BlockIterations(x, y), x, y, width, height);
 
-    /// <summary>This pixel's share of the node records its block's coarse ray read, split as iterations are.</summary>
+    /// <summary>This pixel's share of its block's coarse-ray look-ups, split as iterations are.</summary>
     public uint NodeFetchShare(int x, int y, int width, int height) => Share(BlockNodeFetches(x, y), x, y, width, height);
 
     /// <summary>
     /// This pixel's share of a block total: an even split whose remainder goes to the first pixels of the block in
-    /// row-major order, so the shares add up exactly to the total.
+    /// row-major order, so the shares add up exactly to the total. <paramref name="width"/> and
+    /// <paramref name="height"/> are the image's, which the map was computed for.
     /// </summary>
     public uint Share(uint total, int x, int y, int width, int height)
     {
-        int x0 = x / Block * Block, y0 = y / Block * Block;
-        int w = Math.Min(width, x0 + Block) - x0, h = Math.Min(height, y0 + Block) - y0;
+        if (width != _width || height != _height)
+            throw new ArgumentException($"the map is of a {_width}x{_height} image, not {width}x{height}");
+        int k = Block - 1;
+        int x0 = x & ~k, y0 = y & ~k;
+        int w = Math.Min(width - x0, Block), h = Math.Min(height - y0, Block);
         uint n = (uint)(w * h);
-        uint index = (uint)((y - y0) * w + (x - x0));
+        uint index = (uint)((y & k) * w + (x & k));
+        // Full blocks (all but the right and bottom edges) have n = K², a power of two.
+        if (n == (uint)Block * (uint)Block)
+        {
+            int log2N = 2 * _log2Block;
+            return (total >> log2N) + (index < (total & (n - 1)) ? 1u : 0u);
+        }
         return total / n + (index < total % n ? 1u : 0u);
     }
 
-    public static PrepassMap Compute(in TreeView view, Camera camera, int block, ParallelOptions options)
+    /// <summary>
+    /// Traces the coarse ray of every K×K block of <paramref name="camera"/>'s image (K = <paramref name="block"/>)
+    /// through the tree's <see cref="BrickTree.Coarse"/> grids, built here on the tree's first prepass.
+    /// </summary>
+    public static PrepassMap Compute(BrickTree tree, Camera camera, int block, ParallelOptions options)
     {
+        if (block is not (2 or 4 or 8))
+            throw new ArgumentOutOfRangeException(nameof(block), "the prepass block must be 2, 4 or 8");
+        CoarseOccupancy grids = tree.Coarse;
         int blocksX = (camera.Width + block - 1) / block, blocksY = (camera.Height + block - 1) / block;
         var start = new double[blocksX * blocksY];
         var iterations = new uint[blocksX * blocksY];
-        var nodeFetches = new uint[blocksX * blocksY];
-        TreeView v = view;
+        var lookups = new uint[blocksX * blocksY];
         Parallel.For(0, blocksX * blocksY, options, i =>
         {
             int bx = i % blocksX, by = i / blocksX;
@@ -73,12 +98,12 @@ public sealed class PrepassMap
             ax /= length; ay /= length; az /= length;
             Cone(camera, ax, ay, az, x0, y0, x1, y1, out double slope, out double longest);
             var axis = new RaySetup(camera.Eye.X, camera.Eye.Y, camera.Eye.Z, ax, ay, az);
-            double s = ConePrepass.March(v, axis, slope, out iterations[i], out nodeFetches[i]);
+            double s = ConePrepass.March(grids, axis, slope, out iterations[i], out lookups[i]);
             // March measures distance along the unit axis; a pixel ray's parameter is distance over its own length,
             // which float normalisation leaves a few 1e-8 away from 1: the longest ray of the block reaches s first.
             start[i] = s / longest;
         });
-        return new PrepassMap(block, blocksX, blocksY, start, iterations, nodeFetches);
+        return new PrepassMap(block, blocksX, blocksY, camera.Width, camera.Height, start, iterations, lookups);
     }
 
     /// <summary>

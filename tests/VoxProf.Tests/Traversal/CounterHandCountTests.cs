@@ -131,26 +131,23 @@ public class CounterHandCountTests
     }
 
     [Fact]
-    public void The_coarse_prepass_ray_counts_its_iterations_and_neighbourhood_node_reads_by_hand()
+    public void The_coarse_prepass_ray_counts_its_iterations_and_grid_look_ups_by_hand()
     {
-        // One solid voxel, (3,0,0): the root (cells 2 wide) has one child, root cell (1,0,0), holding it. The coarse
-        // ray runs down +x from (-1, 0.5, 0.5) with cone slope 0.01 (radius 0.01·t, never the limit here). The grown
-        // volume box contains the eye, so the ray starts at t = 0. A look-up reads the root, then each child whose
-        // cell overlaps the 3×3×3 neighbourhood and is not yet decided.
-        // Iteration 1, t = 0, x = -1: root level, cell x = -1: its neighbourhood covers voxels x < 2, where the root
-        //   has nothing: 1 read, empty. Advance to the cell's exit x = 0 (t = 1).
-        // Iteration 2, t = 1, x = 0: root level, cell 0: the neighbourhood reaches root cell (1,0,0), occupied at that
-        //   level: 1 read. Voxel level, voxel 0: neighbourhood x in [0, 2), root cell (0,0,0) empty: 1 read (3).
-        //   Advance to x = 1 (t = 2).
-        // Iteration 3, t = 2, x = 1: root level occupied: 1 read (4). Voxel level, voxel 1: x in [0, 3) reaches root
-        //   cell (1,0,0): read the root and the child, whose voxel x = 2 is empty: 2 reads (6). Advance to x = 2 (t = 3).
-        // Iteration 4, t = 3, x = 2: root level occupied: 1 read (7). Voxel level, voxel 2: x in [1, 4) holds voxel 3:
-        //   root and child, 2 reads (9). No level is empty: stop at t = 3, less the rounding allowance.
+        // One solid voxel, (3,0,0), in a 4³ octree: the root's cells are 2 voxels wide. The coarse grids mark, at the
+        // root level, the cells within one cell of root cell (1,0,0): x in 0..2; at the voxel level, x in 2..4 (y and
+        // z within one of 0 on both). The coarse ray runs down +x from (-1, 0.5, 0.5) with cone slope 0.01 (radius
+        // 0.01·t, never the limit here). The grown volume box contains the eye, so the ray starts at t = 0. Each level
+        // tested is one look-up.
+        // Iteration 1, t = 0, x = -1: root level, cell x = -1: clear, 1 look-up. Advance to the cell's exit x = 0 (t = 1).
+        // Iteration 2, t = 1, x = 0: root level, cell 0: set (2). Voxel level, voxel 0: clear (3). Advance to x = 1.
+        // Iteration 3, t = 2, x = 1: root level set (4); voxel 1 clear (5). Advance to x = 2 (t = 3).
+        // Iteration 4, t = 3, x = 2: root level set (6); voxel 2 set (7). No level is clear: stop at t = 3, less the
+        //   rounding allowance.
         BrickTree tree = DenseTree.Build(4, 4, 4, (x, y, z) => x == 3 && y == 0 && z == 0 ? (byte)1 : (byte)0, 2);
         var axis = new RaySetup(-1, 0.5, 0.5, 1, 0, 0);
-        double s = ConePrepass.March(new TreeView(tree), axis, 0.01, out uint iterations, out uint nodeFetches);
+        double s = ConePrepass.March(tree.Coarse, axis, 0.01, out uint iterations, out uint lookups);
         iterations.Should().Be(4);
-        nodeFetches.Should().Be(9);
+        lookups.Should().Be(7);
         s.Should().BeLessThan(3).And.BeGreaterThan(3 - 1e-6);
     }
 }

@@ -34,7 +34,7 @@ public class CounterRuleTests
             int block = new[] { 0, 2, 4, 8 }[c % 4];
             TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, Width, Height, BuiltInStrategies.All, block, 2));
             var camera = new Camera(cam, Width, Height);
-            PrepassMap? map = block > 0 ? PrepassMap.Compute(new TreeView(tree), camera, block, new ParallelOptions()) : null;
+            PrepassMap? map = block > 0 ? PrepassMap.Compute(tree, camera, block, new ParallelOptions()) : null;
             yield return new Case(tree, run, camera, map);
         }
     }

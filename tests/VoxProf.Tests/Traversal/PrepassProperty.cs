@@ -80,12 +80,11 @@ internal static class PrepassProperty
         TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, settings.Width, settings.Height, [BuiltInStrategies.Grid], 0, 1));
         PixelHit[] reference = plain.Reference!.Hits;
         var camera = new Camera(cam, settings.Width, settings.Height);
-        var view = new TreeView(tree);
         tally.Pixels += reference.Length;
         tally.Hits += reference.Count(h => h.Hit);
         foreach (int block in new[] { 2, 4, 8 })
         {
-            PrepassMap map = PrepassMap.Compute(view, camera, block, new ParallelOptions { MaxDegreeOfParallelism = 1 });
+            PrepassMap map = PrepassMap.Compute(tree, camera, block, new ParallelOptions { MaxDegreeOfParallelism = 1 });
             TraceRun pre = Tracer.Run(new TraceRequest(scene, tree, cam, settings.Width, settings.Height, settings.Strategies, block, 1));
             for (int i = 0; i < reference.Length; i++)
             {

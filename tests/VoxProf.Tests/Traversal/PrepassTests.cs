@@ -52,13 +52,12 @@ public class PrepassTests
     {
         BrickTree tree = DenseTree.Build(Size, Size, Size, Geometry(sceneName), 2);
         Scene scene = DenseTree.SceneOf(Size, Size, Size);
-        var view = new TreeView(tree);
         int hits = 0;
         foreach (CameraSpec cam in Cameras())
         {
             TraceRun plain = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, BuiltInStrategies.All));
             TraceRun fast = Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, BuiltInStrategies.All, block));
-            PrepassMap map = PrepassMap.Compute(view, new Camera(cam, 160, 90), block, new ParallelOptions());
+            PrepassMap map = PrepassMap.Compute(tree, new Camera(cam, 160, 90), block, new ParallelOptions());
             PixelHit[] reference = plain.Reference!.Hits;
             for (int y = 0; y < 90; y++)
                 for (int x = 0; x < 160; x++)

@@ -1,3 +1,4 @@
+using System.Buffers.Binary;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -86,19 +87,31 @@ public sealed class RawLayer : Layer
 
     private (int[] Any, int[] All) BuildPrefixes()
     {
+        // Scanning the bricks reads every voxel: in parallel over planes of bricks (a profile of a 256 MiB raw scene
+        // showed the scan at 2% of a trace); the prefix sums over the brick summaries stay serial and cheap.
+        var kind = new byte[(long)_bx * _by * _bz];
+        Parallel.For(0, _bz, bz =>
+        {
+            for (int by = 0; by < _by; by++)
+                for (int bx = 0; bx < _bx; bx++)
+                {
+                    var (hasAny, isAll) = ScanBrick(bx, by, bz);
+                    kind[((long)bz * _by + by) * _bx + bx] = (byte)((hasAny ? 1 : 0) | (isAll ? 2 : 0));
+                }
+        });
         int px = _bx + 1, pxy = px * (_by + 1);
         var any = new int[pxy * (_bz + 1)];
         var all = new int[any.Length];
+        long k = 0;
         for (int bz = 0; bz < _bz; bz++)
         {
             for (int by = 0; by < _by; by++)
             {
-                for (int bx = 0; bx < _bx; bx++)
+                for (int bx = 0; bx < _bx; bx++, k++)
                 {
-                    var (hasAny, isAll) = ScanBrick(bx, by, bz);
                     int i = (bz + 1) * pxy + (by + 1) * px + (bx + 1);
-                    Accumulate(any, i, px, pxy, hasAny ? 1 : 0);
-                    Accumulate(all, i, px, pxy, isAll ? 1 : 0);
+                    Accumulate(any, i, px, pxy, kind[k] & 1);
+                    Accumulate(all, i, px, pxy, kind[k] >> 1);
                 }
             }
         }
@@ -114,7 +127,17 @@ public sealed class RawLayer : Layer
         {
             for (int y = y0; y < y1; y++)
             {
-                foreach (byte v in _data.AsSpan(Index(x0, y, z), x1 - x0))
+                ReadOnlySpan<byte> row = _data.AsSpan(Index(x0, y, z), x1 - x0);
+                if (row.Length == 8)
+                {
+                    // A whole row of a brick as one word: any byte set, and (the classic has-a-zero-byte test, exact
+                    // for the question "is some byte zero") every byte set.
+                    ulong w = BinaryPrimitives.ReadUInt64LittleEndian(row);
+                    any |= w != 0;
+                    all &= ((w - 0x0101010101010101UL) & ~w & 0x8080808080808080UL) == 0;
+                    continue;
+                }
+                foreach (byte v in row)
                 {
                     any |= v != 0;
                     all &= v != 0;

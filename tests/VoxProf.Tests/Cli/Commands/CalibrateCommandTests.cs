@@ -99,7 +99,7 @@ public sealed class CalibrateCommandTests : IClassFixture<RingPostViews>, IDispo
         code.Should().Be(ExitCodes.Ok, _err.ToString());
         _err.ToString().Should().BeEmpty();
         _out.ToString().Should().Contain("calibration for lab card A, driver 9.1 from 45 views (branching 4; 32x24, 48x32)")
-            .And.Contain("\ntotal-iterations     0.8  count  29.8%\n");
+            .And.Contain("\ntotal-iterations     0.8  count  30.1%\n");
         using (var json = JsonDocument.Parse(File.ReadAllText(P("calib", "calibration.json"))))
         {
             var root = json.RootElement;

@@ -1,0 +1,128 @@
+using System.Diagnostics;
+using System.Globalization;
+using System.Text.RegularExpressions;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Strategies;
+using VoxProf.Core.Traversal;
+using VoxProf.Core.Trees;
+
+namespace VoxProf.Benchmarks;
+
+/// <summary>
+/// `side REFBRICK SCENE CAMERA WxH ROUNDS`: VoxProf's `dda`, `dda-mask` and `hdda` against the C reference
+/// (../shared/perf/refbrick.c, run as a process with `--mode both`) on the same scene and camera, interleaved
+/// (VoxProf first in even rounds, the reference first in odd ones) so a drifting machine speed hits both alike.
+/// Both sides are timed in CPU seconds on one thread, counting on for VoxProf as in `voxprof trace`: on a shared machine
+/// CPU time is the steadier measure of work per core. VoxProf's CPU time is the process's during one
+/// <see cref="Tracer.Run"/>, which also holds the allocation of the result buffers (a few percent: the ratios understate
+/// VoxProf slightly). Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
+/// Also prints the CPU seconds of one `dda-mask` trace at <c>SHARE_SIZE</c> (for the share of a whole run's CPU).
+/// </summary>
+public static partial class SideBySide
+{
+    private static readonly StrategyDefinition[] Strategies = [BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
+
+    public static int Run(string refbrick, string scenePath, string camera, int width, int height, int rounds,
+        (int Width, int Height)? shareSize, TextWriter output)
+    {
+        Scene scene = SceneLoader.Load(scenePath);
+        BrickTree tree = TreeBuilder.Build(scene, 4);
+        CameraSpec cam = scene.Cameras.FirstOrDefault(c => c.Name == camera)
+            ?? throw new ArgumentException($"no camera '{camera}' in {scenePath}");
+        foreach (StrategyDefinition s in Strategies)
+            Tracer.Run(new TraceRequest(scene, tree, cam, 160, 90, [s], Threads: 1));
+
+        double pixels = (double)width * height;
+        var ratios = Strategies.ToDictionary(s => s, _ => new List<double>());
+        var voxIterations = new Dictionary<StrategyDefinition, long>();
+        var cIterations = new Dictionary<string, long>();
+        for (int r = 0; r < rounds; r++)
+        {
+            Dictionary<StrategyDefinition, double> vox = [];
+            Dictionary<string, double> c = [];
+            for (int side = 0; side < 2; side++)
+            {
+                if ((side == 0) == (r % 2 == 0))
+                {
+                    foreach (StrategyDefinition s in Strategies)
+                    {
+                        (double cpu, long iterations) = TraceCpu(scene, tree, cam, width, height, s);
+                        vox[s] = pixels / cpu;
+                        voxIterations[s] = iterations;
+                    }
+                }
+                else
+                {
+                    foreach ((string mode, double cpu, long iterations) in Reference(refbrick, scenePath, camera, width, height))
+                    {
+                        c[mode] = pixels / cpu;
+                        cIterations[mode] = iterations;
+                    }
+                }
+            }
+            ratios[BuiltInStrategies.Dda].Add(vox[BuiltInStrategies.Dda] / c["dda"]);
+            ratios[BuiltInStrategies.DdaMask].Add(vox[BuiltInStrategies.DdaMask] / c["mask"]);
+            ratios[BuiltInStrategies.Hdda].Add(vox[BuiltInStrategies.Hdda] / c["dda"]);
+            output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[BuiltInStrategies.Dda] / 1e6:F3}, dda-mask {vox[BuiltInStrategies.DdaMask] / 1e6:F3}, hdda {vox[BuiltInStrategies.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}"));
+        }
+
+        long worst = Math.Max(Math.Max(Math.Abs(voxIterations[BuiltInStrategies.Dda] - cIterations["dda"]), Math.Abs(voxIterations[BuiltInStrategies.Hdda] - cIterations["dda"])),
+            Math.Abs(voxIterations[BuiltInStrategies.DdaMask] - cIterations["mask"]));
+        output.WriteLine(Invariant($"check: iterations dda {voxIterations[BuiltInStrategies.Dda]}, hdda {voxIterations[BuiltInStrategies.Hdda]}, C dda {cIterations["dda"]}; dda-mask {voxIterations[BuiltInStrategies.DdaMask]}, C mask {cIterations["mask"]}: {(worst == 0 ? "same work" : $"totals differ by up to {worst} ({100.0 * worst / cIterations["mask"]:G2}%)")}"));
+        output.WriteLine(Invariant($"ratio dda-mask / C mask = {Median(ratios[BuiltInStrategies.DdaMask]):F2} (rounds {Range(ratios[BuiltInStrategies.DdaMask])})"));
+        output.WriteLine(Invariant($"ratio dda / C dda = {Median(ratios[BuiltInStrategies.Dda]):F2} (rounds {Range(ratios[BuiltInStrategies.Dda])})"));
+        output.WriteLine(Invariant($"ratio hdda / C dda = {Median(ratios[BuiltInStrategies.Hdda]):F2} (rounds {Range(ratios[BuiltInStrategies.Hdda])})"));
+        if (shareSize is (int sw, int sh))
+        {
+            var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, BuiltInStrategies.DdaMask).Cpu).ToList();
+            output.WriteLine(Invariant($"traversal cpu seconds dda-mask {sw}x{sh} = {Median(cpus):F3}"));
+        }
+        return 0;
+    }
+
+    /// <summary>Process CPU seconds of one single-threaded trace, and its total iterations.</summary>
+    private static (double Cpu, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, StrategyDefinition s)
+    {
+        TimeSpan before = Process.GetCurrentProcess().TotalProcessorTime;
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1));
+        double cpu = (Process.GetCurrentProcess().TotalProcessorTime - before).TotalSeconds;
+        return (cpu, run.Results[0].Counters[(int)Counter.Iterations].Sum(v => (long)v));
+    }
+
+    /// <summary>Runs the reference once with both modes; its own CPU clock times each trace.</summary>
+    private static List<(string Mode, double Cpu, long Iterations)> Reference(string refbrick, string scene, string camera, int width, int height)
+    {
+        var info = new ProcessStartInfo(refbrick)
+        {
+            RedirectStandardOutput = true,
+            UseShellExecute = false,
+        };
+        foreach (string a in new[] { "--scene", scene, "--camera", camera, "--size", $"{width}x{height}", "--mode", "both", "--quiet" })
+            info.ArgumentList.Add(a);
+        using Process p = Process.Start(info) ?? throw new InvalidOperationException($"could not start {refbrick}");
+        string text = p.StandardOutput.ReadToEnd();
+        p.WaitForExit();
+        if (p.ExitCode != 0)
+            throw new InvalidOperationException($"{refbrick} exited with {p.ExitCode}");
+        var results = new List<(string, double, long)>();
+        foreach (Match m in ReferenceLine().Matches(text))
+            results.Add((m.Groups[1].Value, double.Parse(m.Groups[2].Value, CultureInfo.InvariantCulture), long.Parse(m.Groups[3].Value, CultureInfo.InvariantCulture)));
+        if (results.Count != 2)
+            throw new InvalidOperationException($"unexpected output from {refbrick}: {text}");
+        return results;
+    }
+
+    // "refbrick dda  rep 0: trace 2.5615 s wall 0.3562 s cpu, ..., iterations 26087874 (28.31/px), ..."
+    [GeneratedRegex(@"^refbrick (dda|mask)\s+rep \d+: trace [0-9.]+ s wall ([0-9.]+) s cpu,.*?iterations (\d+)", RegexOptions.Multiline)]
+    private static partial Regex ReferenceLine();
+
+    private static double Median(List<double> values)
+    {
+        var sorted = values.OrderBy(v => v).ToArray();
+        return sorted.Length % 2 == 1 ? sorted[sorted.Length / 2] : (sorted[sorted.Length / 2 - 1] + sorted[sorted.Length / 2]) / 2;
+    }
+
+    private static string Range(List<double> values) => Invariant($"{values.Min():F2}–{values.Max():F2}");
+
+    private static string Invariant(FormattableString s) => s.ToString(CultureInfo.InvariantCulture);
+}
