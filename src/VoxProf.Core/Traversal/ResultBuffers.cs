@@ -10,10 +10,11 @@ internal sealed class ResultBuffers
     private ResultBuffers(int counters, int pixels)
     {
         Counters = new uint[counters][];
-        // Uninitialised: the one clearing below is then the only pass over the memory.
+        // Uninitialised: the one clearing below is then the only pass over the memory (on huge pages where the
+        // system offers them: LargeArrays).
         for (int c = 0; c < Counters.Length; c++)
-            Counters[c] = GC.AllocateUninitializedArray<uint>(pixels);
-        Hits = GC.AllocateUninitializedArray<PixelHit>(pixels);
+            Counters[c] = LargeArrays.Uninitialized<uint>(pixels);
+        Hits = LargeArrays.Uninitialized<PixelHit>(pixels);
     }
 
     public uint[][] Counters { get; }

@@ -34,25 +34,46 @@ public static class PixelDataFile
         foreach (uint[] counter in data.Counters)
             WriteArray<uint>(w, counter);
 
-        int n = data.Width * data.Height;
-        byte[] bytes = new byte[n];
-        int[] ints = new int[n];
-        double[] doubles = new double[n];
-        PixelHit[] hits = data.Hits;
-        for (int i = 0; i < n; i++) bytes[i] = hits[i].Hit ? (byte)1 : (byte)0;
-        w.Write(bytes);
-        for (int i = 0; i < n; i++) bytes[i] = (byte)hits[i].Face;
-        w.Write(bytes);
-        for (int i = 0; i < n; i++) bytes[i] = hits[i].Material;
-        w.Write(bytes);
-        for (int i = 0; i < n; i++) ints[i] = hits[i].X;
-        WriteArray<int>(w, ints);
-        for (int i = 0; i < n; i++) ints[i] = hits[i].Y;
-        WriteArray<int>(w, ints);
-        for (int i = 0; i < n; i++) ints[i] = hits[i].Z;
-        WriteArray<int>(w, ints);
-        for (int i = 0; i < n; i++) doubles[i] = hits[i].T;
-        WriteArray<double>(w, doubles);
+        WriteHits(w, data.Hits);
+    }
+
+    /// <summary>Elements converted at a time: the hit arrays go out through small buffers, not full-size copies.</summary>
+    private const int ChunkLength = 1 << 16;
+
+    /// <summary>
+    /// The hit arrays (flags, face, material, x, y, z, t), each whole in the file, converted a chunk at a time: at
+    /// 2560×1440 full-size copies were 48 MB of fresh memory per strategy, each page faulted in once for one pass.
+    /// </summary>
+    private static void WriteHits(BinaryWriter w, PixelHit[] hits)
+    {
+        int n = hits.Length;
+        var bytes = new byte[Math.Min(n, ChunkLength)];
+        var ints = new int[bytes.Length];
+        var doubles = new double[bytes.Length];
+        for (int plane = 0; plane < 7; plane++)
+        {
+            for (int start = 0; start < n; start += ChunkLength)
+            {
+                ReadOnlySpan<PixelHit> h = hits.AsSpan(start, Math.Min(ChunkLength, n - start));
+                int k = h.Length;
+                switch (plane)
+                {
+                    case 0: for (int i = 0; i < k; i++) bytes[i] = h[i].Hit ? (byte)1 : (byte)0; break;
+                    case 1: for (int i = 0; i < k; i++) bytes[i] = (byte)h[i].Face; break;
+                    case 2: for (int i = 0; i < k; i++) bytes[i] = h[i].Material; break;
+                    case 3: for (int i = 0; i < k; i++) ints[i] = h[i].X; break;
+                    case 4: for (int i = 0; i < k; i++) ints[i] = h[i].Y; break;
+                    case 5: for (int i = 0; i < k; i++) ints[i] = h[i].Z; break;
+                    default: for (int i = 0; i < k; i++) doubles[i] = h[i].T; break;
+                }
+                if (plane < 3)
+                    w.Write(bytes, 0, k);
+                else if (plane < 6)
+                    WriteArray<int>(w, ints.AsSpan(0, k));
+                else
+                    WriteArray<double>(w, doubles.AsSpan(0, k));
+            }
+        }
     }
 
     public static void Write(PixelData data, string path)
@@ -140,15 +161,15 @@ public static class PixelDataFile
         return Encoding.UTF8.GetString(utf8);
     }
 
-    private static void WriteArray<T>(BinaryWriter w, T[] values) where T : unmanaged
+    private static void WriteArray<T>(BinaryWriter w, ReadOnlySpan<T> values) where T : unmanaged
     {
         if (BitConverter.IsLittleEndian)
         {
-            w.Write(MemoryMarshal.AsBytes(values.AsSpan()));
+            w.Write(MemoryMarshal.AsBytes(values));
             return;
         }
         // The file is little-endian whatever the machine; swap a copy on a big-endian host.
-        var copy = (T[])values.Clone();
+        T[] copy = values.ToArray();
         Swap(copy);
         w.Write(MemoryMarshal.AsBytes(copy.AsSpan()));
     }

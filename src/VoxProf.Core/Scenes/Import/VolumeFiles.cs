@@ -31,7 +31,8 @@ public static class VolumeFiles
         string file, long dataOffset)
     {
         int size = SizeOf(type);
-        var mask = new byte[voxels];
+        // Every element is written below (or the read fails); huge pages where the system offers them (LargeArrays).
+        byte[] mask = LargeArrays.Uninitialized<byte>(checked((int)voxels));
         var chunk = new byte[(1 << 16) * size];
         long done = 0;
         while (done < voxels)
