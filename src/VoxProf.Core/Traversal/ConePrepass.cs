@@ -28,7 +28,7 @@ public static class ConePrepass
     /// Marches one coarse ray along the unit axis <paramref name="axis"/> with cone slope <paramref name="slope"/>
     /// (radius at distance s is slope·s) and returns a distance along the axis before which the cone is empty (+∞ when
     /// the cone never meets the volume). Counts its iterations and its look-ups in <paramref name="grids"/> (one per
-    /// level tested).
+    /// level tested, less the tests it already knows the answer to).
     /// </summary>
     public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups)
     {
@@ -46,6 +46,12 @@ public static class ConePrepass
         double slack = Rounding * (1 + Math.Max(Math.Abs(axis.Ox), Math.Max(Math.Abs(axis.Oy), Math.Abs(axis.Oz))) + tEnd);
 
         int startLevel = 0;
+        // Per level, the last cell whose neighbourhood was found occupied: the grids never change, so while the ray is
+        // still in that cell the answer is known without a look-up (most iterations retry the level above the one that
+        // worked last, from inside the same coarser cell).
+        int levels = grids.FinestLevel + 1;
+        Span<long> occupiedCells = stackalloc long[3 * levels];
+        occupiedCells.Fill(long.MinValue);
         while (t < tEnd && iterations < MaxIterations)
         {
             iterations++;
@@ -63,9 +69,15 @@ public static class ConePrepass
                 long cx = (long)Math.Floor((axis.Ox + ta * axis.Dx) * inverse);
                 long cy = (long)Math.Floor((axis.Oy + ta * axis.Dy) * inverse);
                 long cz = (long)Math.Floor((axis.Oz + ta * axis.Dz) * inverse);
+                Span<long> known = occupiedCells.Slice(3 * level, 3);
+                if (known[0] == cx && known[1] == cy && known[2] == cz)
+                    continue;
                 lookups++;
                 if (grids.NeighbourhoodOccupied(level, cx, cy, cz))
+                {
+                    (known[0], known[1], known[2]) = (cx, cy, cz);
                     continue;
+                }
 
                 // Empty neighbourhood: advance to the cell's exit while the cone stays inside it. Axis points up to the
                 // exit lie in the cell or within the nudge of it (and within rounding), so the cone stays inside the

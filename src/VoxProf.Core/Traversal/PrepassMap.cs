@@ -78,11 +78,14 @@ public sealed class PrepassMap
     /// Traces the coarse ray of every K×K block of <paramref name="camera"/>'s image (K = <paramref name="block"/>)
     /// through the tree's <see cref="BrickTree.Coarse"/> grids, built here on the tree's first prepass.
     /// </summary>
-    public static PrepassMap Compute(BrickTree tree, Camera camera, int block, ParallelOptions options)
+    public static PrepassMap Compute(BrickTree tree, Camera camera, int block, ParallelOptions options) =>
+        Compute(tree.Coarse, camera, block, options);
+
+    /// <summary>The same with other grids than the tree's own (tests build them under other budgets).</summary>
+    internal static PrepassMap Compute(CoarseOccupancy grids, Camera camera, int block, ParallelOptions options)
     {
         if (block is not (2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(block), "the prepass block must be 2, 4 or 8");
-        CoarseOccupancy grids = tree.Coarse;
         int blocksX = (camera.Width + block - 1) / block, blocksY = (camera.Height + block - 1) / block;
         var start = new double[blocksX * blocksY];
         var iterations = new uint[blocksX * blocksY];

@@ -18,15 +18,24 @@ public sealed partial class CoarseOccupancy
     /// </summary>
     public const long BitBudget = 1L << 26;
 
+    /// <summary>
+    /// Largest sparse level, in words of cell bits (4 Mi words, 32 MiB, about twice the demo's tree): beyond it the
+    /// finest dense grid is the finest level, as before the sparse level existed.
+    /// </summary>
+    public const long SparseWordBudget = 1L << 22;
+
     private readonly Level[] _levels;
+    private readonly SparseLevel? _sparse;
     private readonly double[] _size, _inverse;
 
-    private CoarseOccupancy(Level[] levels, int log2N, int rootShift, int extentX, int extentY, int extentZ)
+    private CoarseOccupancy(Level[] levels, SparseLevel? sparse, int log2N, int rootShift, int extentX, int extentY, int extentZ)
     {
         _levels = levels;
-        _size = new double[levels.Length];
-        _inverse = new double[levels.Length];
-        for (int l = 0; l < levels.Length; l++)
+        _sparse = sparse;
+        int count = levels.Length + (sparse is null ? 0 : 1);
+        _size = new double[count];
+        _inverse = new double[count];
+        for (int l = 0; l < count; l++)
         {
             _size[l] = Math.ScaleB(1.0, rootShift - l * log2N);
             _inverse[l] = 1 / _size[l];
@@ -38,8 +47,14 @@ public sealed partial class CoarseOccupancy
         ExtentZ = extentZ;
     }
 
-    /// <summary>The finest level with a grid (the tree's level numbering: 0 is the root).</summary>
-    public int FinestLevel => _levels.Length - 1;
+    /// <summary>
+    /// The finest level the grids answer for (the tree's level numbering: 0 is the root): the finest dense grid, or
+    /// the sparse level one below it when there is one (<see cref="HasSparseLevel"/>).
+    /// </summary>
+    public int FinestLevel => _levels.Length - (_sparse is null ? 1 : 0);
+
+    /// <summary>Whether the finest level is kept sparsely: a word of cell bits per occupied cell of the level above.</summary>
+    public bool HasSparseLevel => _sparse is not null;
 
     /// <summary>Log2 of the tree's branching factor.</summary>
     public int Log2N { get; }
@@ -52,7 +67,7 @@ public sealed partial class CoarseOccupancy
     public int ExtentZ { get; }
 
     /// <summary>Memory the grids hold, in bytes.</summary>
-    public long Bytes => _levels.Sum(l => (long)l.Bits.Length * sizeof(ulong));
+    public long Bytes => _levels.Sum(l => (long)l.Bits.Length * sizeof(ulong)) + (_sparse?.Bytes ?? 0);
 
     /// <summary>Log2 of the cell size at <paramref name="level"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -73,6 +88,8 @@ public sealed partial class CoarseOccupancy
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public bool NeighbourhoodOccupied(int level, long cx, long cy, long cz)
     {
+        if (level >= _levels.Length)
+            return _sparse!.NeighbourhoodOccupied(cx, cy, cz);
         ref readonly Level l = ref _levels[level];
         // The grid's cell 0 is the ring outside the extent's cell 0.
         ulong x = (ulong)(cx + 1), y = (ulong)(cy + 1), z = (ulong)(cz + 1);
@@ -83,7 +100,10 @@ public sealed partial class CoarseOccupancy
     }
 
     /// <summary>The lazily built grids of a tree are <see cref="BrickTree.Coarse"/>; this builds them afresh.</summary>
-    public static CoarseOccupancy Build(BrickTree tree)
+    public static CoarseOccupancy Build(BrickTree tree) => Build(tree, BitBudget, SparseWordBudget);
+
+    /// <summary>Builds the grids under other budgets than the defaults (tests use small ones to reach the sparse level).</summary>
+    internal static CoarseOccupancy Build(BrickTree tree, long bitBudget, long sparseWordBudget)
     {
         ArgumentNullException.ThrowIfNull(tree);
         var levels = new List<Level>();
@@ -92,15 +112,17 @@ public sealed partial class CoarseOccupancy
             int shift = tree.CellShift(level);
             var l = new Level(Cells(tree.ExtentX, shift) + 2, Cells(tree.ExtentY, shift) + 2, Cells(tree.ExtentZ, shift) + 2);
             // A coarser level is never larger, so the first level over budget ends the list (the root always fits).
-            if (level > 0 && (long)l.WordsPerRow * 64 * l.SizeY * l.SizeZ > BitBudget)
+            if (level > 0 && (long)l.WordsPerRow * 64 * l.SizeY * l.SizeZ > bitBudget)
                 break;
             levels.Add(l);
         }
         Level[] grids = [.. levels];
         Mark(tree, grids, 0, 0, 0, 0, 0);
+        // The sparse level reads the finest grid's occupancy before the dilation below turns it into neighbourhoods.
+        SparseLevel? sparse = grids.Length < tree.Depth ? SparseLevel.Build(tree, grids[^1], grids.Length - 1, sparseWordBudget) : null;
         foreach (Level l in grids)
             Dilate(l);
-        return new CoarseOccupancy(grids, tree.Log2Branching, tree.CellShift(0), tree.ExtentX, tree.ExtentY, tree.ExtentZ);
+        return new CoarseOccupancy(grids, sparse, tree.Log2Branching, tree.CellShift(0), tree.ExtentX, tree.ExtentY, tree.ExtentZ);
     }
 
     private static int Cells(int extent, int shift) => (int)(((long)extent + (1L << shift) - 1) >> shift);

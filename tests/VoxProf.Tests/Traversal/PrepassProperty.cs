@@ -82,15 +82,23 @@ internal static class PrepassProperty
         var camera = new Camera(cam, settings.Width, settings.Height);
         tally.Pixels += reference.Length;
         tally.Hits += reference.Count(h => h.Hit);
+        // The same grids with the voxel level just over the dense budget: the finest level is then the sparse one.
+        long voxelBits = ((length + 2 + 63) / 64 * 64L) * 66 * 66;
+        CoarseOccupancy sparse = CoarseOccupancy.Build(tree, voxelBits - 1, CoarseOccupancy.SparseWordBudget);
+        if (!sparse.HasSparseLevel)
+            Fail(tally, $"{name}: no sparse level under a budget just below the voxel grid");
         foreach (int block in new[] { 2, 4, 8 })
         {
             PrepassMap map = PrepassMap.Compute(tree, camera, block, new ParallelOptions { MaxDegreeOfParallelism = 1 });
+            PrepassMap sparseMap = PrepassMap.Compute(sparse, camera, block, new ParallelOptions { MaxDegreeOfParallelism = 1 });
             TraceRun pre = Tracer.Run(new TraceRequest(scene, tree, cam, settings.Width, settings.Height, settings.Strategies, block, 1));
             for (int i = 0; i < reference.Length; i++)
             {
                 int x = i % settings.Width, y = i / settings.Width;
                 if (reference[i].Hit && map.Start(x, y) > reference[i].T)
                     Fail(tally, $"{name}, K {block}, pixel ({x},{y}): start {map.Start(x, y):R} after the first hit at {reference[i].T:R}");
+                if (reference[i].Hit && sparseMap.Start(x, y) > reference[i].T)
+                    Fail(tally, $"{name}, K {block}, sparse voxel level, pixel ({x},{y}): start {sparseMap.Start(x, y):R} after the first hit at {reference[i].T:R}");
                 foreach (StrategyResult r in pre.Results)
                 {
                     tally.Checks++;

@@ -18,6 +18,37 @@ public class CoarseOccupancyTests
     [MemberData(nameof(Cases))]
     public void Every_bit_says_whether_the_3x3x3_block_around_its_cell_holds_a_solid_voxel(int branching, int seed)
     {
+        var (tree, solid) = RandomTree(branching, seed);
+        CoarseOccupancy grids = CoarseOccupancy.Build(tree);
+        grids.FinestLevel.Should().Be(tree.Depth - 1, "a small volume keeps a grid down to its voxels");
+        grids.HasSparseLevel.Should().BeFalse("every level fits the budget as a dense grid");
+        CheckEveryLevel(tree, grids, solid);
+    }
+
+    [Theory]
+    [MemberData(nameof(Cases))]
+    public void The_sparse_level_below_the_finest_dense_grid_answers_as_a_dense_grid_would(int branching, int seed)
+    {
+        var (tree, solid) = RandomTree(branching, seed);
+        // 10,000 bits keep dense grids down to cells of 4 voxels on this extent (N = 2 and 4); the level below is sparse.
+        CoarseOccupancy grids = CoarseOccupancy.Build(tree, bitBudget: 10_000, sparseWordBudget: 1 << 20);
+        grids.HasSparseLevel.Should().BeTrue();
+        grids.CellShift(grids.FinestLevel - 1).Should().Be(2);
+        grids.FinestLevel.Should().BeLessThanOrEqualTo(tree.Depth - 1);
+        CheckEveryLevel(tree, grids, solid);
+    }
+
+    [Fact]
+    public void A_sparse_level_over_its_word_budget_is_left_out()
+    {
+        var (tree, _) = RandomTree(4, 3);
+        CoarseOccupancy grids = CoarseOccupancy.Build(tree, bitBudget: 10_000, sparseWordBudget: 1);
+        grids.HasSparseLevel.Should().BeFalse();
+        grids.CellShift(grids.FinestLevel).Should().Be(2);
+    }
+
+    private static (BrickTree Tree, bool[,,] Solid) RandomTree(int branching, int seed)
+    {
         // Odd extents, so cells straddle the extent's far faces at every level.
         const int ex = 37, ey = 29, ez = 41;
         Func<int, int, int, byte> material = KernelAgreementTests.RandomBlobs(seed, 36, 6);
@@ -27,9 +58,13 @@ public class CoarseOccupancyTests
             for (int y = 0; y < ey; y++)
                 for (int x = 0; x < ex; x++)
                     solid[x, y, z] = material(x, y, z) != 0;
+        return (tree, solid);
+    }
 
-        CoarseOccupancy grids = CoarseOccupancy.Build(tree);
-        grids.FinestLevel.Should().Be(tree.Depth - 1, "a small volume keeps a grid down to its voxels");
+    /// <summary>Every level's answer for every cell of the extent and three rings around it, against a brute-force scan.</summary>
+    private static void CheckEveryLevel(BrickTree tree, CoarseOccupancy grids, bool[,,] solid)
+    {
+        int ex = solid.GetLength(0), ey = solid.GetLength(1), ez = solid.GetLength(2);
         int set = 0, checkedCells = 0;
         for (int level = 0; level <= grids.FinestLevel; level++)
         {
@@ -59,15 +94,27 @@ public class CoarseOccupancyTests
         var scene = new Scene(4096, 128, 4096, [new BoxLayer(LayerOp.Add, 1, box, extent)], []);
         BrickTree tree = TreeBuilder.Build(scene, 4, threads: 1);
         CoarseOccupancy grids = tree.Coarse;
-        grids.FinestLevel.Should().Be(tree.Depth - 2);
-        grids.CellShift(grids.FinestLevel).Should().Be(2);
-        grids.Bytes.Should().BeLessThanOrEqualTo(CoarseOccupancy.BitBudget / 8 * 2, "each level fits the budget and the coarser ones add at most a sixty-third");
+        // Dense grids down to cells of 4 voxels, then the voxels as a sparse level.
+        grids.FinestLevel.Should().Be(tree.Depth - 1);
+        grids.HasSparseLevel.Should().BeTrue();
+        int dense = grids.FinestLevel - 1;
+        grids.CellShift(dense).Should().Be(2);
+        grids.Bytes.Should().BeLessThanOrEqualTo(CoarseOccupancy.BitBudget / 8 * 4,
+            "each dense level fits the budget, the coarser ones add at most a sixty-third, and the sparse level keeps a copy of the finest grid, a rank per word and a few words");
         // Cells of 4 voxels: the box covers cells x 250, y 25, z 500..502; its 3×3×3 neighbourhood reaches one cell more.
-        grids.NeighbourhoodOccupied(grids.FinestLevel, 249, 24, 499).Should().BeTrue();
-        grids.NeighbourhoodOccupied(grids.FinestLevel, 251, 26, 503).Should().BeTrue();
-        grids.NeighbourhoodOccupied(grids.FinestLevel, 248, 25, 500).Should().BeFalse();
-        grids.NeighbourhoodOccupied(grids.FinestLevel, 250, 27, 500).Should().BeFalse();
-        grids.NeighbourhoodOccupied(grids.FinestLevel, 250, 25, 504).Should().BeFalse();
+        grids.NeighbourhoodOccupied(dense, 249, 24, 499).Should().BeTrue();
+        grids.NeighbourhoodOccupied(dense, 251, 26, 503).Should().BeTrue();
+        grids.NeighbourhoodOccupied(dense, 248, 25, 500).Should().BeFalse();
+        grids.NeighbourhoodOccupied(dense, 250, 27, 500).Should().BeFalse();
+        grids.NeighbourhoodOccupied(dense, 250, 25, 504).Should().BeFalse();
+        // Voxels 1000..1002 × 100 × 2000..2008: the neighbourhood reaches one voxel more.
+        int voxels = grids.FinestLevel;
+        grids.NeighbourhoodOccupied(voxels, 999, 99, 1999).Should().BeTrue();
+        grids.NeighbourhoodOccupied(voxels, 1003, 101, 2009).Should().BeTrue();
+        grids.NeighbourhoodOccupied(voxels, 998, 100, 2000).Should().BeFalse();
+        grids.NeighbourhoodOccupied(voxels, 1004, 100, 2000).Should().BeFalse();
+        grids.NeighbourhoodOccupied(voxels, 1000, 102, 2000).Should().BeFalse();
+        grids.NeighbourhoodOccupied(voxels, 1000, 100, 2010).Should().BeFalse();
         tree.Coarse.Should().BeSameAs(grids, "the tree builds its grids once");
     }
 
