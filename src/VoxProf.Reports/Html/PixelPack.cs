@@ -58,16 +58,13 @@ public static class PixelPack
     }
 
     /// <summary>
-    /// Deflate with run-length matching only (zlib's Z_RLE strategy, RFC 1951 back-references of distance 1): the
-    /// varint deltas are mostly runs of one repeated byte. On the 2560×1440 varint stream of a raw terrain scene it took
-    /// 0.2 s against 0.9 s at the default level 6 (CompressionLevel.Optimal) for 9% more bytes (11.6 MB against
-    /// 10.7 MB); docs/performance.md, "Where a trace's time goes outside the kernels".
+    /// Deflate at zlib level 2 rather than the default 6 (CompressionLevel.Optimal): measured on the varint streams of
+    /// two pages, level 6 took 0.91 s and 0.42 s, level 2 0.28 s and 0.10 s, for 13% and 28% more bytes (a 2560×1440
+    /// trace of a raw terrain scene, 10.7 → 12.1 MB; the demo's main-street at 1280×720 with every strategy,
+    /// 3.4 → 4.4 MB). Level 1 and the run-length strategy were faster still but grew the demo's by 40–85%.
+    /// docs/performance.md, "Where a trace's time goes outside the kernels".
     /// </summary>
-    private static readonly ZLibCompressionOptions Deflate = new()
-    {
-        CompressionLevel = 1,
-        CompressionStrategy = ZLibCompressionStrategy.RunLengthEncoding,
-    };
+    private static readonly ZLibCompressionOptions Deflate = new() { CompressionLevel = 2 };
 
     /// <summary>The zlib-compressed varint stream of <paramref name="planes"/> (before base64).</summary>
     public static byte[] Encode(IEnumerable<int[]> planes)
