@@ -13,7 +13,6 @@ using System.Numerics;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
-using VoxProf.Core.Trees;
 
 public struct BoxSkip : IStrategy
 {
@@ -31,7 +30,7 @@ public struct BoxSkip : IStrategy
     /// <summary>Grows the box by this much (in voxels) on every side, so rounding can only cost a skip, never a hit.</summary>
     private const double Margin = 1.0 / 16;
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<Node> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -39,7 +38,7 @@ public struct BoxSkip : IStrategy
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
 
-        Node node = view.Fetch(0, ref counters);
+        int node = view.Fetch(0, ref counters);
         int depth = 0;
         int s = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> s, start.Y >> s, start.Z >> s, s);
@@ -48,20 +47,19 @@ public struct BoxSkip : IStrategy
         {
             counters.Iteration();
             int bit = dda.CellBit<TBranching>();
-            ulong b = 1UL << bit;
-            if ((node.Occupancy & b) != 0)
+            if (view.IsOccupied<TBranching>(node, bit))
             {
-                if ((node.SolidMask & b) != 0)
+                if (view.IsSolid<TBranching>(node, bit))
                 {
-                    dda.SetHit(ref hit, ray, view.SolidMaterial(node, bit));
+                    dda.SetHit(ref hit, ray, view.SolidMaterial<TBranching>(node, bit));
                     return counters;
                 }
 
                 // Test the segment left in this cell against the child's occupied box
-                Node child = view.Fetch(TreeView.ChildIndex(node, bit), ref counters);
+                int child = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Extra(BoxTests, 1);
                 counters.SlabTest();
-                if (SegmentMeetsBox<TBranching>(ray, dda, child.Occupancy))
+                if (SegmentMeetsBox<TBranching>(view, ray, dda, child))
                 {
                     // Descend into the child node
                     path[depth++] = node;
@@ -95,19 +93,22 @@ public struct BoxSkip : IStrategy
     }
 
     /// <summary>Whether the ray between the walk's t and the current cell's exit meets the box of the occupied child cells.</summary>
-    private static bool SegmentMeetsBox<TBranching>(in RaySetup ray, in DdaState dda, ulong occupancy)
+    private static bool SegmentMeetsBox<TBranching>(in TreeView view, in RaySetup ray, in DdaState dda, int child)
         where TBranching : struct, IBranching
     {
-        // The child's occupied cells' index ranges on each axis
+        // The child's occupied cells' index ranges on each axis (its masks are one 64-bit word, or eight for 8³)
         int n = NodeCells<TBranching>.N, last = n - 1;
         int minX = n, minY = n, minZ = n, maxX = -1, maxY = -1, maxZ = -1;
-        for (ulong m = occupancy; m != 0; m &= m - 1)
+        for (int w = 0; w < TreeView.MaskWords<TBranching>(); w++)
         {
-            int c = BitOperations.TrailingZeroCount(m);
-            int cx = c & last, cy = (c >> TBranching.Log2N) & last, cz = c >> (2 * TBranching.Log2N);
-            minX = Math.Min(minX, cx); maxX = Math.Max(maxX, cx);
-            minY = Math.Min(minY, cy); maxY = Math.Max(maxY, cy);
-            minZ = Math.Min(minZ, cz); maxZ = Math.Max(maxZ, cz);
+            for (ulong m = view.OccupancyWord<TBranching>(child, w); m != 0; m &= m - 1)
+            {
+                int c = 64 * w + BitOperations.TrailingZeroCount(m);
+                int cx = c & last, cy = (c >> TBranching.Log2N) & last, cz = c >> (2 * TBranching.Log2N);
+                minX = Math.Min(minX, cx); maxX = Math.Max(maxX, cx);
+                minY = Math.Min(minY, cy); maxY = Math.Max(maxY, cy);
+                minZ = Math.Min(minZ, cz); maxZ = Math.Max(maxZ, cz);
+            }
         }
 
         // The box in voxels, grown by the margin, against the segment [t, the cell's exit]

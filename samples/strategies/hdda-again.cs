@@ -9,14 +9,13 @@
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
-using VoxProf.Core.Trees;
 
 public struct HddaAgain : IStrategy
 {
     public static string Name => "hdda-again";
     public static string Description => "hierarchical DDA, written as a strategy file";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<Node> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -27,8 +26,8 @@ public struct HddaAgain : IStrategy
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
 
-        // One DDA state at the root's level, and the root's record
-        Node node = view.Fetch(0, ref counters);
+        // One DDA state at the root's level, and the root's record (a node is named by its index)
+        int node = view.Fetch(0, ref counters);
         int depth = 0;
         int s = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> s, start.Y >> s, start.Z >> s, s);
@@ -37,19 +36,18 @@ public struct HddaAgain : IStrategy
         {
             counters.Iteration();
             int bit = dda.CellBit<TBranching>();
-            ulong b = 1UL << bit;
-            if ((node.Occupancy & b) != 0)
+            if (view.IsOccupied<TBranching>(node, bit))
             {
                 // A solid cell is the hit
-                if ((node.SolidMask & b) != 0)
+                if (view.IsSolid<TBranching>(node, bit))
                 {
-                    dda.SetHit(ref hit, ray, view.SolidMaterial(node, bit));
+                    dda.SetHit(ref hit, ray, view.SolidMaterial<TBranching>(node, bit));
                     return counters;
                 }
 
                 // Descend into the child node, refining the cell where the walk is
                 path[depth++] = node;
-                node = view.Fetch(TreeView.ChildIndex(node, bit), ref counters);
+                node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Descent();
                 dda.Descend<TBranching>(ray);
                 continue;

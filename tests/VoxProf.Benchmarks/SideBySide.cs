@@ -83,6 +83,9 @@ public static partial class SideBySide
     /// <summary>Process CPU seconds of one single-threaded trace, and its total iterations.</summary>
     private static (double Cpu, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, StrategyDefinition s)
     {
+        // The previous trace's buffers are garbage now; collect them first, so their collection is not charged here.
+        GC.Collect();
+        GC.WaitForPendingFinalizers();
         TimeSpan before = Process.GetCurrentProcess().TotalProcessorTime;
         TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1));
         double cpu = (Process.GetCurrentProcess().TotalProcessorTime - before).TotalSeconds;

@@ -17,14 +17,14 @@ public static class InspectCommand
         var sceneArg = new Argument<string>("scene") { Description = "Scene file (JSON)." };
         var branching = new Option<int>("--branching")
         {
-            Description = "Cells per node side: 2 (octree) or 4 (4x4x4 bricks with one 64-bit mask).",
+            Description = "Cells per node side: 2 (octree), 4 (4x4x4 bricks, one 64-bit mask) or 8 (8x8x8 bricks, 512-bit masks).",
             DefaultValueFactory = _ => 4,
         };
         branching.Validators.Add(r =>
         {
             // Validators also run when the value did not parse; leave that error to the parser.
-            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && n is not (2 or 4))
-                r.AddError($"--branching: expected 2 or 4, got {n}");
+            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && n is not (2 or 4 or 8))
+                r.AddError($"--branching: expected 2, 4 or 8, got {n}");
         });
         var format = new Option<string>("--format")
         {

@@ -52,7 +52,7 @@ public static class TraceCommand
         var strategyFile = new Option<string[]>("--strategy-file") { Description = "C# file of strategies of your own, compiled before the trace (docs/writing-a-strategy.md); repeatable. Its code runs as yours." };
         var strategyAssembly = new Option<string[]>("--strategy-assembly") { Description = "Built .NET library of strategies of your own; repeatable. Its code runs as yours." };
         var prepass = new Option<int?>("--prepass") { Description = "Coarse prepass block size K: 2, 4 or 8 (default off)." };
-        var branching = new Option<int>("--branching") { Description = "Tree branching factor: 2 or 4.", DefaultValueFactory = _ => 4 };
+        var branching = new Option<int>("--branching") { Description = "Cells per node side: 2, 4 or 8.", DefaultValueFactory = _ => 4 };
         var counters = new Option<string?>("--counters") { Description = $"Heatmaps to draw (default {string.Join(",", HeatmapNames.Default)}): {HeatmapNames.ValidList}." };
         var scale = new Option<string>("--scale") { Description = "Heatmap scale: linear or log.", DefaultValueFactory = _ => "linear" };
         var range = new Option<string?>("--range") { Description = "Fixed heatmap range MIN:MAX, so two runs compare." };
@@ -97,8 +97,8 @@ public static class TraceCommand
                 if (parse.GetValue(prepass) is { } k && k is not (2 or 4 or 8))
                     throw new InputException($"--prepass: {k} is not valid, expected 2, 4 or 8");
                 int branch = parse.GetValue(branching);
-                if (branch is not (2 or 4))
-                    throw new InputException($"--branching: {branch} is not valid, expected 2 or 4");
+                if (branch is not (2 or 4 or 8))
+                    throw new InputException($"--branching: {branch} is not valid, expected 2, 4 or 8");
                 int threadCount = parse.GetValue(threads);
                 if (threadCount < 0)
                     throw new InputException($"--threads: {threadCount} is not valid, expected 0 (every processor) or more");

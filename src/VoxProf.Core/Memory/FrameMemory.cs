@@ -13,13 +13,14 @@ namespace VoxProf.Core.Memory;
 public sealed class FrameMemory
 {
     private readonly MemorySettings _settings;
+    private readonly NodeLayout _layout;
     private readonly int _width;
     private readonly uint[][] _groupLines;
     private readonly ConcurrentBag<TileReads> _pool = [];
     private long _accesses;
     private long _hits;
 
-    public FrameMemory(MemorySettings settings, int width, int height)
+    public FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height)
     {
         if (settings.Problem() is { } problem)
             throw new ArgumentException(problem, nameof(settings));
@@ -30,6 +31,7 @@ public sealed class FrameMemory
                 throw new InvalidOperationException($"{s.Name} tiles do not divide the tracer's {Tracer.TileSize}-pixel tiles");
         }
         _settings = settings;
+        _layout = layout;
         _width = width;
         _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
     }
@@ -80,10 +82,9 @@ public sealed class FrameMemory
             set.Clear();
             foreach (int node in reads.Of(k))
             {
-                int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
-                set.Add(first);
-                if (last != first)
-                    set.Add(last);
+                int last = _layout.LastLine(node, shift);
+                for (int line = _layout.FirstLine(node, shift); line <= last; line++)
+                    set.Add(line);
             }
             set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
             at += set.Count;
@@ -156,10 +157,9 @@ public sealed class FrameMemory
                         if (s >= lengths[lane])
                             continue;
                         int node = all[starts[lane] + s];
-                        int first = NodeLayout.FirstLine(node, shift), last = NodeLayout.LastLine(node, shift);
-                        step.Add(first);
-                        if (last != first)
-                            step.Add(last);
+                        int last = _layout.LastLine(node, shift);
+                        for (int line = _layout.FirstLine(node, shift); line <= last; line++)
+                            step.Add(line);
                     }
                     foreach (int line in step.Members)
                     {

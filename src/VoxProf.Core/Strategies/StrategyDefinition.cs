@@ -67,19 +67,17 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
     {
         // Choose the specialisation once per tile: inside it, branching and counting are compile-time constants.
         bool extras = ExtraCounters.Count > 0;
-        if (job.View.N == 4)
-        {
-            if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching4, NoCounters>(job, x0, y0, x1, y1);
-            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching4, MemoryCounts>(job, x0, y0, x1, y1);
-            else if (extras) Tracer.TraceTile<TStrategy, Branching4, CostCountsWithExtras>(job, x0, y0, x1, y1);
-            else Tracer.TraceTile<TStrategy, Branching4, CostCounts>(job, x0, y0, x1, y1);
-        }
-        else
-        {
-            if (!job.CountWork) Tracer.TraceTile<TStrategy, Branching2, NoCounters>(job, x0, y0, x1, y1);
-            else if (job.RecordsReads) Tracer.TraceTile<TStrategy, Branching2, MemoryCounts>(job, x0, y0, x1, y1);
-            else if (extras) Tracer.TraceTile<TStrategy, Branching2, CostCountsWithExtras>(job, x0, y0, x1, y1);
-            else Tracer.TraceTile<TStrategy, Branching2, CostCounts>(job, x0, y0, x1, y1);
-        }
+        if (job.View.N == 8) TraceTile<Branching8>(job, extras, x0, y0, x1, y1);
+        else if (job.View.N == 4) TraceTile<Branching4>(job, extras, x0, y0, x1, y1);
+        else TraceTile<Branching2>(job, extras, x0, y0, x1, y1);
+    }
+
+    private static void TraceTile<TBranching>(in TileJob job, bool extras, int x0, int y0, int x1, int y1)
+        where TBranching : struct, IBranching
+    {
+        if (!job.CountWork) Tracer.TraceTile<TStrategy, TBranching, NoCounters>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts>(job, x0, y0, x1, y1);
+        else if (extras) Tracer.TraceTile<TStrategy, TBranching, CostCountsWithExtras>(job, x0, y0, x1, y1);
+        else Tracer.TraceTile<TStrategy, TBranching, CostCounts>(job, x0, y0, x1, y1);
     }
 }

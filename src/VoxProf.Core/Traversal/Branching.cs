@@ -8,7 +8,7 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 public interface IBranching
 {
-    /// <summary>Log2 of the cells per node edge (1 for 2³ nodes, 2 for 4³).</summary>
+    /// <summary>Log2 of the cells per node edge (1 for 2³ nodes, 2 for 4³, 3 for 8³).</summary>
     static abstract int Log2N { get; }
 }
 
@@ -22,6 +22,12 @@ public struct Branching2 : IBranching
 public struct Branching4 : IBranching
 {
     public static int Log2N => 2;
+}
+
+/// <summary>8×8×8 cells per node: 512-bit masks (<see cref="Trees.Node8"/>).</summary>
+public struct Branching8 : IBranching
+{
+    public static int Log2N => 3;
 }
 
 /// <summary>Cell arithmetic of a node with branching <typeparamref name="TBranching"/>.</summary>

@@ -9,14 +9,14 @@ namespace VoxProf.Core.Traversal;
 /// OpenVDB": one DDA state (cell coordinates at the current level, next-plane times) that changes level in place.
 /// Descending refines the cell from the current point; ascending coarsens the coordinates by a shift, which already
 /// names the neighbouring coarse cell. No slab test after the volume clip, and no DDA state is saved per level: only
-/// the node records on the path, which a kernel keeps anyway.
+/// the nodes on the path, which a kernel keeps anyway.
 /// </summary>
 public struct HddaStrategy : IStrategy
 {
     public static string Name => "hdda";
     public static string Description => "Museth's hierarchical DDA: one DDA state that changes level";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<Node> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -27,7 +27,7 @@ public struct HddaStrategy : IStrategy
         double tExit = start.TExit;
 
         // One DDA state at the root's level, and the root's record
-        Node node = view.Fetch(0, ref counters);
+        int node = view.Fetch(0, ref counters);
         int depth = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -36,18 +36,17 @@ public struct HddaStrategy : IStrategy
         {
             counters.Iteration();
             int bit = dda.CellBit<TBranching>();
-            ulong b = 1UL << bit;
-            if ((node.Occupancy & b) != 0)
+            if (view.IsOccupied<TBranching>(node, bit))
             {
-                if ((node.SolidMask & b) != 0)
+                if (view.IsSolid<TBranching>(node, bit))
                 {
-                    dda.SetHit(ref hit, ray, view.SolidMaterial(node, bit));
+                    dda.SetHit(ref hit, ray, view.SolidMaterial<TBranching>(node, bit));
                     return counters;
                 }
 
                 // Descend: refine the cell by the crossing order at the walk's key, keep t
                 path[depth++] = node;
-                node = view.Fetch(TreeView.ChildIndex(node, bit), ref counters);
+                node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Descent();
                 dda.Descend<TBranching>(ray);
                 continue;

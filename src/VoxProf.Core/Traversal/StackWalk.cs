@@ -1,4 +1,3 @@
-using System.Numerics;
 using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
@@ -22,11 +21,11 @@ public interface IWalkMode
 /// The stack walk behind the slab, dda and dda-mask strategies. Between levels it restarts with a Williams et al. slab
 /// test of the child's box; inside a node it steps by slab tests of the current cell or by Amanatides &amp; Woo DDA,
 /// optionally culling with directional occupancy masks. Each iteration visits one cell at some level; the path holds
-/// the node records above the current one. Counter definitions: docs/counters.md.
+/// the indices of the nodes above the current one. Counter definitions: docs/counters.md.
 /// </summary>
 public static class StackWalk
 {
-    public static TCounters Trace<TMode, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<Node> path, ref PixelHit hit)
+    public static TCounters Trace<TMode, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
         where TMode : struct, IWalkMode
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
@@ -39,7 +38,7 @@ public static class StackWalk
         int octant = ray.Octant;
 
         // Enter the root at the start point
-        Node node = view.Fetch(0, ref counters);
+        int node = view.Fetch(0, ref counters);
         int sp = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -50,15 +49,14 @@ public static class StackWalk
         {
             counters.Iteration();
             int bit = dda.CellBit<TBranching>();
-            ulong b = 1UL << bit;
             // Whether the walk leaves the node through a face (else the mask left nothing reachable in it)
             bool leftNode;
-            if ((node.Occupancy & b) != 0)
+            if (view.IsOccupied<TBranching>(node, bit))
             {
                 // Solid cell: the hit voxel is where the ray enters the cell
-                if ((node.SolidMask & b) != 0)
+                if (view.IsSolid<TBranching>(node, bit))
                 {
-                    dda.SetHit(ref hit, ray, view.SolidMaterial(node, bit));
+                    dda.SetHit(ref hit, ray, view.SolidMaterial<TBranching>(node, bit));
                     return counters;
                 }
 
@@ -66,7 +64,7 @@ public static class StackWalk
                 // ray to the child's box with a slab test (counted); that box is the cell the walk is in, so its entry
                 // planes are behind the walk and the test's near time is the walk's own t: nothing to compute.
                 path[sp++] = node;
-                node = view.Fetch(TreeView.ChildIndex(node, bit), ref counters);
+                node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Descent();
                 counters.SlabTest();
                 dda.Descend<TBranching>(ray);
@@ -146,16 +144,14 @@ public static class StackWalk
     /// the ray's octant, so the caller leaves the node at once.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, in Node node, int octant, int bit,
+    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, int node, int octant, int bit,
         ref TCounters counters, bool countCulled)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
-        ulong occupancy = node.Occupancy;
-        ulong reach = view.Reach<TBranching>(octant, bit);
         if (countCulled)
-            counters.MaskCulled(BitOperations.PopCount(occupancy & ~reach));
-        if ((occupancy & reach) != 0)
+            counters.MaskCulled(view.CountUnreachable<TBranching>(node, octant, bit));
+        if (view.ReachesOccupied<TBranching>(node, octant, bit))
             return true;
         counters.MaskSkipped();
         return false;

@@ -92,7 +92,7 @@ public static class Tracer
             PrepassMap? map = definition.UsesPrepass ? prepass : null;
 
             long before = pixelsDone;
-            FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, request.Width, request.Height) : null;
+            FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, NodeLayout.For(request.Tree.Branching), request.Width, request.Height) : null;
             var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
             Parallel.For(0, tiles.Length, options, i =>
             {
@@ -131,7 +131,7 @@ public static class Tracer
         PrepassMap? prepass = job.Prepass;
         PixelHit[] hits = job.Hits;
         uint[][] buffers = job.Counters;
-        Span<Node> path = stackalloc Node[view.Depth + 1];
+        Span<int> path = stackalloc int[view.Depth + 1];
         int width = camera.Width;
         for (int y = y0; y < y1; y++)
         {

@@ -1,3 +1,4 @@
+using System.Numerics;
 using System.Runtime.CompilerServices;
 using VoxProf.Core.Trees;
 
@@ -7,16 +8,22 @@ namespace VoxProf.Core.Traversal;
 /// The read-only view of a tree every kernel traverses: node records, materials, level sizes and the directional mask
 /// table, gathered once per trace. A kernel (built-in or from a strategy file) can read the tree through it but not
 /// change it: every array is handed out as a read-only span.
+/// A kernel names a node by its index and asks about its cells through the methods below, which take the branching as
+/// a compile-time parameter: for 2³ and 4³ they read a 24-byte <see cref="Node"/> with 64-bit masks, for 8³ a
+/// 136-byte <see cref="Node8"/> with 512-bit masks, and the JIT keeps only the one that applies.
 /// </summary>
 public readonly struct TreeView
 {
     private readonly Node[] _nodes;
+    private readonly Node8[] _nodes8;
     private readonly byte[] _materials;
     private readonly ulong[] _directionMasks;
+    private readonly Mask512[] _directionMasks8;
 
     public TreeView(BrickTree tree)
     {
         _nodes = tree.Nodes;
+        _nodes8 = tree.Nodes8;
         _materials = tree.Materials;
         Depth = tree.Depth;
         Log2N = tree.Log2Branching;
@@ -25,11 +32,15 @@ public readonly struct TreeView
         ExtentX = tree.ExtentX;
         ExtentY = tree.ExtentY;
         ExtentZ = tree.ExtentZ;
-        _directionMasks = DirectionalMasks.For(tree.Branching);
+        _directionMasks = tree.Branching == 8 ? [] : DirectionalMasks.For(tree.Branching);
+        _directionMasks8 = tree.Branching == 8 ? DirectionalMasks.Wide : [];
     }
 
-    /// <summary>Node records; index 0 is the root.</summary>
+    /// <summary>Node records of a 2³ or 4³ tree (empty for 8³); index 0 is the root.</summary>
     public ReadOnlySpan<Node> Nodes => _nodes;
+
+    /// <summary>Node records of an 8³ tree (empty otherwise); index 0 is the root.</summary>
+    public ReadOnlySpan<Node8> Nodes8 => _nodes8;
 
     /// <summary>One material per solid cell, packed per node by rank.</summary>
     public ReadOnlySpan<byte> Materials => _materials;
@@ -45,32 +56,126 @@ public readonly struct TreeView
     /// <summary>The scene's extent in voxels: the volume is [0, Extent) on each axis.</summary>
     public readonly int ExtentX, ExtentY, ExtentZ;
 
-    /// <summary>Indexed [octant × N³ + cell]: every cell a ray in that octant can reach from that cell.</summary>
+    /// <summary>2³ and 4³: indexed [octant × N³ + cell], every cell a ray in that octant can reach from that cell.</summary>
     public ReadOnlySpan<ulong> DirectionMasks => _directionMasks;
+
+    /// <summary>8³: the same table with 512-bit masks (<see cref="DirectionalMasks.Wide"/>).</summary>
+    public ReadOnlySpan<Mask512> DirectionMasks8 => _directionMasks8;
 
     /// <summary>Cell bit of (cx, cy, cz) within a node, for code that does not know the branching at compile time.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public int CellBit(int cx, int cy, int cz) => cx | (cy << Log2N) | (cz << (2 * Log2N));
 
-    /// <summary>Reads node record <paramref name="index"/>, counting the read.</summary>
+    /// <summary>
+    /// Reads node record <paramref name="index"/>, counting the read, and returns the index the other methods take.
+    /// The modelled algorithm keeps the record it read until it moves to another node, so asking about its cells
+    /// again is not another read.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public Node Fetch<TCounters>(int index, ref TCounters counters) where TCounters : struct, ICostCounters
+    public int Fetch<TCounters>(int index, ref TCounters counters) where TCounters : struct, ICostCounters
     {
         counters.NodeFetch(index);
-        return _nodes[index];
+        return index;
     }
 
-    /// <summary>Index of the child node of an occupied, non-solid cell of <paramref name="node"/>.</summary>
+    /// <summary>Whether cell <paramref name="bit"/> of node <paramref name="node"/> holds a child or is solid.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public static int ChildIndex(in Node node, int bit) => node.FirstChild + BrickTree.Rank(node.ChildMask, bit);
+    public bool IsOccupied<TBranching>(int node, int bit) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            int w = bit >> 6;
+            return (((n.ChildMask[w] | n.SolidMask[w]) >> bit) & 1) != 0;
+        }
+        return ((_nodes[node].Occupancy >> bit) & 1) != 0;
+    }
+
+    /// <summary>Whether cell <paramref name="bit"/> of node <paramref name="node"/> is solid.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool IsSolid<TBranching>(int node, int bit) where TBranching : struct, IBranching =>
+        TBranching.Log2N == 3 ? _nodes8[node].SolidMask.Has(bit) : ((_nodes[node].SolidMask >> bit) & 1) != 0;
+
+    /// <summary>Index of the child node in an occupied, non-solid cell of <paramref name="node"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public int Child<TBranching>(int node, int bit) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            return n.FirstChild + n.ChildMask.Rank(bit);
+        }
+        ref readonly Node r = ref _nodes[node];
+        return r.FirstChild + BrickTree.Rank(r.ChildMask, bit);
+    }
 
     /// <summary>Material of a solid cell of <paramref name="node"/> (its bit is set in the solid mask).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public byte SolidMaterial(in Node node, int bit) => _materials[node.FirstMaterial + BrickTree.Rank(node.SolidMask, bit)];
+    public byte SolidMaterial<TBranching>(int node, int bit) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            return _materials[n.FirstMaterial + n.SolidMask.Rank(bit)];
+        }
+        ref readonly Node r = ref _nodes[node];
+        return _materials[r.FirstMaterial + BrickTree.Rank(r.SolidMask, bit)];
+    }
+
+    /// <summary>Number of 64-bit words in a node's masks: 1 for 2³ and 4³, 8 for 8³ (cell b is bit b mod 64 of word b / 64).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static int MaskWords<TBranching>() where TBranching : struct, IBranching => TBranching.Log2N == 3 ? Mask512.Words : 1;
+
+    /// <summary>Word <paramref name="word"/> of node <paramref name="node"/>'s occupancy (child or solid cells).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public ulong OccupancyWord<TBranching>(int node, int word) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            return n.ChildMask[word] | n.SolidMask[word];
+        }
+        return _nodes[node].Occupancy;
+    }
+
+    /// <summary>Whether node <paramref name="node"/> has no occupied cell.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool IsEmpty<TBranching>(int node) where TBranching : struct, IBranching =>
+        TBranching.Log2N == 3 ? _nodes8[node].ChildMask.IsEmpty && _nodes8[node].SolidMask.IsEmpty : _nodes[node].Occupancy == 0;
 
     /// <summary>
-    /// The cells of a node a ray in <paramref name="octant"/> can still reach from cell <paramref name="bit"/>
-    /// (<see cref="DirectionalMasks"/>); a node whose occupancy misses this set can be left at once.
+    /// Whether some occupied cell of <paramref name="node"/> is among those a ray in <paramref name="octant"/> can
+    /// still reach from cell <paramref name="bit"/> (<see cref="DirectionalMasks"/>); if none is, the node can be left
+    /// at once.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public bool ReachesOccupied<TBranching>(int node, int octant, int bit) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            ref readonly Mask512 reach = ref _directionMasks8[(octant << 9) + bit];
+            return n.ChildMask.Overlaps(reach) || n.SolidMask.Overlaps(reach);
+        }
+        return (_nodes[node].Occupancy & Reach<TBranching>(octant, bit)) != 0;
+    }
+
+    /// <summary>Number of occupied cells of <paramref name="node"/> a ray in <paramref name="octant"/> cannot reach from cell <paramref name="bit"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public int CountUnreachable<TBranching>(int node, int octant, int bit) where TBranching : struct, IBranching
+    {
+        if (TBranching.Log2N == 3)
+        {
+            ref readonly Node8 n = ref _nodes8[node];
+            ref readonly Mask512 reach = ref _directionMasks8[(octant << 9) + bit];
+            return n.ChildMask.CountOutside(reach) + n.SolidMask.CountOutside(reach);
+        }
+        return BitOperations.PopCount(_nodes[node].Occupancy & ~Reach<TBranching>(octant, bit));
+    }
+
+    /// <summary>
+    /// 2³ and 4³: the cells of a node a ray in <paramref name="octant"/> can still reach from cell
+    /// <paramref name="bit"/> as one 64-bit mask (8³ masks are <see cref="DirectionMasks8"/>).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public ulong Reach<TBranching>(int octant, int bit) where TBranching : struct, IBranching =>
@@ -82,19 +187,17 @@ public readonly struct TreeView
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
-        int index = 0;
+        int node = 0;
         int shift = RootShift;
         while (true)
         {
-            ref readonly Node node = ref _nodes[index];
-            counters.NodeFetch(index);
+            counters.NodeFetch(node);
             int bit = NodeCells<TBranching>.BitOf(x >> shift, y >> shift, z >> shift);
-            ulong b = 1UL << bit;
-            if ((node.SolidMask & b) != 0)
-                return SolidMaterial(node, bit);
-            if ((node.ChildMask & b) == 0)
+            if (IsSolid<TBranching>(node, bit))
+                return SolidMaterial<TBranching>(node, bit);
+            if (!IsOccupied<TBranching>(node, bit))
                 return 0;
-            index = ChildIndex(node, bit);
+            node = Child<TBranching>(node, bit);
             shift -= TBranching.Log2N;
         }
     }

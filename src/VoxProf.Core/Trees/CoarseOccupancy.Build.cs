@@ -1,5 +1,3 @@
-using System.Numerics;
-
 namespace VoxProf.Core.Trees;
 
 public sealed partial class CoarseOccupancy
@@ -10,21 +8,21 @@ public sealed partial class CoarseOccupancy
     /// </summary>
     private static void Mark(BrickTree tree, Level[] grids, int index, int level, long ox, long oy, long oz)
     {
-        Node node = tree.Nodes[index];
         int shift = tree.CellShift(level);
         int log2N = tree.Log2Branching, last = tree.Branching - 1;
         Level grid = grids[level];
         long bx = ox >> shift, by = oy >> shift, bz = oz >> shift;
-        for (ulong occupancy = node.Occupancy; occupancy != 0; occupancy &= occupancy - 1)
+        Span<int> occupied = stackalloc int[512];
+        int count = tree.OccupiedCells(index, occupied);
+        foreach (int bit in occupied[..count])
         {
-            int bit = BitOperations.TrailingZeroCount(occupancy);
             int cx = bit & last, cy = (bit >> log2N) & last, cz = bit >> (2 * log2N);
             long gx = bx + cx, gy = by + cy, gz = bz + cz;
             // Cells wholly outside the extent hold nothing a ray can hit.
             if (gx >= grid.SizeX - 2 || gy >= grid.SizeY - 2 || gz >= grid.SizeZ - 2)
                 continue;
             FillBox(grid, gx, gy, gz, 1);
-            if ((node.SolidMask & (1UL << bit)) != 0)
+            if (tree.IsSolidCell(index, bit))
             {
                 for (int finer = level + 1; finer < grids.Length; finer++)
                 {
@@ -34,7 +32,7 @@ public sealed partial class CoarseOccupancy
             }
             else if (level + 1 < grids.Length)
             {
-                Mark(tree, grids, node.FirstChild + BrickTree.Rank(node.ChildMask, bit), level + 1,
+                Mark(tree, grids, tree.ChildOf(index, bit), level + 1,
                     ox + ((long)cx << shift), oy + ((long)cy << shift), oz + ((long)cz << shift));
             }
         }

@@ -12,13 +12,22 @@ namespace VoxProf.Core.Trees;
 /// </summary>
 public static class TreeBuilder
 {
-    /// <param name="branching">Cells per node side: 2 (octree) or 4 (4×4×4 bricks).</param>
+    /// <param name="branching">Cells per node side: 2 (octree), 4 (4×4×4 bricks) or 8 (8×8×8 bricks).</param>
     /// <param name="threads">0 means every processor.</param>
     public static BrickTree Build(Scene scene, int branching, int threads = 0)
     {
         ArgumentNullException.ThrowIfNull(scene);
         ArgumentOutOfRangeException.ThrowIfNegative(threads);
         var clock = Stopwatch.StartNew();
+        if (branching == 8)
+        {
+            // An 8³ cell is an octree cell three levels down, and the octree builder already stores each region as
+            // empty, solid with one material or mixed: regrouping its levels in threes gives the 8³ tree.
+            (int depth8, Node8[] wide, byte[] wideMaterials) = OctreeRegrouping.Regroup(Build(scene, 2, threads));
+            var unmeasured = new BrickTree(depth8, scene.ExtentX, scene.ExtentY, scene.ExtentZ, wide, wideMaterials, null!);
+            return new BrickTree(depth8, scene.ExtentX, scene.ExtentY, scene.ExtentZ, wide, wideMaterials,
+                TreeMeasure.Measure(unmeasured, clock.Elapsed));
+        }
         var plan = new BuildPlan(scene, branching);
         int degree = threads == 0 ? Environment.ProcessorCount : threads;
 
@@ -31,7 +40,8 @@ public static class TreeBuilder
             _ => BuildMixed(plan, top, baseMaterial, rootLayers, degree),
         };
 
-        TreeStats stats = TreeMeasure.Measure(nodes, materials.Length, plan, clock.Elapsed);
+        var unmeasuredTree = new BrickTree(branching, plan.Depth, scene.ExtentX, scene.ExtentY, scene.ExtentZ, nodes, materials, null!);
+        TreeStats stats = TreeMeasure.Measure(unmeasuredTree, clock.Elapsed);
         return new BrickTree(branching, plan.Depth, scene.ExtentX, scene.ExtentY, scene.ExtentZ, nodes, materials,
             stats with { BuildTime = clock.Elapsed });
     }

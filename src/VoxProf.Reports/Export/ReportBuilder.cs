@@ -44,7 +44,7 @@ public static class ReportBuilder
                 Baseline = Baseline(stats, options.Baseline)?.Name,
                 PixelData = options.PixelData,
                 Memory = run.Results.Select(r => r.Memory?.Settings).FirstOrDefault(m => m is not null) is { } mem
-                    ? new MemoryInfo(mem.LineBytes, mem.CacheBytes, mem.Ways, mem.Group.Lanes, NodeLayout.RecordBytes)
+                    ? new MemoryInfo(mem.LineBytes, mem.CacheBytes, mem.Ways, mem.Group.Lanes, NodeLayout.For(settings.Branching).RecordBytes)
                     : null,
                 Subgroups = SubgroupShape.Standard.Select(g =>
                     new SubgroupInfo(g.Name, g.Lanes, g.TileWidth, g.TileHeight, g.TilesX(settings.Width) * g.TilesY(settings.Height))).ToArray(),

@@ -11,13 +11,23 @@ namespace VoxProf.Sweeps.Traversal;
 /// <summary>
 /// The acceptance check of the traversal: on every sample scene, every tree strategy finds exactly the grid reference's
 /// hit (voxel, distance, entry face and material) on every pixel, with and without the prepass (K = 2, 4, 8) and for
-/// both branching factors: the named cameras at the default 1280×720, and 200 seeded random cameras at 160×90.
+/// every branching factor (2, 4, 8): the named cameras at the default 1280×720, and 200 seeded random cameras at
+/// 160×90. The two sample strategy files are traced with the built-in ones.
 /// Every kernel follows one crossing order (docs/strategies.md), so no difference at all is allowed.
 /// </summary>
 public class SampleSceneAgreementTests(ITestOutputHelper output)
 {
     private const int RandomCameras = 200;
-    private static readonly StrategyDefinition[] Fast = [BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
+    private static readonly Lazy<StrategyDefinition[]> LazyFast = new(() =>
+    [
+        BuiltInStrategies.Slab, BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda,
+        .. StrategyFiles.Compile(Path.Combine(AppContext.BaseDirectory, "samples", "strategies", "hdda-again.cs")),
+        .. StrategyFiles.Compile(Path.Combine(AppContext.BaseDirectory, "samples", "strategies", "box-skip.cs")),
+    ]);
+
+    private static StrategyDefinition[] Fast => LazyFast.Value;
+
+    private static BrickTree[] Trees(Scene scene) => [TreeBuilder.Build(scene, 4), TreeBuilder.Build(scene, 2), TreeBuilder.Build(scene, 8)];
 
     public static TheoryData<string> Samples()
     {
@@ -34,11 +44,11 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
     public void Every_strategy_agrees_with_the_grid_reference_for_the_named_cameras_at_full_size(string file)
     {
         Scene scene = Load(file);
-        BrickTree[] trees = [TreeBuilder.Build(scene, 4), TreeBuilder.Build(scene, 2)];
+        BrickTree[] trees = Trees(scene);
         long compared = 0, hits = 0, bad = 0;
         foreach (CameraSpec cam in scene.Cameras)
         {
-            // grid reads the tree only to look voxels up, so one branching factor serves as the reference for both.
+            // grid reads the tree only to look voxels up, so one branching factor serves as the reference for all.
             PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 1280, 720, [BuiltInStrategies.Grid])).Reference!.Hits;
             hits += reference.Count(h => h.Hit);
             foreach (BrickTree tree in trees)
@@ -56,13 +66,13 @@ public class SampleSceneAgreementTests(ITestOutputHelper output)
     public void Every_strategy_agrees_with_the_grid_reference_for_random_cameras(string file)
     {
         Scene scene = Load(file);
-        BrickTree[] trees = [TreeBuilder.Build(scene, 4), TreeBuilder.Build(scene, 2)];
+        BrickTree[] trees = Trees(scene);
         var rng = new Random(20261201);
         long compared = 0, hits = 0, bad = 0;
         for (int c = 0; c < RandomCameras; c++)
         {
             CameraSpec cam = RandomCamera(rng, scene);
-            // Each camera gets both branching factors; the prepass block cycles through off, 2, 4 and 8.
+            // Each camera gets every branching factor; the prepass block cycles through off, 2, 4 and 8.
             int block = new[] { 0, 2, 4, 8 }[c % 4];
             PixelHit[] reference = Tracer.Run(new TraceRequest(scene, trees[0], cam, 160, 90, [BuiltInStrategies.Grid])).Reference!.Hits;
             hits += reference.Count(h => h.Hit);

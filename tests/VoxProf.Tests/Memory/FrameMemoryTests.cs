@@ -22,9 +22,9 @@ public sealed class FrameMemoryTests
     }
 
     /// <summary>Runs the frame through <see cref="FrameMemory"/> tile by tile, as the tracer does.</summary>
-    private static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings)
+    private static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings, int recordBytes = 24)
     {
-        var memory = new FrameMemory(settings, f.Width, f.Height);
+        var memory = new FrameMemory(settings, new NodeLayout(recordBytes), f.Width, f.Height);
         var buffers = new uint[CounterNames.Count][];
         for (int c = 0; c < buffers.Length; c++)
             buffers[c] = new uint[f.Width * f.Height];
@@ -51,9 +51,9 @@ public sealed class FrameMemoryTests
         return (memory.Finish(), buffers[(int)Counter.CacheLines]);
     }
 
-    private static IEnumerable<int> LinesOf(int node, int lineBytes)
+    private static IEnumerable<int> LinesOf(int node, int lineBytes, int recordBytes)
     {
-        long start = (long)node * 24, end = start + 23;
+        long start = (long)node * recordBytes, end = start + recordBytes - 1;
         for (long line = start / lineBytes; line <= end / lineBytes; line++)
             yield return (int)line;
     }
@@ -65,18 +65,20 @@ public sealed class FrameMemoryTests
         select y * f.Width + x;
 
     [Theory]
-    [InlineData(1, 64, 16384, 4)]
-    [InlineData(2, 128, 4096, 2)]
-    [InlineData(3, 64, 1024, 1)]
-    public void Pixel_and_group_lines_and_the_cache_replay_agree_with_an_obvious_replay(int seed, int lineBytes, int cacheBytes, int ways)
+    [InlineData(1, 64, 16384, 4, 24)]
+    [InlineData(2, 128, 4096, 2, 24)]
+    [InlineData(3, 64, 1024, 1, 24)]
+    [InlineData(4, 64, 16384, 4, 136)] // 8³ records: up to three 64-byte lines each
+    [InlineData(5, 128, 4096, 2, 136)]
+    public void Pixel_and_group_lines_and_the_cache_replay_agree_with_an_obvious_replay(int seed, int lineBytes, int cacheBytes, int ways, int recordBytes)
     {
         // 37 × 21: partial tracer tiles and partial groups at the right and bottom.
         Frame f = RandomFrame(seed, 37, 21);
         var settings = new MemorySettings(lineBytes, cacheBytes, ways);
-        (MemoryResult result, uint[] cacheLines) = Model(f, settings);
+        (MemoryResult result, uint[] cacheLines) = Model(f, settings, recordBytes);
 
         for (int p = 0; p < f.Reads.Length; p++)
-            cacheLines[p].Should().Be((uint)f.Reads[p].SelectMany(n => LinesOf(n, lineBytes)).Distinct().Count(), $"pixel {p}");
+            cacheLines[p].Should().Be((uint)f.Reads[p].SelectMany(n => LinesOf(n, lineBytes, recordBytes)).Distinct().Count(), $"pixel {p}");
 
         foreach (SubgroupShape s in SubgroupShape.Standard)
         {
@@ -86,7 +88,7 @@ public sealed class FrameMemoryTests
             {
                 for (int gx = 0; gx < s.TilesX(f.Width); gx++)
                 {
-                    int expected = PixelsOf(gx, gy, s, f).SelectMany(p => f.Reads[p]).SelectMany(n => LinesOf(n, lineBytes)).Distinct().Count();
+                    int expected = PixelsOf(gx, gy, s, f).SelectMany(p => f.Reads[p]).SelectMany(n => LinesOf(n, lineBytes, recordBytes)).Distinct().Count();
                     groups[gy * s.TilesX(f.Width) + gx].Should().Be((uint)expected, $"{s.Name} group ({gx}, {gy})");
                 }
             }
@@ -110,7 +112,7 @@ public sealed class FrameMemoryTests
                         int[][] lanes = PixelsOf(gx, gy, g, f).Select(p => f.Reads[p]).ToArray();
                         for (int k = 0; k < lanes.Max(l => l.Length); k++)
                         {
-                            foreach (int line in lanes.Where(l => k < l.Length).SelectMany(l => LinesOf(l[k], lineBytes)).Distinct())
+                            foreach (int line in lanes.Where(l => k < l.Length).SelectMany(l => LinesOf(l[k], lineBytes, recordBytes)).Distinct())
                             {
                                 List<int> set = cache[line % settings.Sets];
                                 accesses++;

@@ -10,9 +10,9 @@ internal static class DemoTrees
         SceneLoader.Load(Path.Combine(AppContext.BaseDirectory, "samples", "stonebrook-quarry.vpscene.json")));
 
     private static readonly Lazy<BrickTree>[] Trees =
-        [new(() => TreeBuilder.Build(Scene, 2, 2)), new(() => TreeBuilder.Build(Scene, 4, 2))];
+        [new(() => TreeBuilder.Build(Scene, 2, 2)), new(() => TreeBuilder.Build(Scene, 4, 2)), new(() => TreeBuilder.Build(Scene, 8, 2))];
 
     public static Scene Scene => LazyScene.Value;
 
-    public static BrickTree Tree(int branching) => Trees[branching == 2 ? 0 : 1].Value;
+    public static BrickTree Tree(int branching) => Trees[branching switch { 2 => 0, 4 => 1, _ => 2 }].Value;
 }

@@ -20,6 +20,7 @@ public class SampleStrategyTests
     [Theory]
     [InlineData(2)]
     [InlineData(4)]
+    [InlineData(8)]
     public void The_sample_that_writes_hdda_again_counts_exactly_what_hdda_counts(int branching)
     {
         BrickTree tree = DemoTrees.Tree(branching);
@@ -67,7 +68,7 @@ public class SampleStrategyTests
         int bad = 0;
         for (int seed = 1; seed <= 3; seed++)
         {
-            foreach (int branching in new[] { 2, 4 })
+            foreach (int branching in new[] { 2, 4, 8 })
             {
                 const int size = 40;
                 BrickTree tree = DenseTree.Build(size, size - 7, size + 5, KernelAgreementTests.RandomBlobs(seed, size, 12), branching);

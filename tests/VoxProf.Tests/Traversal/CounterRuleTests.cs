@@ -14,7 +14,7 @@ public class CounterRuleTests
 {
     private const int Width = 40, Height = 30;
 
-    public static TheoryData<int, int> Cases() => new() { { 2, 1 }, { 4, 2 }, { 2, 3 }, { 4, 4 } };
+    public static TheoryData<int, int> Cases() => new() { { 2, 1 }, { 4, 2 }, { 2, 3 }, { 4, 4 }, { 8, 5 } };
 
     private sealed record Case(BrickTree Tree, TraceRun Run, Camera Camera, PrepassMap? Prepass)
     {
@@ -220,12 +220,11 @@ public class CounterRuleTests
         for (int level = 0; level < tree.Depth; level++)
         {
             depth++;
-            Node node = tree.Nodes[index];
             int shift = tree.CellShift(level), m = tree.Branching - 1;
             int bit = tree.CellBit((x >> shift) & m, (y >> shift) & m, (z >> shift) & m);
-            if ((node.ChildMask & (1UL << bit)) == 0)
+            if (!tree.HasChild(index, bit))
                 break;
-            index = node.FirstChild + BrickTree.Rank(node.ChildMask, bit);
+            index = tree.ChildOf(index, bit);
         }
         return depth;
     }

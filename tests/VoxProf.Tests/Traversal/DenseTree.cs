@@ -11,7 +11,7 @@ internal static class DenseTree
 {
     private sealed class Temp
     {
-        public ulong Child, Solid;
+        public Mask512 Child, Solid;
         public readonly List<Temp> Children = [];
         public readonly List<byte> Materials = [];
     }
@@ -19,7 +19,7 @@ internal static class DenseTree
     public static BrickTree Build(int ex, int ey, int ez, Func<int, int, int, byte> material, int branching)
     {
         int depth = BrickTree.DepthFor(branching, Math.Max(ex, Math.Max(ey, ez)));
-        int log2 = branching == 2 ? 1 : 2;
+        int log2 = System.Numerics.BitOperations.Log2((uint)branching);
         int rootSize = 1 << (log2 * depth);
         byte Sample(int x, int y, int z) => x < ex && y < ey && z < ez ? material(x, y, z) : (byte)0;
 
@@ -41,8 +41,8 @@ internal static class DenseTree
                         int v = Classify(ox + cx * cs, oy + cy * cs, oz + cz * cs, cs, out Temp? child);
                         if (first == -2) first = v;
                         if (v != first || v == -1) uniform = false;
-                        if (v == -1) { t.Child |= 1UL << bit; t.Children.Add(child!); }
-                        else if (v > 0) { t.Solid |= 1UL << bit; t.Materials.Add((byte)v); }
+                        if (v == -1) { t.Child.Set(bit); t.Children.Add(child!); }
+                        else if (v > 0) { t.Solid.Set(bit); t.Materials.Add((byte)v); }
                     }
             if (uniform && size != rootSize)
                 return first;
@@ -51,7 +51,7 @@ internal static class DenseTree
         }
 
         Classify(0, 0, 0, rootSize, out Temp? root);
-        var nodes = new List<Node>();
+        var nodes = new List<Node8>();
         var materials = new List<byte>();
         var queue = new Queue<Temp>();
         queue.Enqueue(root!);
@@ -61,7 +61,7 @@ internal static class DenseTree
         while (queue.Count > 0)
         {
             Temp t = queue.Dequeue();
-            var n = new Node { ChildMask = t.Child, SolidMask = t.Solid, FirstChild = next, FirstMaterial = materials.Count };
+            var n = new Node8 { ChildMask = t.Child, SolidMask = t.Solid, FirstChild = next, FirstMaterial = materials.Count };
             materials.AddRange(t.Materials);
             foreach (Temp c in t.Children)
             {
@@ -72,7 +72,11 @@ internal static class DenseTree
             nodes[index++] = n;
         }
         var stats = new TreeStats(branching, depth, rootSize, [], [], [], 0, 0, TimeSpan.Zero);
-        return new BrickTree(branching, depth, ex, ey, ez, nodes.ToArray(), materials.ToArray(), stats);
+        if (branching == 8)
+            return new BrickTree(depth, ex, ey, ez, nodes.ToArray(), materials.ToArray(), stats);
+        // 2³ and 4³ cells fit the first word
+        Node[] narrow = nodes.Select(n => new Node { ChildMask = n.ChildMask[0], SolidMask = n.SolidMask[0], FirstChild = n.FirstChild, FirstMaterial = n.FirstMaterial }).ToArray();
+        return new BrickTree(branching, depth, ex, ey, ez, narrow, materials.ToArray(), stats);
     }
 
     public static Scene SceneOf(int ex, int ey, int ez, params CameraSpec[] cameras) =>

@@ -53,6 +53,8 @@ public class KernelAgreementTests
     [InlineData(4, 2)]
     [InlineData(2, 3)]
     [InlineData(4, 4)]
+    [InlineData(8, 5)]
+    [InlineData(8, 6)]
     public void Every_strategy_finds_the_voxel_the_grid_reference_finds(int branching, int seed)
     {
         const int size = 40;
@@ -119,6 +121,7 @@ public class KernelAgreementTests
     [Theory]
     [InlineData(2)]
     [InlineData(4)]
+    [InlineData(8)]
     public void A_camera_inside_a_solid_voxel_hits_it_at_distance_zero(int branching)
     {
         BrickTree tree = DenseTree.Build(16, 16, 16, (x, y, z) => y < 8 ? (byte)3 : (byte)0, branching);

@@ -12,7 +12,7 @@ namespace VoxProf.Tests.Trees;
 /// </summary>
 public class CoarseOccupancyTests
 {
-    public static TheoryData<int, int> Cases() => new() { { 2, 1 }, { 2, 2 }, { 4, 3 }, { 4, 4 }, { 4, 5 } };
+    public static TheoryData<int, int> Cases() => new() { { 2, 1 }, { 2, 2 }, { 4, 3 }, { 4, 4 }, { 4, 5 }, { 8, 6 } };
 
     [Theory]
     [MemberData(nameof(Cases))]

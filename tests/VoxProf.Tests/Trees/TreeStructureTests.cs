@@ -9,11 +9,13 @@ namespace VoxProf.Tests.Trees;
 public class TreeStructureTests
 {
     [Fact]
-    public void Node_record_is_24_bytes() => Unsafe.SizeOf<Node>().Should().Be(24);
+    public void Node_record_is_24_bytes_and_the_8_cubed_record_136() =>
+        (Unsafe.SizeOf<Node>(), Unsafe.SizeOf<Node8>()).Should().Be((24, 136));
 
     [Theory]
     [InlineData(2)]
     [InlineData(4)]
+    [InlineData(8)]
     public void Every_occupied_cell_is_a_child_or_a_solid_cell_and_every_record_is_reached_once(int branching)
     {
         for (int seed = 200; seed < 240; seed++)
@@ -30,14 +32,23 @@ public class TreeStructureTests
         Problems(tree).Should().BeEmpty(because);
     }
 
+    private static Node8 Widen(Node n)
+    {
+        var wide = new Node8 { FirstChild = n.FirstChild, FirstMaterial = n.FirstMaterial };
+        wide.ChildMask[0] = n.ChildMask;
+        wide.SolidMask[0] = n.SolidMask;
+        return wide;
+    }
+
     // Plain checks collected as text: an assertion call per record would dominate the run time on large trees.
     private static List<string> Problems(BrickTree tree)
     {
         var problems = new List<string>();
-        Node[] nodes = tree.Nodes;
+        // One record type for every branching: a 2³ or 4³ record's masks are the first word of a 512-bit mask.
+        Node8[] nodes = tree.Branching == 8 ? tree.Nodes8 : tree.Nodes.Select(Widen).ToArray();
         byte[] materials = tree.Materials;
         int cells = tree.Branching * tree.Branching * tree.Branching;
-        ulong full = cells == 64 ? ulong.MaxValue : (1UL << cells) - 1;
+        ulong firstWordFull = cells >= 64 ? ulong.MaxValue : (1UL << cells) - 1;
         var nodeOwned = new bool[nodes.Length];
         var materialOwned = new bool[materials.Length];
         nodeOwned[0] = true;
@@ -47,25 +58,25 @@ public class TreeStructureTests
         while (pending.Count > 0 && problems.Count < 10)
         {
             (int index, int level, int x, int y, int z) = pending.Pop();
-            Node node = nodes[index];
+            Node8 node = nodes[index];
             int cellSide = 1 << tree.CellShift(level);
-            if ((node.ChildMask & node.SolidMask) != 0)
+            if (node.ChildMask.Overlaps(node.SolidMask))
                 problems.Add($"node {index}: a cell is both a child and solid");
-            if ((node.Occupancy & ~full) != 0)
+            if ((node.Occupancy[0] & ~firstWordFull) != 0)
                 problems.Add($"node {index}: bits beyond the {cells} cells");
-            if (index != 0 && node.Occupancy == 0)
+            if (index != 0 && node.Occupancy.IsEmpty)
                 problems.Add($"node {index}: empty node below the root");
-            if (level == tree.Depth - 1 && node.ChildMask != 0)
+            if (level == tree.Depth - 1 && !node.ChildMask.IsEmpty)
                 problems.Add($"node {index}: a leaf has children");
 
             for (int bit = 0; bit < cells; bit++)
             {
                 var cell = Box3i.Cube(x + bit % n * cellSide, y + bit / n % n * cellSide, z + bit / (n * n) * cellSide, cellSide);
-                if ((node.SolidMask >> bit & 1) != 0 && !tree.Bounds.ContainsBox(cell))
+                if (node.SolidMask.Has(bit) && !tree.Bounds.ContainsBox(cell))
                     problems.Add($"node {index}: solid cell {bit} reaches outside the extent");
-                if ((node.ChildMask >> bit & 1) == 0)
+                if (!node.ChildMask.Has(bit))
                     continue;
-                int child = node.FirstChild + BrickTree.Rank(node.ChildMask, bit);
+                int child = node.FirstChild + node.ChildMask.Rank(bit);
                 if (child < 1 || child >= nodes.Length)
                     problems.Add($"node {index}: child {child} out of range");
                 else if (nodeOwned[child])
@@ -77,7 +88,7 @@ public class TreeStructureTests
                 }
             }
 
-            int solids = BitOperations.PopCount(node.SolidMask);
+            int solids = node.SolidMask.Count;
             if (node.FirstMaterial < 0 || node.FirstMaterial + solids > materials.Length)
             {
                 problems.Add($"node {index}: materials out of range");
@@ -91,7 +102,7 @@ public class TreeStructureTests
                 if (materials[m] == 0)
                     problems.Add($"material {m} of node {index} is 0");
             }
-            if (index != 0 && node.SolidMask == full &&
+            if (index != 0 && solids == cells &&
                 materials.AsSpan(node.FirstMaterial, cells).IndexOfAnyExcept(materials[node.FirstMaterial]) < 0)
                 problems.Add($"node {index} is one material throughout and should be a solid cell of its parent");
         }

@@ -1,19 +1,17 @@
-using System.Numerics;
-using System.Runtime.CompilerServices;
-
 namespace VoxProf.Core.Trees.Building;
 
 /// <summary>Counts a finished tree level by level by walking it from the root.</summary>
 internal static class TreeMeasure
 {
-    public static TreeStats Measure(Node[] nodes, int materialCount, BuildPlan plan, TimeSpan buildTime)
+    /// <summary>The stats of <paramref name="tree"/> (whose own <see cref="BrickTree.Stats"/> are not read).</summary>
+    public static TreeStats Measure(BrickTree tree, TimeSpan buildTime)
     {
-        int depth = plan.Depth;
+        int depth = tree.Depth;
         long[] nodesPerLevel = new long[depth];
         long[] solidPerLevel = new long[depth];
         long[] bytesPerLevel = new long[depth];
         long solidVoxels = 0;
-        int nodeSize = Unsafe.SizeOf<Node>();
+        int nodeSize = tree.RecordBytes;
 
         // Depth-first with an explicit stack: at most N³ pending siblings per level.
         var stack = new Stack<(int Index, int Level)>();
@@ -21,20 +19,19 @@ internal static class TreeMeasure
         while (stack.Count > 0)
         {
             (int index, int level) = stack.Pop();
-            Node node = nodes[index];
-            int solids = BitOperations.PopCount(node.SolidMask);
+            (int solids, int children) = tree.CellCounts(index);
             nodesPerLevel[level]++;
             solidPerLevel[level] += solids;
             bytesPerLevel[level] += nodeSize + solids;
-            long side = 1L << plan.CellShift(level);
+            long side = 1L << tree.CellShift(level);
             solidVoxels += solids * side * side * side;
-            int children = BitOperations.PopCount(node.ChildMask);
+            int first = tree.FirstChildOf(index);
             for (int c = children - 1; c >= 0; c--)
-                stack.Push((node.FirstChild + c, level + 1));
+                stack.Push((first + c, level + 1));
         }
 
-        long totalBytes = (long)nodes.Length * nodeSize + materialCount;
-        return new TreeStats(plan.N, depth, plan.RootSize, nodesPerLevel, solidPerLevel, bytesPerLevel,
+        long totalBytes = (long)tree.NodeCount * nodeSize + tree.Materials.Length;
+        return new TreeStats(tree.Branching, depth, tree.RootSize, nodesPerLevel, solidPerLevel, bytesPerLevel,
             solidVoxels, totalBytes, buildTime);
     }
 }

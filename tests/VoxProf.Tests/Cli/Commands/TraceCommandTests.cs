@@ -58,7 +58,7 @@ public sealed class TraceCommandTests : IDisposable
     [InlineData("--strategy dda,zigzag", "--strategy: unknown strategy 'zigzag'; expected one of: grid, slab, dda, dda-mask, hdda")]
     [InlineData("--counters iterations,steps", "--counters: unknown counter 'steps'; expected one of: iterations,")]
     [InlineData("--prepass 3", "--prepass: 3 is not valid, expected 2, 4 or 8")]
-    [InlineData("--branching 8", "--branching: 8 is not valid, expected 2 or 4")]
+    [InlineData("--branching 16", "--branching: 16 is not valid, expected 2, 4 or 8")]
     [InlineData("--scale cubic", "--scale: 'cubic' is not valid, expected one of: linear, log")]
     [InlineData("--range 9:1", "--range: '9:1' is not a valid range")]
     [InlineData("--baseline hdda --strategy grid,dda", "--baseline: hdda is not among the traced strategies")]
