@@ -30,7 +30,7 @@ public struct BoxSkip : IStrategy
     /// <summary>Grows the box by this much (in voxels) on every side, so rounding can only cost a skip, never a hit.</summary>
     private const double Margin = 1.0 / 16;
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -38,7 +38,7 @@ public struct BoxSkip : IStrategy
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
 
-        int node = view.Fetch(0, ref counters);
+        NodeRef node = view.Fetch(0, ref counters);
         int depth = 0;
         int s = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> s, start.Y >> s, start.Z >> s, s);
@@ -56,7 +56,7 @@ public struct BoxSkip : IStrategy
                 }
 
                 // Test the segment left in this cell against the child's occupied box
-                int child = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
+                NodeRef child = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Extra(BoxTests, 1);
                 counters.SlabTest();
                 if (SegmentMeetsBox<TBranching>(view, ray, dda, child))
@@ -93,7 +93,7 @@ public struct BoxSkip : IStrategy
     }
 
     /// <summary>Whether the ray between the walk's t and the current cell's exit meets the box of the occupied child cells.</summary>
-    private static bool SegmentMeetsBox<TBranching>(in TreeView view, in RaySetup ray, in DdaState dda, int child)
+    private static bool SegmentMeetsBox<TBranching>(in TreeView view, in RaySetup ray, in DdaState dda, NodeRef child)
         where TBranching : struct, IBranching
     {
         // The child's occupied cells' index ranges on each axis (its masks are one 64-bit word, or eight for 8³)

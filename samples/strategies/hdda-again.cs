@@ -15,7 +15,7 @@ public struct HddaAgain : IStrategy
     public static string Name => "hdda-again";
     public static string Description => "hierarchical DDA, written as a strategy file";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -26,8 +26,8 @@ public struct HddaAgain : IStrategy
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
 
-        // One DDA state at the root's level, and the root's record (a node is named by its index)
-        int node = view.Fetch(0, ref counters);
+        // One DDA state at the root's level, and the root's record (held as the NodeRef the read returned)
+        NodeRef node = view.Fetch(0, ref counters);
         int depth = 0;
         int s = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> s, start.Y >> s, start.Z >> s, s);

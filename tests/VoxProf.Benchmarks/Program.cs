@@ -51,6 +51,13 @@ if (args.Length > 5 && args[0] == "side")
     (int sw, int sh) = Size(args[4]);
     return SideBySide.Run(args[1], args[2], args[3], sw, sh, int.Parse(args[5]), args.Length > 6 ? Size(args[6]) : null, Console.Out);
 }
+if (args.Length > 4 && args[0] == "kernels")
+{
+    // kernels SCENE CAMERA WxH REPS [BRANCHING]: see KernelTiming.
+    (int kw, int kh) = Size(args[3]);
+    KernelTiming.Run(SceneLoader.Load(args[1]), args[2], kw, kh, int.Parse(args[4]), args.Length > 5 ? int.Parse(args[5]) : 4, Console.Out);
+    return 0;
+}
 if (args.Length > 1 && args[0] == "png")
 {
     PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);

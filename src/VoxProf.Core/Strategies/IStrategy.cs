@@ -27,12 +27,12 @@ public interface IStrategy
 
     /// <summary>
     /// Traces one ray from parameter <paramref name="tMin"/> and returns its counts. On a hit, sets
-    /// <paramref name="hit"/> (it arrives cleared). <paramref name="path"/> is scratch for one node index per level
+    /// <paramref name="hit"/> (it arrives cleared). <paramref name="path"/> is scratch for one <see cref="NodeRef"/> per level
     /// (<see cref="TreeView.Depth"/> of them), reused across rays. <typeparamref name="TBranching"/> is
     /// <see cref="Branching2"/>, <see cref="Branching4"/> or <see cref="Branching8"/>: a strategy works on every
     /// branching when it asks about cells through <see cref="TreeView"/>'s methods.
     /// </summary>
-    static abstract TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    static abstract TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters;
 }

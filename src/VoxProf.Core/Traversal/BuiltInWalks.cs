@@ -10,7 +10,7 @@ public struct SlabStrategy : IStrategy
     public static string Name => "slab";
     public static string Description => "stack walk; each step inside a node is a Williams et al. slab test of the current cell";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters =>
         StackWalk.Trace<SlabMode, TBranching, TCounters>(view, ray, tMin, path, ref hit);
@@ -22,7 +22,7 @@ public struct DdaStrategy : IStrategy
     public static string Name => "dda";
     public static string Description => "stack walk; slab tests between levels, DDA steps inside a node";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters =>
         StackWalk.Trace<DdaMode, TBranching, TCounters>(view, ray, tMin, path, ref hit);
@@ -34,7 +34,7 @@ public struct DdaMaskStrategy : IStrategy
     public static string Name => "dda-mask";
     public static string Description => "dda plus directional occupancy-mask culling";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters =>
         StackWalk.Trace<MaskedDdaMode, TBranching, TCounters>(view, ray, tMin, path, ref hit);

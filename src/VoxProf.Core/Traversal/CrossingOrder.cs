@@ -37,7 +37,9 @@ public static class CrossingOrder
         // A first guess from the point on the ray. One rounding can put that point on the other side of a plane than the
         // plane's own time says, so the guess may be one cell off; the plane times of its two faces settle it.
         double p = Math.Floor(o + t * d);
-        int k = p < lo ? 0 : p >= lo + ((long)count << shift) ? count - 1 : ((int)p - lo) >> shift;
+        // p is inside [lo, lo + count·2^shift) when converted, so the processor's own conversion is exact and the
+        // saturating checks of a C# cast would be dead weight on every descent.
+        int k = p < lo ? 0 : p >= lo + ((long)count << shift) ? count - 1 : (double.ConvertToIntegerNative<int>(p) - lo) >> shift;
         int size = 1 << shift;
         if (parallel)
         {

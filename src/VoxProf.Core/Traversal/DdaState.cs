@@ -24,12 +24,12 @@ public struct DdaState
     public double T;
     /// <summary>Axis of the latest crossing, or -1 (none: the walk's key is (T, LastAxis)).</summary>
     public int LastAxis;
-    /// <summary>Time at which the ray crosses the next plane on each axis.</summary>
+    /// <summary>
+    /// Time at which the ray crosses the next plane on each axis. The plane itself is not stored: it is the current
+    /// cell's far face, an integer the step recomputes, which keeps the state small enough for the JIT to hold in
+    /// registers (the `kernels` benchmark).
+    /// </summary>
     public double TMaxX, TMaxY, TMaxZ;
-    /// <summary>Coordinate of the next plane on each axis: an exact integer multiple of the cell size.</summary>
-    public double PlaneX, PlaneY, PlaneZ;
-    /// <summary>Signed cell size: what a step adds to the plane coordinate.</summary>
-    public double PlaneStepX, PlaneStepY, PlaneStepZ;
 
     /// <summary>Starts in cell (x, y, z) of size 2^<paramref name="shift"/> at key (<paramref name="t"/>, <paramref name="lastAxis"/>).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -40,19 +40,22 @@ public struct DdaState
         return dda;
     }
 
-    /// <summary>Sets the next planes and their times from the current cell: the DDA's only set-up.</summary>
+    /// <summary>Sets the next planes' times from the current cell: the DDA's only set-up.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public void Restart(in RaySetup ray)
     {
-        int s = Shift;
-        PlaneX = (X + (ray.StepX > 0 ? 1 : 0)) << s;
-        PlaneY = (Y + (ray.StepY > 0 ? 1 : 0)) << s;
-        PlaneZ = (Z + (ray.StepZ > 0 ? 1 : 0)) << s;
-        SetPlaneSteps(ray);
-        TMaxX = ray.ParallelX ? double.PositiveInfinity : CrossingOrder.Time(PlaneX, ray.Ox, ray.Ix);
-        TMaxY = ray.ParallelY ? double.PositiveInfinity : CrossingOrder.Time(PlaneY, ray.Oy, ray.Iy);
-        TMaxZ = ray.ParallelZ ? double.PositiveInfinity : CrossingOrder.Time(PlaneZ, ray.Oz, ray.Iz);
+        TMaxX = ray.ParallelX ? double.PositiveInfinity : NextTime(X, ray.StepX, ray.Ox, ray.Ix);
+        TMaxY = ray.ParallelY ? double.PositiveInfinity : NextTime(Y, ray.StepY, ray.Oy, ray.Iy);
+        TMaxZ = ray.ParallelZ ? double.PositiveInfinity : NextTime(Z, ray.StepZ, ray.Oz, ray.Iz);
     }
+
+    /// <summary>
+    /// Time of the plane a ray moving <paramref name="step"/> leaves cell <paramref name="cell"/> through: its high
+    /// face moving up, its low face moving down, in closed form from the plane's integer coordinate.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private readonly double NextTime(int cell, int step, double o, double inv) =>
+        CrossingOrder.Time((cell + ((step + 1) >> 1)) << Shift, o, inv);
 
     /// <summary>Advances to the next cell along the smallest t; false (and no change) when that cell starts after <paramref name="tEnd"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -73,8 +76,7 @@ public struct DdaState
             leftNode = false;
             if (TMaxX > tEnd) return false;
             T = TMaxX; X += ray.StepX; LastAxis = 0;
-            PlaneX += PlaneStepX;
-            TMaxX = CrossingOrder.Time(PlaneX, ray.Ox, ray.Ix);
+            TMaxX = NextTime(X, ray.StepX, ray.Ox, ray.Ix);
             leftNode = (X & last) == (ray.StepX > 0 ? 0 : last);
         }
         else if (TMaxY <= TMaxZ)
@@ -82,8 +84,7 @@ public struct DdaState
             leftNode = false;
             if (TMaxY > tEnd) return false;
             T = TMaxY; Y += ray.StepY; LastAxis = 1;
-            PlaneY += PlaneStepY;
-            TMaxY = CrossingOrder.Time(PlaneY, ray.Oy, ray.Iy);
+            TMaxY = NextTime(Y, ray.StepY, ray.Oy, ray.Iy);
             leftNode = (Y & last) == (ray.StepY > 0 ? 0 : last);
         }
         else
@@ -91,8 +92,7 @@ public struct DdaState
             leftNode = false;
             if (TMaxZ > tEnd) return false;
             T = TMaxZ; Z += ray.StepZ; LastAxis = 2;
-            PlaneZ += PlaneStepZ;
-            TMaxZ = CrossingOrder.Time(PlaneZ, ray.Oz, ray.Iz);
+            TMaxZ = NextTime(Z, ray.StepZ, ray.Oz, ray.Iz);
             leftNode = (Z & last) == (ray.StepZ > 0 ? 0 : last);
         }
         return true;
@@ -138,10 +138,9 @@ public struct DdaState
         int shift = Shift - TBranching.Log2N;
         int n = NodeCells<TBranching>.N;
         Shift = shift;
-        X = (lx >> shift) + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, T, LastAxis, lx, n, shift, out PlaneX, out TMaxX);
-        Y = (ly >> shift) + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, T, LastAxis, ly, n, shift, out PlaneY, out TMaxY);
-        Z = (lz >> shift) + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, T, LastAxis, lz, n, shift, out PlaneZ, out TMaxZ);
-        SetPlaneSteps(ray);
+        X = (lx >> shift) + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, T, LastAxis, lx, n, shift, out _, out TMaxX);
+        Y = (ly >> shift) + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, T, LastAxis, ly, n, shift, out _, out TMaxY);
+        Z = (lz >> shift) + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, T, LastAxis, lz, n, shift, out _, out TMaxZ);
     }
 
     /// <summary>
@@ -161,13 +160,4 @@ public struct DdaState
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public readonly void SetHit(ref PixelHit hit, in RaySetup ray, byte material) =>
         RayStart.SetHit(ref hit, ray, X << Shift, Y << Shift, Z << Shift, Shift, T, LastAxis, material);
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private void SetPlaneSteps(in RaySetup ray)
-    {
-        double size = 1 << Shift;
-        PlaneStepX = ray.StepX * size;
-        PlaneStepY = ray.StepY * size;
-        PlaneStepZ = ray.StepZ * size;
-    }
 }

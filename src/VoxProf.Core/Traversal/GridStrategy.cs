@@ -15,7 +15,7 @@ public struct GridStrategy : IStrategy
     public static string Description => "Amanatides & Woo 3D DDA over the finest voxels, with a tree lookup per voxel";
     public static bool UsesPrepass => false;
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {

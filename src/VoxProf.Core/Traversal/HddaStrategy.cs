@@ -16,7 +16,7 @@ public struct HddaStrategy : IStrategy
     public static string Name => "hdda";
     public static string Description => "Museth's hierarchical DDA: one DDA state that changes level";
 
-    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
@@ -27,7 +27,7 @@ public struct HddaStrategy : IStrategy
         double tExit = start.TExit;
 
         // One DDA state at the root's level, and the root's record
-        int node = view.Fetch(0, ref counters);
+        NodeRef node = view.Fetch(0, ref counters);
         int depth = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);

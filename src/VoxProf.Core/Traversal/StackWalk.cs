@@ -25,7 +25,7 @@ public interface IWalkMode
 /// </summary>
 public static class StackWalk
 {
-    public static TCounters Trace<TMode, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+    public static TCounters Trace<TMode, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TMode : struct, IWalkMode
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
@@ -38,7 +38,7 @@ public static class StackWalk
         int octant = ray.Octant;
 
         // Enter the root at the start point
-        int node = view.Fetch(0, ref counters);
+        NodeRef node = view.Fetch(0, ref counters);
         int sp = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -144,7 +144,7 @@ public static class StackWalk
     /// the ray's octant, so the caller leaves the node at once.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, int node, int octant, int bit,
+    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, NodeRef node, int octant, int bit,
         ref TCounters counters, bool countCulled)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters

@@ -131,7 +131,7 @@ public static class Tracer
         PrepassMap? prepass = job.Prepass;
         PixelHit[] hits = job.Hits;
         uint[][] buffers = job.Counters;
-        Span<int> path = stackalloc int[view.Depth + 1];
+        Span<NodeRef> path = stackalloc NodeRef[view.Depth + 1];
         int width = camera.Width;
         for (int y = y0; y < y1; y++)
         {

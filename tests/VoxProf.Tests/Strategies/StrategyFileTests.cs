@@ -29,7 +29,7 @@ public sealed class StrategyFileTests : IDisposable
             public static string Name => "{{name}}";
             public static string Description => "test";
             {{counters}}
-            public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<int> path, ref PixelHit hit)
+            public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
                 where TBranching : struct, IBranching where TCounters : struct, ICostCounters
             {
                 TCounters counters = default;
