@@ -34,6 +34,17 @@ public static class LargeArrays
         return array;
     }
 
+    /// <summary>
+    /// As <see cref="Uninitialized{T}"/>, cleared: for arrays read at random for the whole run (the tree's node
+    /// records), where 2 MiB pages also spare the processor's address translation a miss on most reads.
+    /// </summary>
+    public static T[] Zeroed<T>(int length) where T : unmanaged
+    {
+        T[] array = Uninitialized<T>(length);
+        Array.Clear(array);
+        return array;
+    }
+
     /// <summary>The whole 2 MiB pages inside [start, start + bytes): the kernel backs only aligned huge pages.</summary>
     private static void Advise(nint start, long bytes)
     {

@@ -170,8 +170,7 @@ public readonly struct TreeView
         if (TBranching.Log2N == 3)
         {
             ref readonly Node8 n = ref N8(node);
-            ref readonly Mask512 reach = ref _directionMasks8[(octant << 9) + bit];
-            return n.ChildMask.Overlaps(reach) || n.SolidMask.Overlaps(reach);
+            return Mask512.AnyInUnion(n.ChildMask, n.SolidMask, _directionMasks8[(octant << 9) + bit]);
         }
         return (N4(node).Occupancy & Reach<TBranching>(octant, bit)) != 0;
     }
@@ -183,8 +182,8 @@ public readonly struct TreeView
         if (TBranching.Log2N == 3)
         {
             ref readonly Node8 n = ref N8(node);
-            ref readonly Mask512 reach = ref _directionMasks8[(octant << 9) + bit];
-            return n.ChildMask.CountOutside(reach) + n.SolidMask.CountOutside(reach);
+            // Child and solid cells are disjoint: the union's count is the sum of the two.
+            return Mask512.CountUnionOutside(n.ChildMask, n.SolidMask, _directionMasks8[(octant << 9) + bit]);
         }
         return BitOperations.PopCount(N4(node).Occupancy & ~Reach<TBranching>(octant, bit));
     }

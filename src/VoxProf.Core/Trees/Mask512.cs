@@ -1,5 +1,6 @@
 using System.Numerics;
 using System.Runtime.CompilerServices;
+using System.Runtime.Intrinsics;
 
 namespace VoxProf.Core.Trees;
 
@@ -59,23 +60,45 @@ public struct Mask512
 
     /// <summary>Whether this mask and <paramref name="other"/> share a set bit.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public readonly bool Overlaps(in Mask512 other)
-    {
-        ulong any = 0;
-        for (int w = 0; w < Words; w++)
-            any |= this[w] & other[w];
-        return any != 0;
-    }
+    public readonly bool Overlaps(in Mask512 other) => AnyInUnion(this, default, other);
 
     /// <summary>Number of bits set here and clear in <paramref name="other"/>.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public readonly int CountOutside(in Mask512 other)
+    public readonly int CountOutside(in Mask512 other) => CountUnionOutside(this, default, other);
+
+    /// <summary>
+    /// Whether (<paramref name="a"/> | <paramref name="b"/>) &amp; <paramref name="within"/> has a set bit: a node's
+    /// occupancy (child | solid) against a directional mask, on every step of dda-mask, so it is done 256 bits at a
+    /// time where the processor can (the kernels benchmark at --branching 8).
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static bool AnyInUnion(in Mask512 a, in Mask512 b, in Mask512 within)
+    {
+        if (Vector256.IsHardwareAccelerated)
+        {
+            Vector256<ulong> lo = (Half(a, 0) | Half(b, 0)) & Half(within, 0);
+            Vector256<ulong> hi = (Half(a, 1) | Half(b, 1)) & Half(within, 1);
+            return (lo | hi) != Vector256<ulong>.Zero;
+        }
+        ulong any = 0;
+        for (int w = 0; w < Words; w++)
+            any |= (a[w] | b[w]) & within[w];
+        return any != 0;
+    }
+
+    /// <summary>Number of bits set in <paramref name="a"/> | <paramref name="b"/> and clear in <paramref name="outsideOf"/>.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static int CountUnionOutside(in Mask512 a, in Mask512 b, in Mask512 outsideOf)
     {
         int count = 0;
         for (int w = 0; w < Words; w++)
-            count += BitOperations.PopCount(this[w] & ~other[w]);
+            count += BitOperations.PopCount((a[w] | b[w]) & ~outsideOf[w]);
         return count;
     }
+
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<ulong> Half(in Mask512 m, int half) =>
+        Unsafe.Add(ref Unsafe.As<Mask512, Vector256<ulong>>(ref Unsafe.AsRef(in m)), half);
 
     /// <summary>The union of two masks.</summary>
     public static Mask512 Or(in Mask512 a, in Mask512 b)

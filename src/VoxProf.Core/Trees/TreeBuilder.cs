@@ -96,7 +96,7 @@ public static class TreeBuilder
         // A root solid with one material has no parent to hold that cell: store it as a node with every cell solid.
         int rootMaterials = root.Kind == CellKind.Solid ? plan.CellsPerNode : 0;
 
-        var nodes = new Node[1 + taskNodes + topNodes.Length];
+        Node[] nodes = LargeArrays.Zeroed<Node>(1 + taskNodes + topNodes.Length);
         var materials = new byte[taskMaterials + topMaterials.Length + rootMaterials];
         nodes[0] = root.Kind switch
         {

@@ -57,7 +57,9 @@ internal static class OctreeRegrouping
             if (nodes.Count > Array.MaxLength || materials.Count > Array.MaxLength - 512)
                 throw new InvalidOperationException("the tree has more nodes or materials than one array can hold");
         }
-        return (depth, [.. nodes], [.. materials]);
+        Node8[] records = LargeArrays.Zeroed<Node8>(nodes.Count);
+        nodes.CopyTo(records);
+        return (depth, records, [.. materials]);
     }
 
     /// <summary>The 512 regions of a cube's cells three octree levels down, cell x + 8y + 64z.</summary>
