@@ -21,7 +21,7 @@ public interface IWalkMode
 /// The stack walk behind the slab, dda and dda-mask strategies. Between levels it restarts with a Williams et al. slab
 /// test of the child's box; inside a node it steps by slab tests of the current cell or by Amanatides &amp; Woo DDA,
 /// optionally culling with directional occupancy masks. Each iteration visits one cell at some level; the path holds
-/// the indices of the nodes above the current one. Counter definitions: docs/counters.md.
+/// the nodes above the current one. Counter definitions: docs/counters.md.
 /// </summary>
 public static class StackWalk
 {
