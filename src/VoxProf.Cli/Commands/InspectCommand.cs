@@ -23,7 +23,7 @@ public static class InspectCommand
         branching.Validators.Add(r =>
         {
             // Validators also run when the value did not parse; leave that error to the parser.
-            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && n is not (2 or 4 or 8))
+            if (r.Tokens.Count == 1 && int.TryParse(r.Tokens[0].Value, out int n) && !BrickTree.Branchings.Contains(n))
                 r.AddError($"--branching: expected 2, 4 or 8, got {n}");
         });
         var format = new Option<string>("--format")

@@ -97,7 +97,7 @@ public static class TraceCommand
                 if (parse.GetValue(prepass) is { } k && k is not (2 or 4 or 8))
                     throw new InputException($"--prepass: {k} is not valid, expected 2, 4 or 8");
                 int branch = parse.GetValue(branching);
-                if (branch is not (2 or 4 or 8))
+                if (!BrickTree.Branchings.Contains(branch))
                     throw new InputException($"--branching: {branch} is not valid, expected 2, 4 or 8");
                 int threadCount = parse.GetValue(threads);
                 if (threadCount < 0)

@@ -12,7 +12,6 @@ namespace VoxProf.Core.Trees;
 public struct Mask512
 {
     public const int Words = 8;
-    public const int Bits = 512;
 
     private ulong _word;
 

@@ -16,8 +16,5 @@ public struct Node8
     public int FirstChild;
     public int FirstMaterial;
 
-    /// <summary>Whether cell <paramref name="bit"/> holds a child or is solid.</summary>
-    public readonly bool IsOccupied(int bit) => ChildMask.Has(bit) || SolidMask.Has(bit);
-
     public readonly Mask512 Occupancy => Mask512.Or(ChildMask, SolidMask);
 }

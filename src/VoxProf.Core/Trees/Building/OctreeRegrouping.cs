@@ -57,7 +57,8 @@ internal static class OctreeRegrouping
             if (nodes.Count > Array.MaxLength || materials.Count > Array.MaxLength - 512)
                 throw new InvalidOperationException("the tree has more nodes or materials than one array can hold");
         }
-        Node8[] records = LargeArrays.Zeroed<Node8>(nodes.Count);
+        // The copy writes every record, so the array needs no clearing first.
+        Node8[] records = LargeArrays.Uninitialized<Node8>(nodes.Count);
         nodes.CopyTo(records);
         return (depth, records, [.. materials]);
     }
