@@ -7,8 +7,8 @@ using VoxProf.Core.Trees;
 namespace VoxProf.Benchmarks;
 
 /// <summary>
-/// `kernels SCENE CAMERA WxH REPS [BRANCHING]`: the tile loop of `dda`, `dda-mask` and `hdda` alone, one thread,
-/// counting on, REPS times each in turn, printing the fastest and the median time of the traced tiles (result buffers
+/// `kernels SCENE CAMERA WxH REPS [BRANCHING [nocount]]`: the tile loop of `dda`, `dda-mask` and `hdda` alone, one
+/// thread, counting on (or compiled out), REPS times each in turn, printing the fastest and the median time of the traced tiles (result buffers
 /// are allocated before the timed region) and the iterations done. The fastest of several runs is the figure least moved
 /// by other jobs on a shared machine, so two builds of the kernels compare by it (run them one after the other).
 /// </summary>
@@ -16,7 +16,7 @@ public static class KernelTiming
 {
     private static readonly StrategyDefinition[] Strategies = [BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
 
-    public static void Run(Scene scene, string camera, int width, int height, int reps, int branching, TextWriter output)
+    public static void Run(Scene scene, string camera, int width, int height, int reps, int branching, bool count, TextWriter output)
     {
         BrickTree tree = TreeBuilder.Build(scene, branching);
         CameraSpec cam = scene.Cameras.FirstOrDefault(c => c.Name == camera) ?? throw new ArgumentException($"no camera '{camera}'");
@@ -29,12 +29,12 @@ public static class KernelTiming
             foreach (StrategyDefinition s in Strategies)
             {
                 GC.Collect();
-                TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1));
+                TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1, CountWork: count));
                 times[s].Add(run.Results[0].Elapsed.TotalSeconds);
                 iterations[s] = run.Results[0].Counters[(int)Counter.Iterations].Sum(v => (long)v);
             }
         }
-        output.WriteLine(FormattableString.Invariant($"scene {scene.Name}, camera {camera}, {width}x{height}, branching {branching}, {reps} runs each, one thread"));
+        output.WriteLine(FormattableString.Invariant($"scene {scene.Name}, camera {camera}, {width}x{height}, branching {branching}, {reps} runs each, one thread, counting {(count ? "on" : "off")}"));
         foreach (StrategyDefinition s in Strategies)
         {
             List<double> t = [.. times[s].Order()];

@@ -53,9 +53,10 @@ if (args.Length > 5 && args[0] == "side")
 }
 if (args.Length > 4 && args[0] == "kernels")
 {
-    // kernels SCENE CAMERA WxH REPS [BRANCHING]: see KernelTiming.
+    // kernels SCENE CAMERA WxH REPS [BRANCHING [nocount]]: see KernelTiming.
     (int kw, int kh) = Size(args[3]);
-    KernelTiming.Run(SceneLoader.Load(args[1]), args[2], kw, kh, int.Parse(args[4]), args.Length > 5 ? int.Parse(args[5]) : 4, Console.Out);
+    KernelTiming.Run(SceneLoader.Load(args[1]), args[2], kw, kh, int.Parse(args[4]), args.Length > 5 ? int.Parse(args[5]) : 4,
+        count: !(args.Length > 6 && args[6] == "nocount"), Console.Out);
     return 0;
 }
 if (args.Length > 1 && args[0] == "png")

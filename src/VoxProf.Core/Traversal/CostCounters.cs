@@ -123,3 +123,18 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
             buffers[i][pixel] = Extras[i - CounterNames.Count];
     }
 }
+
+/// <summary>
+/// Keeps a kernel's counts in its stack frame instead of registers. Promoted to registers, eight counters crowd the walk's
+/// own state (node, cell, level, plane times) out of them and the JIT spills that state inside the loop instead; a count
+/// in memory costs one add to a cache line the core holds anyway. Handing the local's address to a call the JIT does not
+/// inline is what keeps it in memory (the `kernels` benchmark, docs/performance.md: dda 0.50 → 0.45 s, hdda 0.46 →
+/// 0.43 s on the raw terrain scene, one thread).
+/// </summary>
+internal static class CountsInMemory
+{
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    public static void Keep<T>(ref T counters) where T : struct
+    {
+    }
+}

@@ -138,9 +138,37 @@ public struct DdaState
         int shift = Shift - TBranching.Log2N;
         int n = NodeCells<TBranching>.N;
         Shift = shift;
-        X = (lx >> shift) + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, T, LastAxis, lx, n, shift, out _, out TMaxX);
-        Y = (ly >> shift) + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, T, LastAxis, ly, n, shift, out _, out TMaxY);
-        Z = (lz >> shift) + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, T, LastAxis, lz, n, shift, out _, out TMaxZ);
+        X = (lx >> shift) + ChildCell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, T, LastAxis, lx, n, shift, out TMaxX);
+        Y = (ly >> shift) + ChildCell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, T, LastAxis, ly, n, shift, out TMaxY);
+        Z = (lz >> shift) + ChildCell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, T, LastAxis, lz, n, shift, out TMaxZ);
+    }
+
+    /// <summary>
+    /// <see cref="CrossingOrder.Cell"/> for a descent, with a shortcut on the axis of the walk's latest crossing: that
+    /// plane is usually a face of the cell being entered, so the child is the first of its cells a ray moving that way
+    /// meets. The shortcut checks its answer by the crossing order itself (its entry plane behind the key, its exit
+    /// plane ahead), which is what <see cref="CrossingOrder.Cell"/> settles too, so both give the same cell; when the
+    /// check fails the general finder decides.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static int ChildCell(double o, double d, double inv, bool parallel, int axis, double t, int lastAxis, int lo,
+        int count, int shift, out double exitTime)
+    {
+        if (axis == lastAxis && !parallel)
+        {
+            // On the crossing's own axis "behind" is "at or before t" (CrossingOrder.Behind with axis == lastAxis).
+            int size = 1 << shift;
+            int edge = inv > 0 ? 0 : count - 1;
+            int low = lo + (edge << shift);
+            double entry = CrossingOrder.Time(inv > 0 ? low : low + size, o, inv);
+            double exit = CrossingOrder.Time(inv > 0 ? low + size : low, o, inv);
+            if (entry <= t && exit > t)
+            {
+                exitTime = exit;
+                return edge;
+            }
+        }
+        return CrossingOrder.Cell(o, d, inv, parallel, axis, t, lastAxis, lo, count, shift, out _, out exitTime);
     }
 
     /// <summary>

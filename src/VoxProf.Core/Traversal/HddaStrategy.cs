@@ -20,8 +20,9 @@ public struct HddaStrategy : IStrategy
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
-        // Count in a local the JIT can keep in registers; the tracer flushes it once per ray.
+        // Count in a local the tracer flushes once per ray, kept in the frame's memory (CountsInMemory).
         TCounters counters = default;
+        CountsInMemory.Keep(ref counters);
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
         double tExit = start.TExit;
