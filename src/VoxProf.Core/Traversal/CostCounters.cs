@@ -73,6 +73,7 @@ public struct CostCounts : ICostCounters, ICountFlush
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public readonly void Extra(int index, uint amount) { }
 
     /// <summary>Writes this ray's counts into the per-pixel buffers (indexed by <see cref="Counter"/>).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public readonly void Flush(uint[][] buffers, int pixel)
     {
         buffers[(int)Counter.Iterations][pixel] = Iterations;
