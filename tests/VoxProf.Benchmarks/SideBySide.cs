@@ -14,8 +14,10 @@ namespace VoxProf.Benchmarks;
 /// (VoxProf first in even rounds, the reference first in odd ones) so a drifting machine speed hits both alike.
 /// Both sides are timed in CPU seconds on one thread, counting on for VoxProf as in `voxprof trace`: on a shared machine
 /// CPU time is the steadier measure of work per core. VoxProf's CPU time is the process's during one
-/// <see cref="Tracer.Run"/>, which also holds the allocation of the result buffers (a few percent: the ratios understate
-/// VoxProf slightly). Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
+/// <see cref="Tracer.Run"/>, which also holds the allocation and first touch of the result buffers (about 70 MB at
+/// 1280×720, which this virtual machine hands out slowly: the ratios understate VoxProf's tracing). A second set of ratios
+/// times VoxProf's tracing alone: the wall time of the strategy's timed region on one thread, its buffers allocated
+/// before it, as the reference allocates its hit array before its own timing (its first pass still touches those pages). Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
 /// Also prints the CPU seconds of one `dda-mask` trace at <c>SHARE_SIZE</c> (for the share of a whole run's CPU).
 /// </summary>
 public static partial class SideBySide
@@ -34,11 +36,13 @@ public static partial class SideBySide
 
         double pixels = (double)width * height;
         var ratios = Strategies.ToDictionary(s => s, _ => new List<double>());
+        var tracingRatios = Strategies.ToDictionary(s => s, _ => new List<double>());
         var voxIterations = new Dictionary<StrategyDefinition, long>();
         var cIterations = new Dictionary<string, long>();
         for (int r = 0; r < rounds; r++)
         {
             Dictionary<StrategyDefinition, double> vox = [];
+            Dictionary<StrategyDefinition, double> voxTracing = [];
             Dictionary<string, double> c = [];
             for (int side = 0; side < 2; side++)
             {
@@ -46,8 +50,9 @@ public static partial class SideBySide
                 {
                     foreach (StrategyDefinition s in Strategies)
                     {
-                        (double cpu, long iterations) = TraceCpu(scene, tree, cam, width, height, s);
+                        (double cpu, double tracing, long iterations) = TraceCpu(scene, tree, cam, width, height, s);
                         vox[s] = pixels / cpu;
+                        voxTracing[s] = pixels / tracing;
                         voxIterations[s] = iterations;
                     }
                 }
@@ -63,6 +68,9 @@ public static partial class SideBySide
             ratios[BuiltInStrategies.Dda].Add(vox[BuiltInStrategies.Dda] / c["dda"]);
             ratios[BuiltInStrategies.DdaMask].Add(vox[BuiltInStrategies.DdaMask] / c["mask"]);
             ratios[BuiltInStrategies.Hdda].Add(vox[BuiltInStrategies.Hdda] / c["dda"]);
+            tracingRatios[BuiltInStrategies.Dda].Add(voxTracing[BuiltInStrategies.Dda] / c["dda"]);
+            tracingRatios[BuiltInStrategies.DdaMask].Add(voxTracing[BuiltInStrategies.DdaMask] / c["mask"]);
+            tracingRatios[BuiltInStrategies.Hdda].Add(voxTracing[BuiltInStrategies.Hdda] / c["dda"]);
             output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[BuiltInStrategies.Dda] / 1e6:F3}, dda-mask {vox[BuiltInStrategies.DdaMask] / 1e6:F3}, hdda {vox[BuiltInStrategies.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}"));
         }
 
@@ -72,6 +80,7 @@ public static partial class SideBySide
         output.WriteLine(Invariant($"ratio dda-mask / C mask = {Median(ratios[BuiltInStrategies.DdaMask]):F2} (rounds {Range(ratios[BuiltInStrategies.DdaMask])})"));
         output.WriteLine(Invariant($"ratio dda / C dda = {Median(ratios[BuiltInStrategies.Dda]):F2} (rounds {Range(ratios[BuiltInStrategies.Dda])})"));
         output.WriteLine(Invariant($"ratio hdda / C dda = {Median(ratios[BuiltInStrategies.Hdda]):F2} (rounds {Range(ratios[BuiltInStrategies.Hdda])})"));
+        output.WriteLine(Invariant($"tracing alone (VoxProf's timed region, wall seconds on one thread, result buffers allocated before it): dda-mask / C mask = {Median(tracingRatios[BuiltInStrategies.DdaMask]):F2} ({Range(tracingRatios[BuiltInStrategies.DdaMask])}), dda / C dda = {Median(tracingRatios[BuiltInStrategies.Dda]):F2} ({Range(tracingRatios[BuiltInStrategies.Dda])}), hdda / C dda = {Median(tracingRatios[BuiltInStrategies.Hdda]):F2} ({Range(tracingRatios[BuiltInStrategies.Hdda])})"));
         if (shareSize is (int sw, int sh))
         {
             var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, BuiltInStrategies.DdaMask).Cpu).ToList();
@@ -80,8 +89,11 @@ public static partial class SideBySide
         return 0;
     }
 
-    /// <summary>Process CPU seconds of one single-threaded trace, and its total iterations.</summary>
-    private static (double Cpu, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, StrategyDefinition s)
+    /// <summary>
+    /// Process CPU seconds of one single-threaded trace (buffer allocation included), the wall seconds of its timed
+    /// region (tracing alone), and its total iterations.
+    /// </summary>
+    private static (double Cpu, double Tracing, long Iterations) TraceCpu(Scene scene, BrickTree tree, CameraSpec cam, int width, int height, StrategyDefinition s)
     {
         // The previous trace's buffers are garbage now; collect them first, so their collection is not charged here.
         GC.Collect();
@@ -89,7 +101,7 @@ public static partial class SideBySide
         TimeSpan before = Process.GetCurrentProcess().TotalProcessorTime;
         TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, width, height, [s], Threads: 1));
         double cpu = (Process.GetCurrentProcess().TotalProcessorTime - before).TotalSeconds;
-        return (cpu, run.Results[0].Counters[(int)Counter.Iterations].Sum(v => (long)v));
+        return (cpu, run.Results[0].Elapsed.TotalSeconds, run.Results[0].Counters[(int)Counter.Iterations].Sum(v => (long)v));
     }
 
     /// <summary>Runs the reference once with both modes; its own CPU clock times each trace.</summary>
