@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
@@ -52,6 +53,13 @@ public static class ConePrepass
         int levels = grids.FinestLevel + 1;
         Span<long> occupiedCells = stackalloc long[3 * levels];
         occupiedCells.Fill(long.MinValue);
+        // Per level, the farthest the cone may go while its radius fits the cell: the same value every iteration.
+        Span<double> radiusLimits = stackalloc double[levels];
+        for (int level = 0; level < levels; level++)
+        {
+            double room = grids.CellSize(level) * (1 - Nudge) - slack;
+            radiusLimits[level] = slope > 0 ? room / slope : double.PositiveInfinity;
+        }
         while (t < tEnd && iterations < MaxIterations)
         {
             iterations++;
@@ -69,24 +77,21 @@ public static class ConePrepass
                 long cx = (long)Math.Floor((axis.Ox + ta * axis.Dx) * inverse);
                 long cy = (long)Math.Floor((axis.Oy + ta * axis.Dy) * inverse);
                 long cz = (long)Math.Floor((axis.Oz + ta * axis.Dz) * inverse);
-                Span<long> known = occupiedCells.Slice(3 * level, 3);
-                if (known[0] == cx && known[1] == cy && known[2] == cz)
+                int k = 3 * level;
+                if (occupiedCells[k] == cx && occupiedCells[k + 1] == cy && occupiedCells[k + 2] == cz)
                     continue;
                 lookups++;
                 if (grids.NeighbourhoodOccupied(level, cx, cy, cz))
                 {
-                    (known[0], known[1], known[2]) = (cx, cy, cz);
+                    (occupiedCells[k], occupiedCells[k + 1], occupiedCells[k + 2]) = (cx, cy, cz);
                     continue;
                 }
 
                 // Empty neighbourhood: advance to the cell's exit while the cone stays inside it. Axis points up to the
                 // exit lie in the cell or within the nudge of it (and within rounding), so the cone stays inside the
                 // 3×3×3 block while its radius is at most the cell size less those two allowances.
-                SlabTest.Intersect(axis, cx * size, cy * size, cz * size, (cx + 1) * size, (cy + 1) * size, (cz + 1) * size,
-                    t, double.PositiveInfinity, out SlabHit cell);
-                double room = size * (1 - Nudge) - slack;
-                double radiusLimit = slope > 0 ? room / slope : double.PositiveInfinity;
-                advanceTo = Math.Min(cell.Far, radiusLimit);
+                double exit = CellExit(axis, cx * size, cy * size, cz * size, (cx + 1) * size, (cy + 1) * size, (cz + 1) * size);
+                advanceTo = Math.Min(exit, radiusLimits[level]);
                 startLevel = Math.Max(0, level - 1);
                 break;
             }
@@ -99,6 +104,44 @@ public static class ConePrepass
         // Stay the rounding allowance before the stopping point, so rounding in a pixel ray's own walk cannot start it
         // past a voxel it enters just before.
         return Math.Max(0, t - slack);
+    }
+
+    /// <summary>
+    /// Where the axis leaves a cell box: the far time of <see cref="SlabTest.Intersect"/> on that box, computed the same
+    /// way plane by plane, without the entry side the march does not use (0 where Intersect leaves its result empty: a
+    /// parallel axis outside the box's slab, which a cell picked from the axis's own point never is).
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static double CellExit(in RaySetup r, double loX, double loY, double loZ, double hiX, double hiY, double hiZ)
+    {
+        double far = double.PositiveInfinity;
+        if (r.ParallelX)
+        {
+            if (r.Ox < loX || r.Ox >= hiX) return 0;
+        }
+        else
+        {
+            far = ((r.Ix < 0 ? loX : hiX) - r.Ox) * r.Ix;
+        }
+        if (r.ParallelY)
+        {
+            if (r.Oy < loY || r.Oy >= hiY) return 0;
+        }
+        else
+        {
+            double b = ((r.Iy < 0 ? loY : hiY) - r.Oy) * r.Iy;
+            if (b < far) far = b;
+        }
+        if (r.ParallelZ)
+        {
+            if (r.Oz < loZ || r.Oz >= hiZ) return 0;
+        }
+        else
+        {
+            double b = ((r.Iz < 0 ? loZ : hiZ) - r.Oz) * r.Iz;
+            if (b < far) far = b;
+        }
+        return far;
     }
 
     private static double FarthestCorner(CoarseOccupancy grids, in RaySetup ray)
