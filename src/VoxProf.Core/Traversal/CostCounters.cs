@@ -48,7 +48,7 @@ public struct NoCounters : ICostCounters, ICountFlush
 
 /// <summary>
 /// Counts every built-in event of one ray (definitions: docs/counters.md). The tracer uses it for strategies that
-/// declare no counters of their own, so their counts stay eight registers' worth; <see cref="Extra"/> is a no-op here
+/// declare no counters of their own, so their counts stay 32 bytes; <see cref="Extra"/> is a no-op here
 /// and <see cref="CostCountsWithExtras"/> serves the others.
 /// </summary>
 public struct CostCounts : ICostCounters, ICountFlush
