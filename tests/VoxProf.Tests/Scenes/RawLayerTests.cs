@@ -1,3 +1,5 @@
+using System.Buffers.Binary;
+using System.Collections;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Scenes.Import;
@@ -69,7 +71,60 @@ public class RawLayerTests
     {
         // Every byte value, in a length that is no multiple of any vector width, so the tail is read too.
         byte[] samples = Enumerable.Range(0, 1000).Select(i => (byte)(i * 37 % 256)).ToArray();
-        byte[] mask = VolumeFiles.ReadMask(new MemoryStream(samples), samples.Length, VoxelType.U8, false, threshold, "v.raw", 0);
-        mask.Should().Equal(samples.Select(v => v > threshold ? (byte)1 : (byte)0));
+        ulong[] mask = VolumeFiles.ReadMask(new MemoryStream(samples), samples.Length, VoxelType.U8, false, threshold, "v.raw", 0);
+        Words32(mask).Should().Equal(Packed(samples.Select(v => v > threshold)));
     }
+
+    [Theory]
+    [InlineData(VoxelType.U8, false)]
+    [InlineData(VoxelType.U16, false)]
+    [InlineData(VoxelType.U16, true)]
+    [InlineData(VoxelType.F32, false)]
+    [InlineData(VoxelType.F32, true)]
+    public void Samples_over_several_chunks_land_on_the_right_bits(VoxelType type, bool bigEndian)
+    {
+        // More samples than one read chunk (65,536) and no multiple of 64, so chunk seams and the last partial word
+        // are both crossed.
+        const int count = 2 * 65536 + 77;
+        var rng = new Random(31);
+        double[] values = Enumerable.Range(0, count).Select(_ => (double)rng.Next(256)).ToArray();
+        int size = VolumeFiles.SizeOf(type);
+        var bytes = new byte[count * size];
+        for (int i = 0; i < count; i++)
+        {
+            Span<byte> b = bytes.AsSpan(i * size, size);
+            switch (type)
+            {
+                case VoxelType.U8: b[0] = (byte)values[i]; break;
+                case VoxelType.U16:
+                    if (bigEndian) BinaryPrimitives.WriteUInt16BigEndian(b, (ushort)(values[i] * 200));
+                    else BinaryPrimitives.WriteUInt16LittleEndian(b, (ushort)(values[i] * 200));
+                    values[i] *= 200;
+                    break;
+                default:
+                    if (bigEndian) BinaryPrimitives.WriteSingleBigEndian(b, (float)values[i] / 7);
+                    else BinaryPrimitives.WriteSingleLittleEndian(b, (float)values[i] / 7);
+                    values[i] = (float)values[i] / 7;
+                    break;
+            }
+        }
+        double threshold = type == VoxelType.U16 ? 100 * 200 : type == VoxelType.F32 ? 100.0 / 7 : 100;
+        ulong[] mask = VolumeFiles.ReadMask(new MemoryStream(bytes), count, type, bigEndian, threshold, "v.raw", 0);
+        Words32(mask).Should().Equal(Packed(values.Select(v => v > threshold)));
+    }
+
+    /// <summary>
+    /// The bits packed by System.Collections.BitArray, the standard library's own bit packing (element i is bit i mod 32
+    /// of word i / 32), as the reference for the mask's layout.
+    /// </summary>
+    private static int[] Packed(IEnumerable<bool> inside)
+    {
+        var bits = new BitArray(inside.ToArray());
+        var words = new int[(bits.Length + 63) / 64 * 2];
+        bits.CopyTo(words, 0);
+        return words;
+    }
+
+    /// <summary>The mask's 64-bit words as 32-bit halves, low half first, to set beside <see cref="Packed"/>.</summary>
+    private static int[] Words32(ulong[] mask) => mask.SelectMany(w => new[] { (int)(uint)w, (int)(uint)(w >> 32) }).ToArray();
 }

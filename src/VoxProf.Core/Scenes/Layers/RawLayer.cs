@@ -1,33 +1,44 @@
-using System.Buffers.Binary;
 using VoxProf.Core.Geometry;
+using VoxProf.Core.Scenes.Import;
 
 namespace VoxProf.Core.Scenes.Layers;
 
 /// <summary>
-/// A dense volume of unsigned bytes (x fastest, then y, then z) placed at an origin; a non-zero byte is inside.
+/// A dense volume placed at an origin, kept as one bit a voxel (x fastest, then y, then z; <see cref="VolumeFiles.ReadMask"/>).
 /// Bricks of 8³ are summarised as "any inside" and "all inside" with 3D prefix sums, so a region is classified
 /// with sixteen look-ups.
 /// </summary>
 public sealed class RawLayer : Layer
 {
-    /// <summary>Largest volume accepted, in voxels (bytes).</summary>
+    /// <summary>Largest volume accepted, in voxels.</summary>
     public const long MaxVoxels = 1L << 30;
 
     private const int BrickShift = 3;
 
-    private readonly byte[] _data;
+    private readonly ulong[] _bits;
     private readonly int _sx, _sy, _sz, _ox, _oy, _oz;
     private readonly int _bx, _by, _bz;
     private readonly int[] _anyPrefix, _allPrefix;
 
+    /// <summary>A volume of a byte per voxel, where a non-zero byte is inside.</summary>
     public RawLayer(LayerOp op, byte material, byte[] data, int sizeX, int sizeY, int sizeZ,
+        int originX, int originY, int originZ, Box3i extent)
+        : this(op, material, (long)sizeX * sizeY * sizeZ == data.Length
+                ? VolumeFiles.Pack(data)
+                : throw new ArgumentException("data length disagrees with the dimensions", nameof(data)),
+            sizeX, sizeY, sizeZ, originX, originY, originZ, extent)
+    {
+    }
+
+    /// <summary>A volume as bits, one a voxel (<see cref="VolumeFiles.ReadMask"/>).</summary>
+    public RawLayer(LayerOp op, byte material, ulong[] bits, int sizeX, int sizeY, int sizeZ,
         int originX, int originY, int originZ, Box3i extent)
         : base(op, material, new Box3i(originX, originY, originZ,
             originX + sizeX, originY + sizeY, originZ + sizeZ).Intersect(extent))
     {
-        if ((long)sizeX * sizeY * sizeZ != data.Length)
-            throw new ArgumentException("data length disagrees with the dimensions", nameof(data));
-        _data = data;
+        if (VolumeFiles.MaskWords((long)sizeX * sizeY * sizeZ) != bits.Length)
+            throw new ArgumentException("mask length disagrees with the dimensions", nameof(bits));
+        _bits = bits;
         (_sx, _sy, _sz, _ox, _oy, _oz) = (sizeX, sizeY, sizeZ, originX, originY, originZ);
         _bx = (sizeX + 7) >> BrickShift;
         _by = (sizeY + 7) >> BrickShift;
@@ -64,7 +75,7 @@ public sealed class RawLayer : Layer
     }
 
     public override bool Contains(int x, int y, int z) =>
-        Bounds.Contains(x, y, z) && _data[Index(x - _ox, y - _oy, z - _oz)] != 0;
+        Bounds.Contains(x, y, z) && Bit(Index(x - _ox, y - _oy, z - _oz));
 
     public override void Fill(in Box3i region, Span<bool> inside)
     {
@@ -76,14 +87,26 @@ public sealed class RawLayer : Layer
             for (int y = r.MinY; y < r.MaxY; y++)
             {
                 int i = (z - region.MinZ) * sxy + (y - region.MinY) * sx + (r.MinX - region.MinX);
-                ReadOnlySpan<byte> row = _data.AsSpan(Index(r.MinX - _ox, y - _oy, z - _oz), r.SizeX);
-                for (int x = 0; x < row.Length; x++)
-                    inside[i + x] = row[x] != 0;
+                int row = Index(r.MinX - _ox, y - _oy, z - _oz);
+                for (int x = 0; x < r.SizeX; x++)
+                    inside[i + x] = Bit(row + x);
             }
         }
     }
 
     private int Index(int x, int y, int z) => (int)(((long)z * _sy + y) * _sx + x);
+
+    private bool Bit(int index) => ((_bits[index >> 6] >> index) & 1) != 0;
+
+    /// <summary>The eight bits from voxel <paramref name="index"/> on, which may straddle two words.</summary>
+    private uint Bits8(int index)
+    {
+        int offset = index & 63;
+        ulong v = _bits[index >> 6] >> offset;
+        if (offset > 56)
+            v |= _bits[(index >> 6) + 1] << (64 - offset);
+        return (uint)v & 0xFF;
+    }
 
     private (int[] Any, int[] All) BuildPrefixes()
     {
@@ -127,20 +150,20 @@ public sealed class RawLayer : Layer
         {
             for (int y = y0; y < y1; y++)
             {
-                ReadOnlySpan<byte> row = _data.AsSpan(Index(x0, y, z), x1 - x0);
-                if (row.Length == 8)
+                int row = Index(x0, y, z);
+                if (x1 - x0 == 8)
                 {
-                    // A whole row of a brick as one word: any byte set, and (the classic has-a-zero-byte test, exact
-                    // for the question "is some byte zero") every byte set.
-                    ulong w = BinaryPrimitives.ReadUInt64LittleEndian(row);
-                    any |= w != 0;
-                    all &= ((w - 0x0101010101010101UL) & ~w & 0x8080808080808080UL) == 0;
+                    // A whole row of a brick is eight bits.
+                    uint bits = Bits8(row);
+                    any |= bits != 0;
+                    all &= bits == 0xFF;
                     continue;
                 }
-                foreach (byte v in row)
+                for (int x = 0; x < x1 - x0; x++)
                 {
-                    any |= v != 0;
-                    all &= v != 0;
+                    bool v = Bit(row + x);
+                    any |= v;
+                    all &= v;
                 }
             }
         }

@@ -140,7 +140,7 @@ internal sealed partial class LayerReader
                 $"raw volume file {file} holds {length} bytes; expected {voxels * bytesEach} ({size[0]} × {size[1]} × {size[2]} from {sizeValue.Path}{each})"));
         }
         using var stream = new HashingStream(OpenRead(full, fileValue), hash);
-        byte[] mask = VolumeFiles.ReadMask(stream, voxels, type, big, threshold, full, 0);
+        ulong[] mask = VolumeFiles.ReadMask(stream, voxels, type, big, threshold, full, 0);
         stream.Drain();
         return new RawLayer(op, material, mask, size[0], size[1], size[2], origin[0], origin[1], origin[2], extent);
     }
@@ -165,7 +165,7 @@ internal sealed partial class LayerReader
                 $"raw data holds {length - header.Length} bytes; expected {dataBytes} ({size[0]} × {size[1]} × {size[2]} samples of {VolumeFiles.SizeOf(header.Type)} bytes)"));
         }
         Stream data = new PrefixedStream(lines.Leftover, stream);
-        byte[] mask;
+        ulong[] mask;
         try
         {
             if (header.Gzip)
