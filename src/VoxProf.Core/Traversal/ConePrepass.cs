@@ -8,9 +8,9 @@ namespace VoxProf.Core.Traversal;
 /// The coarse prepass after Laine &amp; Karras (2010), "Efficient sparse voxel octrees" (the beam optimization): one
 /// coarse ray per K×K block finds a distance before which no pixel ray of the block can meet anything solid, and every
 /// pixel ray of the block starts there. Conservative by construction (argument in docs/strategies.md): the coarse ray
-/// carries a cone that contains every pixel ray of its block, and it only advances through a cell when the 3×3×3 cells
-/// around it at that level are all empty (one look-up in the tree's <see cref="CoarseOccupancy"/>) and the cone's
-/// radius, with allowances for the cell pick and for rounding, is at most one cell.
+/// carries a cone that contains every pixel ray of its block, and it only advances from a cell whose 3×3×3 cells at that
+/// level are all empty (one look-up in the tree's <see cref="CoarseOccupancy"/>), and only as far as the whole cone
+/// stays inside those cells, with allowances for the cell pick and for rounding.
 /// </summary>
 public static class ConePrepass
 {
@@ -53,12 +53,15 @@ public static class ConePrepass
         int levels = grids.FinestLevel + 1;
         Span<long> occupiedCells = stackalloc long[3 * levels];
         occupiedCells.Fill(long.MinValue);
-        // Per level, the farthest the cone may go while its radius fits the cell: the same value every iteration.
+        // Per level, the farthest the cone may go while its radius fits the room, and half the room: the same values
+        // every iteration.
         Span<double> radiusLimits = stackalloc double[levels];
+        Span<double> halfRoomLimits = stackalloc double[levels];
         for (int level = 0; level < levels; level++)
         {
             double room = grids.CellSize(level) * (1 - Nudge) - slack;
             radiusLimits[level] = slope > 0 ? room / slope : double.PositiveInfinity;
+            halfRoomLimits[level] = slope > 0 ? room / 2 / slope : double.PositiveInfinity;
         }
         while (t < tEnd && iterations < MaxIterations)
         {
@@ -87,11 +90,23 @@ public static class ConePrepass
                     continue;
                 }
 
-                // Empty neighbourhood: advance to the cell's exit while the cone stays inside it. Axis points up to the
-                // exit lie in the cell or within the nudge of it (and within rounding), so the cone stays inside the
-                // 3×3×3 block while its radius is at most the cell size less those two allowances.
-                double exit = CellExit(axis, cx * size, cy * size, cz * size, (cx + 1) * size, (cy + 1) * size, (cz + 1) * size);
-                advanceTo = Math.Min(exit, radiusLimits[level]);
+                // Empty neighbourhood: the cone stays inside the 3×3×3 block while the axis stays within g of the cell
+                // and the radius within the rest of the room (the cell size less the nudge and rounding allowances;
+                // axis points from t on lie in the cell grown by g, or within the nudge of the cell, and within
+                // rounding). While the radius is under half the room, g is the other half: the axis goes on to the
+                // exit of the cell grown by g, about twice the cell's own stride. After that g is 0: the cell's exit,
+                // with the whole room for the radius.
+                if (t < halfRoomLimits[level])
+                {
+                    double g = (size * (1 - Nudge) - slack) / 2;
+                    double grown = CellExit(axis, cx * size - g, cy * size - g, cz * size - g, (cx + 1) * size + g, (cy + 1) * size + g, (cz + 1) * size + g);
+                    advanceTo = Math.Min(grown, halfRoomLimits[level]);
+                }
+                else
+                {
+                    double exit = CellExit(axis, cx * size, cy * size, cz * size, (cx + 1) * size, (cy + 1) * size, (cz + 1) * size);
+                    advanceTo = Math.Min(exit, radiusLimits[level]);
+                }
                 startLevel = Math.Max(0, level - 1);
                 break;
             }

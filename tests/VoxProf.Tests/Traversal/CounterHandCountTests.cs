@@ -136,19 +136,22 @@ public class CounterHandCountTests
         // One solid voxel, (3,0,0), in a 4³ octree: the root's cells are 2 voxels wide. The coarse grids mark, at the
         // root level, the cells within one cell of root cell (1,0,0): x in 0..2; at the voxel level, x in 2..4 (y and
         // z within one of 0 on both). The coarse ray runs down +x from (-1, 0.5, 0.5) with cone slope 0.01 (radius
-        // 0.01·t, never the limit here). The grown volume box contains the eye, so the ray starts at t = 0. Each level
-        // tested is one look-up, except a cell already found set at that level, whose answer is known.
-        // Iteration 1, t = 0, x = -1: root level, cell x = -1: clear, 1 look-up. Advance to the cell's exit x = 0 (t = 1).
-        // Iteration 2, t = 1, x = 0: root level, cell 0: set (2). Voxel level, voxel 0: clear (3). Advance to x = 1.
-        // Iteration 3, t = 2, x = 1: root level, cell 0 again: known set, no look-up; voxel 1 clear (4). Advance to
-        //   x = 2 (t = 3).
-        // Iteration 4, t = 3, x = 2: root level, cell 1: set (5); voxel 2 set (6). No level is clear: stop at t = 3,
-        //   less the rounding allowance.
+        // 0.01·t, under half a cell here), so each stride goes to the exit of the cell grown by half its room on every
+        // side: about half a cell (g = 1 at the root level, 0.5 at the voxel level, less the allowances). The grown
+        // volume box contains the eye, so the ray starts at t = 0. Each level tested is one look-up, except a cell
+        // already found set at that level, whose answer is known.
+        // Iteration 1, t = 0, x = -1: root level, cell x = -1 ([-2, 0)): clear, 1 look-up. Advance to x = 0 + 1 (t = 2).
+        // Iteration 2, t = 2, x = 1: root level, cell 0: set (2). Voxel level, voxel 0 (the point is a rounding
+        //   allowance short of x = 1): clear (3). Advance to x = 1 + 0.5 (t = 2.5).
+        // Iteration 3, t = 2.5, x = 1.5: root level, cell 0 again: known set, no look-up; voxel 1 clear (4). Advance
+        //   to x = 2 + 0.5 (t = 3.5).
+        // Iteration 4, t = 3.5, x = 2.5: root level, cell 1: set (5); voxel 2 set (6). No level is clear: stop at
+        //   t = 3.5 (less the allowances), before the voxel's face at t = 4.
         BrickTree tree = DenseTree.Build(4, 4, 4, (x, y, z) => x == 3 && y == 0 && z == 0 ? (byte)1 : (byte)0, 2);
         var axis = new RaySetup(-1, 0.5, 0.5, 1, 0, 0);
         double s = ConePrepass.March(tree.Coarse, axis, 0.01, out uint iterations, out uint lookups);
         iterations.Should().Be(4);
         lookups.Should().Be(6);
-        s.Should().BeLessThan(3).And.BeGreaterThan(3 - 1e-6);
+        s.Should().BeLessThan(3.5).And.BeGreaterThan(3.5 - 1e-6);
     }
 }
