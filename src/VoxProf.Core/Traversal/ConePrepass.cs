@@ -77,9 +77,11 @@ public static class ConePrepass
                 // A point a nudge ahead picks the cell the ray is about to cross, so a cell boundary never stalls it.
                 // The size is a power of two: multiplying by its inverse divides exactly.
                 double ta = t + Nudge * size;
-                long cx = (long)Math.Floor((axis.Ox + ta * axis.Dx) * inverse);
-                long cy = (long)Math.Floor((axis.Oy + ta * axis.Dy) * inverse);
-                long cz = (long)Math.Floor((axis.Oz + ta * axis.Dz) * inverse);
+                // A point of the march lies within the grown volume box, far inside long's range, so the processor's
+                // own conversion is exact and a saturating cast's checks would only lengthen each stride's latency.
+                long cx = double.ConvertToIntegerNative<long>(Math.Floor((axis.Ox + ta * axis.Dx) * inverse));
+                long cy = double.ConvertToIntegerNative<long>(Math.Floor((axis.Oy + ta * axis.Dy) * inverse));
+                long cz = double.ConvertToIntegerNative<long>(Math.Floor((axis.Oz + ta * axis.Dz) * inverse));
                 int k = 3 * level;
                 if (occupiedCells[k] == cx && occupiedCells[k + 1] == cy && occupiedCells[k + 2] == cz)
                     continue;
