@@ -98,17 +98,10 @@ public static class ConePrepass
                 // rounding). While the radius is under half the room, g is the other half: the axis goes on to the
                 // exit of the cell grown by g, about twice the cell's own stride. After that g is 0: the cell's exit,
                 // with the whole room for the radius.
-                if (t < halfRoomLimits[level])
-                {
-                    double g = (size * (1 - Nudge) - slack) / 2;
-                    double grown = CellExit(axis, cx * size - g, cy * size - g, cz * size - g, (cx + 1) * size + g, (cy + 1) * size + g, (cz + 1) * size + g);
-                    advanceTo = Math.Min(grown, halfRoomLimits[level]);
-                }
-                else
-                {
-                    double exit = CellExit(axis, cx * size, cy * size, cz * size, (cx + 1) * size, (cy + 1) * size, (cz + 1) * size);
-                    advanceTo = Math.Min(exit, radiusLimits[level]);
-                }
+                bool narrow = t < halfRoomLimits[level];
+                double g = narrow ? (size * (1 - Nudge) - slack) / 2 : 0;
+                double exit = CellExit(axis, cx * size - g, cy * size - g, cz * size - g, (cx + 1) * size + g, (cy + 1) * size + g, (cz + 1) * size + g);
+                advanceTo = Math.Min(exit, narrow ? halfRoomLimits[level] : radiusLimits[level]);
                 startLevel = Math.Max(0, level - 1);
                 break;
             }
