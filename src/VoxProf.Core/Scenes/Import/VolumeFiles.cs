@@ -70,65 +70,42 @@ public static class VolumeFiles
     public static ulong[] Pack(ReadOnlySpan<byte> voxels)
     {
         var mask = new ulong[MaskWords(voxels.Length)];
-        ConvertBytes(voxels, mask, 0);
+        Convert(voxels, mask, voxels.Length, VoxelType.U8, false, 0);
         return mask;
     }
 
     /// <summary>
-    /// Bytes against the threshold, sixteen at a time: for a byte v, v &gt; threshold exactly when v &gt; the largest
-    /// byte value not above the threshold, so one unsigned integer comparison decides (NaN compares false, as the
-    /// scalar code's does: nothing is inside), and each comparison's sign bits are the mask's bits.
+    /// Bytes against the threshold, sixteen at a time, for the whole words of <paramref name="bytes"/>; returns how many
+    /// words it wrote. For a byte v, v &gt; threshold exactly when v &gt; the largest byte value not above the
+    /// threshold, so one unsigned integer comparison decides, and each comparison's sign bits are the mask's bits.
+    /// Thresholds no byte can pass or fail (NaN, 255 and above, below 0) are left to the sample-by-sample loop.
     /// </summary>
-    private static void ConvertBytes(ReadOnlySpan<byte> bytes, Span<ulong> words, double threshold)
+    private static int ConvertByteWords(ReadOnlySpan<byte> bytes, Span<ulong> words, double threshold)
     {
-        if (double.IsNaN(threshold) || threshold >= byte.MaxValue)
-        {
-            words.Clear();
-            return;
-        }
-        if (threshold < 0)
-        {
-            words.Fill(ulong.MaxValue);
-            if (bytes.Length % 64 != 0)
-                words[^1] = (1UL << (bytes.Length % 64)) - 1;
-            return;
-        }
-        byte top = (byte)Math.Floor(threshold);
+        if (!Vector128.IsHardwareAccelerated || !(threshold >= 0 && threshold < byte.MaxValue))
+            return 0;
+        Vector128<byte> limit = Vector128.Create((byte)Math.Floor(threshold));
+        ref byte first = ref MemoryMarshal.GetReference(bytes);
         int w = 0;
-        if (Vector128.IsHardwareAccelerated)
+        for (; (w + 1) * 64 <= bytes.Length; w++)
         {
-            Vector128<byte> limit = Vector128.Create(top);
-            ref byte first = ref MemoryMarshal.GetReference(bytes);
-            for (; (w + 1) * 64 <= bytes.Length; w++)
-            {
-                nuint at = (nuint)(w * 64);
-                words[w] = Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at), limit).ExtractMostSignificantBits()
-                    | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 16), limit).ExtractMostSignificantBits() << 16
-                    | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 32), limit).ExtractMostSignificantBits() << 32
-                    | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 48), limit).ExtractMostSignificantBits() << 48;
-            }
+            nuint at = (nuint)(w * 64);
+            words[w] = Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at), limit).ExtractMostSignificantBits()
+                | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 16), limit).ExtractMostSignificantBits() << 16
+                | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 32), limit).ExtractMostSignificantBits() << 32
+                | (ulong)Vector128.GreaterThan(Vector128.LoadUnsafe(ref first, at + 48), limit).ExtractMostSignificantBits() << 48;
         }
-        for (; w < words.Length; w++)
-        {
-            ulong bits = 0;
-            int end = Math.Min(64, bytes.Length - w * 64);
-            for (int j = 0; j < end; j++)
-            {
-                if (bytes[w * 64 + j] > top)
-                    bits |= 1UL << j;
-            }
-            words[w] = bits;
-        }
+        return w;
     }
 
+    /// <summary>
+    /// <paramref name="samples"/> samples of <paramref name="type"/> into the mask's <paramref name="words"/>: the byte
+    /// samples' whole words a vector at a time, every other word sample by sample (a NaN sample compares false: empty).
+    /// </summary>
     private static void Convert(ReadOnlySpan<byte> bytes, Span<ulong> words, int samples, VoxelType type, bool bigEndian, double threshold)
     {
-        if (type == VoxelType.U8)
-        {
-            ConvertBytes(bytes[..samples], words, threshold);
-            return;
-        }
-        for (int w = 0; w < words.Length; w++)
+        int done = type == VoxelType.U8 ? ConvertByteWords(bytes[..samples], words, threshold) : 0;
+        for (int w = done; w < words.Length; w++)
         {
             ulong bits = 0;
             int end = Math.Min(64, samples - w * 64);
@@ -136,7 +113,11 @@ public static class VolumeFiles
             {
                 int i = w * 64 + j;
                 bool inside;
-                if (type == VoxelType.U16)
+                if (type == VoxelType.U8)
+                {
+                    inside = bytes[i] > threshold;
+                }
+                else if (type == VoxelType.U16)
                 {
                     ReadOnlySpan<byte> b = bytes.Slice(2 * i, 2);
                     inside = (bigEndian ? BinaryPrimitives.ReadUInt16BigEndian(b) : BinaryPrimitives.ReadUInt16LittleEndian(b)) > threshold;
