@@ -1,4 +1,3 @@
-using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
@@ -53,13 +52,15 @@ public static class ConePrepass
         int levels = grids.FinestLevel + 1;
         Span<long> occupiedCells = stackalloc long[3 * levels];
         occupiedCells.Fill(long.MinValue);
-        // Per level, the farthest the cone may go while its radius fits the room, and half the room: the same values
-        // every iteration.
+        // Per level, half the room (below), and the farthest the cone may go while its radius fits the room and half
+        // the room: the same values every iteration.
+        Span<double> halfRooms = stackalloc double[levels];
         Span<double> radiusLimits = stackalloc double[levels];
         Span<double> halfRoomLimits = stackalloc double[levels];
         for (int level = 0; level < levels; level++)
         {
             double room = grids.CellSize(level) * (1 - Nudge) - slack;
+            halfRooms[level] = room / 2;
             radiusLimits[level] = slope > 0 ? room / slope : double.PositiveInfinity;
             halfRoomLimits[level] = slope > 0 ? room / 2 / slope : double.PositiveInfinity;
         }
@@ -99,8 +100,8 @@ public static class ConePrepass
                 // exit of the cell grown by g, about twice the cell's own stride. After that g is 0: the cell's exit,
                 // with the whole room for the radius.
                 bool narrow = t < halfRoomLimits[level];
-                double g = narrow ? (size * (1 - Nudge) - slack) / 2 : 0;
-                double exit = CellExit(axis, cx * size - g, cy * size - g, cz * size - g, (cx + 1) * size + g, (cy + 1) * size + g, (cz + 1) * size + g);
+                double g = narrow ? halfRooms[level] : 0;
+                double exit = SlabTest.Exit(axis, cx * size - g, cy * size - g, cz * size - g, (cx + 1) * size + g, (cy + 1) * size + g, (cz + 1) * size + g);
                 advanceTo = Math.Min(exit, narrow ? halfRoomLimits[level] : radiusLimits[level]);
                 startLevel = Math.Max(0, level - 1);
                 break;
@@ -114,44 +115,6 @@ public static class ConePrepass
         // Stay the rounding allowance before the stopping point, so rounding in a pixel ray's own walk cannot start it
         // past a voxel it enters just before.
         return Math.Max(0, t - slack);
-    }
-
-    /// <summary>
-    /// Where the axis leaves a cell box: the far time of <see cref="SlabTest.Intersect"/> on that box, computed the same
-    /// way plane by plane, without the entry side the march does not use (0 where Intersect leaves its result empty: a
-    /// parallel axis outside the box's slab, which a cell picked from the axis's own point never is).
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static double CellExit(in RaySetup r, double loX, double loY, double loZ, double hiX, double hiY, double hiZ)
-    {
-        double far = double.PositiveInfinity;
-        if (r.ParallelX)
-        {
-            if (r.Ox < loX || r.Ox >= hiX) return 0;
-        }
-        else
-        {
-            far = ((r.Ix < 0 ? loX : hiX) - r.Ox) * r.Ix;
-        }
-        if (r.ParallelY)
-        {
-            if (r.Oy < loY || r.Oy >= hiY) return 0;
-        }
-        else
-        {
-            double b = ((r.Iy < 0 ? loY : hiY) - r.Oy) * r.Iy;
-            if (b < far) far = b;
-        }
-        if (r.ParallelZ)
-        {
-            if (r.Oz < loZ || r.Oz >= hiZ) return 0;
-        }
-        else
-        {
-            double b = ((r.Iz < 0 ? loZ : hiZ) - r.Oz) * r.Iz;
-            if (b < far) far = b;
-        }
-        return far;
     }
 
     private static double FarthestCorner(CoarseOccupancy grids, in RaySetup ray)

@@ -82,4 +82,42 @@ public static class SlabTest
         hit.FarAxis = farAxis;
         return near <= far;
     }
+
+    /// <summary>
+    /// Where the ray leaves a box: the far time of <see cref="Intersect"/> with no upper clip, computed the same way
+    /// plane by plane, without the entry side, for callers that only need the exit (the coarse prepass's strides). 0
+    /// where Intersect leaves its result empty: a parallel axis outside the box's slab.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public static double Exit(in RaySetup r, double loX, double loY, double loZ, double hiX, double hiY, double hiZ)
+    {
+        double far = double.PositiveInfinity;
+        if (r.ParallelX)
+        {
+            if (r.Ox < loX || r.Ox >= hiX) return 0;
+        }
+        else
+        {
+            far = ((r.Ix < 0 ? loX : hiX) - r.Ox) * r.Ix;
+        }
+        if (r.ParallelY)
+        {
+            if (r.Oy < loY || r.Oy >= hiY) return 0;
+        }
+        else
+        {
+            double b = ((r.Iy < 0 ? loY : hiY) - r.Oy) * r.Iy;
+            if (b < far) far = b;
+        }
+        if (r.ParallelZ)
+        {
+            if (r.Oz < loZ || r.Oz >= hiZ) return 0;
+        }
+        else
+        {
+            double b = ((r.Iz < 0 ? loZ : hiZ) - r.Oz) * r.Iz;
+            if (b < far) far = b;
+        }
+        return far;
+    }
 }

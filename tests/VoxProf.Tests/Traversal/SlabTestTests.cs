@@ -19,6 +19,30 @@ public class SlabTestTests
         h.FarAxis.Should().Be(0);
     }
 
+    [Fact]
+    public void Exit_is_the_far_time_of_the_full_test_on_any_box_and_ray()
+    {
+        // Exit must decide exactly as Intersect's far side (the coarse prepass's conservativeness rests on it): rays
+        // with zero components, boxes the ray misses, boxes behind it and a parallel ray outside a slab included.
+        var rng = new Random(41);
+        double Coordinate() => rng.Next(4) == 0 ? rng.Next(-3, 4) : rng.NextDouble() * 8 - 4;
+        double Component() => rng.Next(5) == 0 ? (rng.Next(2) == 0 ? 0.0 : -0.0) : rng.NextDouble() * 2 - 1;
+        int checkedBoxes = 0;
+        for (int i = 0; i < 5000; i++)
+        {
+            double dx = Component(), dy = Component(), dz = Component();
+            if (dx == 0 && dy == 0 && dz == 0)
+                continue;
+            var ray = new RaySetup(Coordinate(), Coordinate(), Coordinate(), dx, dy, dz);
+            double lx = Coordinate(), ly = Coordinate(), lz = Coordinate();
+            double hx = lx + rng.NextDouble() * 3, hy = ly + rng.NextDouble() * 3, hz = lz + rng.NextDouble() * 3;
+            SlabTest.Intersect(ray, lx, ly, lz, hx, hy, hz, double.NegativeInfinity, double.PositiveInfinity, out SlabHit full);
+            SlabTest.Exit(ray, lx, ly, lz, hx, hy, hz).Should().Be(full.Far, $"ray {i}");
+            checkedBoxes++;
+        }
+        checkedBoxes.Should().BeGreaterThan(4900);
+    }
+
     [Theory]
     [InlineData(false)]
     [InlineData(true)]
