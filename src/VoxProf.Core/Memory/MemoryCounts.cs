@@ -97,11 +97,11 @@ public struct MemoryCounts : ICostCounters, ICountFlush
     }
 
     /// <summary>Writes the ray's counts like <see cref="CostCounts.Flush"/> and closes the pixel's reads.</summary>
-    public readonly void Flush(uint[][] buffers, int pixel)
+    public readonly void Flush(Span<uint> tile, int slot)
     {
-        Counts.Flush(buffers, pixel);
-        for (int i = CounterNames.Count; i < buffers.Length; i++)
-            buffers[i][pixel] = Extras[i - CounterNames.Count];
+        Counts.Flush(tile, slot);
+        for (int i = CounterNames.Count; i < TileCounts.Counters(tile); i++)
+            tile[TileCounts.Index(i, slot)] = Extras[i - CounterNames.Count];
         _current!.EndPixel();
     }
 }

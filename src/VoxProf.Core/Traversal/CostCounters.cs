@@ -24,11 +24,14 @@ public interface ICostCounters
     void Extra(int index, uint amount);
 }
 
-/// <summary>How the tracer hands a ray's counts to the per-pixel buffers.</summary>
+/// <summary>How the tracer hands a ray's counts to its tile's counts (<see cref="TileCounts"/>).</summary>
 internal interface ICountFlush
 {
-    /// <summary>Writes this ray's counts into the per-pixel buffers (indexed by <see cref="Counter"/>, then extra counters).</summary>
-    void Flush(uint[][] buffers, int pixel);
+    /// <summary>
+    /// Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (counters indexed by
+    /// <see cref="Counter"/>, then extra counters).
+    /// </summary>
+    void Flush(Span<uint> tile, int slot);
 }
 
 /// <summary>Counting compiled out.</summary>
@@ -43,7 +46,7 @@ public struct NoCounters : ICostCounters, ICountFlush
     public void MaskCulled(int cells) { }
     public void MaskSkipped() { }
     public void Extra(int index, uint amount) { }
-    readonly void ICountFlush.Flush(uint[][] buffers, int pixel) { }
+    readonly void ICountFlush.Flush(Span<uint> tile, int slot) { }
 }
 
 /// <summary>
@@ -72,18 +75,18 @@ public struct CostCounts : ICostCounters, ICountFlush
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => MaskSkippedNodes++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public readonly void Extra(int index, uint amount) { }
 
-    /// <summary>Writes this ray's counts into the per-pixel buffers (indexed by <see cref="Counter"/>).</summary>
+    /// <summary>Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (indexed by <see cref="Counter"/>).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public readonly void Flush(uint[][] buffers, int pixel)
+    public readonly void Flush(Span<uint> tile, int slot)
     {
-        buffers[(int)Counter.Iterations][pixel] = Iterations;
-        buffers[(int)Counter.CellSteps][pixel] = CellSteps;
-        buffers[(int)Counter.SlabTests][pixel] = SlabTests;
-        buffers[(int)Counter.Descents][pixel] = Descents;
-        buffers[(int)Counter.Ascents][pixel] = Ascents;
-        buffers[(int)Counter.NodeFetches][pixel] = NodeFetches;
-        buffers[(int)Counter.MaskCulledCells][pixel] = MaskCulledCells;
-        buffers[(int)Counter.MaskSkippedNodes][pixel] = MaskSkippedNodes;
+        tile[TileCounts.Index((int)Counter.Iterations, slot)] = Iterations;
+        tile[TileCounts.Index((int)Counter.CellSteps, slot)] = CellSteps;
+        tile[TileCounts.Index((int)Counter.SlabTests, slot)] = SlabTests;
+        tile[TileCounts.Index((int)Counter.Descents, slot)] = Descents;
+        tile[TileCounts.Index((int)Counter.Ascents, slot)] = Ascents;
+        tile[TileCounts.Index((int)Counter.NodeFetches, slot)] = NodeFetches;
+        tile[TileCounts.Index((int)Counter.MaskCulledCells, slot)] = MaskCulledCells;
+        tile[TileCounts.Index((int)Counter.MaskSkippedNodes, slot)] = MaskSkippedNodes;
     }
 }
 
@@ -116,12 +119,12 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void MaskSkipped() => Counts.MaskSkippedNodes++;
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Extra(int index, uint amount) => Extras[index] += amount;
 
-    /// <summary>Writes the built-in counts, then one buffer per extra counter after <see cref="CounterNames.Count"/>.</summary>
-    public readonly void Flush(uint[][] buffers, int pixel)
+    /// <summary>Writes the built-in counts, then the extra counters after <see cref="CounterNames.Count"/>.</summary>
+    public readonly void Flush(Span<uint> tile, int slot)
     {
-        Counts.Flush(buffers, pixel);
-        for (int i = CounterNames.Count; i < buffers.Length; i++)
-            buffers[i][pixel] = Extras[i - CounterNames.Count];
+        Counts.Flush(tile, slot);
+        for (int i = CounterNames.Count; i < TileCounts.Counters(tile); i++)
+            tile[TileCounts.Index(i, slot)] = Extras[i - CounterNames.Count];
     }
 }
 

@@ -14,16 +14,20 @@ public enum HitFace : byte
 }
 
 /// <summary>What one pixel's ray hit. <see cref="Hit"/> false means a miss and the other fields are zero.</summary>
+/// <remarks>
+/// The double comes first so that the record packs into 24 bytes instead of 32: a trace writes one per pixel, and the
+/// writes of a tile's rows are cache misses (docs/performance.md, "Fewer scattered writes per pixel").
+/// </remarks>
 public struct PixelHit
 {
-    public int X;
-    public int Y;
-    public int Z;
     /// <summary>
     /// Distance along the unit-length ray to the entry into the hit voxel, in voxels: the double the traversal computed
     /// (the plane time of the last crossing, or the start distance).
     /// </summary>
     public double T;
+    public int X;
+    public int Y;
+    public int Z;
     public byte Material;
     public HitFace Face;
     public bool Hit;

@@ -132,30 +132,35 @@ public static class Tracer
         PixelHit[] hits = job.Hits;
         uint[][] buffers = job.Counters;
         Span<NodeRef> path = stackalloc NodeRef[view.Depth + 1];
+        // The tile's counts, copied into the image's buffers when the tile is done (TileCounts says why).
+        Span<uint> tile = typeof(TCounters) != typeof(NoCounters) ? stackalloc uint[buffers.Length * TileCounts.Slots] : default;
         int width = camera.Width;
         for (int y = y0; y < y1; y++)
         {
             for (int x = x0; x < x1; x++)
             {
                 int pixel = y * width + x;
+                int slot = (y - y0) * TileSize + (x - x0);
                 RaySetup ray = camera.Ray(x, y);
                 double tMin = prepass?.Start(x, y) ?? 0;
+                // The buffers start cleared (ResultBuffers) and each pixel is traced once: a miss writes nothing.
                 ref PixelHit hit = ref hits[pixel];
-                hit = default;
                 TCounters counters = TStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
                 if (typeof(TCounters) != typeof(NoCounters))
                 {
-                    counters.Flush(buffers, pixel);
+                    counters.Flush(tile, slot);
                     if (prepass != null)
                     {
-                        buffers[(int)Counter.PrepassIterations][pixel] = prepass.IterationShare(x, y, width, camera.Height);
-                        buffers[(int)Counter.PrepassNodeFetches][pixel] = prepass.NodeFetchShare(x, y, width, camera.Height);
-                        buffers[(int)Counter.PrepassSkip][pixel] = SkippedVoxels(view, ray, tMin);
+                        tile[TileCounts.Index((int)Counter.PrepassIterations, slot)] = prepass.IterationShare(x, y, width, camera.Height);
+                        tile[TileCounts.Index((int)Counter.PrepassNodeFetches, slot)] = prepass.NodeFetchShare(x, y, width, camera.Height);
+                        tile[TileCounts.Index((int)Counter.PrepassSkip, slot)] = SkippedVoxels(view, ray, tMin);
                     }
                 }
             }
         }
+        if (typeof(TCounters) != typeof(NoCounters))
+            TileCounts.CopyTo(tile, buffers, width, x0, y0, x1, y1);
     }
 
     /// <summary>Whole voxels between where the ray would have entered the volume and where the prepass let it start.</summary>

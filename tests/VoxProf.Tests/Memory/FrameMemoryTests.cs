@@ -34,6 +34,7 @@ public sealed class FrameMemoryTests
             {
                 int x1 = Math.Min(f.Width, x0 + Tracer.TileSize), y1 = Math.Min(f.Height, y0 + Tracer.TileSize);
                 TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                var tile = new uint[buffers.Length * TileCounts.Slots];
                 for (int y = y0; y < y1; y++)
                 {
                     for (int x = x0; x < x1; x++)
@@ -41,9 +42,10 @@ public sealed class FrameMemoryTests
                         MemoryCounts counts = default;
                         foreach (int node in f.Reads[y * f.Width + x])
                             counts.NodeFetch(node);
-                        counts.Flush(buffers, y * f.Width + x);
+                        counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0));
                     }
                 }
+                TileCounts.CopyTo(tile, buffers, f.Width, x0, y0, x1, y1);
                 memory.EndTile(reads, buffers[(int)Counter.CacheLines]);
             }
         }
