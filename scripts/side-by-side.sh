@@ -15,7 +15,8 @@
 #     generates the 1024x256x1024 raw terrain scene there once;
 #  2. builds tests/VoxProf.Benchmarks (Release) and publishes the command through ./voxprof;
 #  3. VoxProf's dda, dda-mask and hdda against refbrick --mode both, one thread each, interleaved, counting on,
-#     per CPU second (the `side` benchmark); checks both did the same iterations;
+#     per CPU second, each side of a round the fastest of 3 traces (the `side` benchmark); checks both did the same
+#     iterations;
 #  4. the share of a whole `voxprof trace --strategy dda-mask` run's process CPU (2560x1440, the raw scene) spent
 #     tracing: CPU seconds of that trace alone on one thread (measured in the benchmark) over the run's user+system
 #     seconds;

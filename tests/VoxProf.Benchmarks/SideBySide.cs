@@ -17,12 +17,18 @@ namespace VoxProf.Benchmarks;
 /// <see cref="Tracer.Run"/>, which also holds the allocation and first touch of the result buffers (about 70 MB at
 /// 1280×720, which this virtual machine hands out slowly: the ratios understate VoxProf's tracing). A second set of ratios
 /// times VoxProf's tracing alone: the wall time of the strategy's timed region on one thread, its buffers allocated
-/// before it, as the reference allocates its hit array before its own timing (its first pass still touches those pages). Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
+/// before it, as the reference allocates its hit array before its own timing (its first pass still touches those pages).
+/// Each side of a round is the fastest of <see cref="Repetitions"/> traces (the reference's own `--reps`): this machine
+/// slows whole processes at random, and a slowdown only ever adds time, so the fastest of a few is the figure least
+/// moved by it. Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
 /// Also prints the CPU seconds of one `dda-mask` trace at <c>SHARE_SIZE</c> (for the share of a whole run's CPU).
 /// </summary>
 public static partial class SideBySide
 {
     private static readonly StrategyDefinition[] Strategies = [BuiltInStrategies.Dda, BuiltInStrategies.DdaMask, BuiltInStrategies.Hdda];
+
+    /// <summary>Traces per side of a round, of which the fastest counts.</summary>
+    public const int Repetitions = 3;
 
     public static int Run(string refbrick, string scenePath, string camera, int width, int height, int rounds,
         (int Width, int Height)? shareSize, TextWriter output)
@@ -50,7 +56,8 @@ public static partial class SideBySide
                 {
                     foreach (StrategyDefinition s in Strategies)
                     {
-                        (double cpu, double tracing, long iterations) = TraceCpu(scene, tree, cam, width, height, s);
+                        var traces = Enumerable.Range(0, Repetitions).Select(_ => TraceCpu(scene, tree, cam, width, height, s)).ToList();
+                        (double cpu, double tracing, long iterations) = (traces.Min(t => t.Cpu), traces.Min(t => t.Tracing), traces[0].Iterations);
                         vox[s] = pixels / cpu;
                         voxTracing[s] = pixels / tracing;
                         voxIterations[s] = iterations;
@@ -112,7 +119,8 @@ public static partial class SideBySide
             RedirectStandardOutput = true,
             UseShellExecute = false,
         };
-        foreach (string a in new[] { "--scene", scene, "--camera", camera, "--size", $"{width}x{height}", "--mode", "both", "--quiet" })
+        foreach (string a in new[] { "--scene", scene, "--camera", camera, "--size", $"{width}x{height}", "--mode", "both", "--reps",
+                     Repetitions.ToString(CultureInfo.InvariantCulture), "--quiet" })
             info.ArgumentList.Add(a);
         using Process p = Process.Start(info) ?? throw new InvalidOperationException($"could not start {refbrick}");
         string text = p.StandardOutput.ReadToEnd();
@@ -122,9 +130,9 @@ public static partial class SideBySide
         var results = new List<(string, double, long)>();
         foreach (Match m in ReferenceLine().Matches(text))
             results.Add((m.Groups[1].Value, double.Parse(m.Groups[2].Value, CultureInfo.InvariantCulture), long.Parse(m.Groups[3].Value, CultureInfo.InvariantCulture)));
-        if (results.Count != 2)
+        if (results.Count != 2 * Repetitions)
             throw new InvalidOperationException($"unexpected output from {refbrick}: {text}");
-        return results;
+        return [.. results.GroupBy(r => r.Item1).Select(g => (g.Key, g.Min(r => r.Item2), g.First().Item3))];
     }
 
     // "refbrick dda  rep 0: trace 2.5615 s wall 0.3562 s cpu, ..., iterations 26087874 (28.31/px), ..."
