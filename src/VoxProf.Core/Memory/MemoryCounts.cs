@@ -100,8 +100,7 @@ public struct MemoryCounts : ICostCounters, ICountFlush
     public readonly void Flush(Span<uint> tile, int slot)
     {
         Counts.Flush(tile, slot);
-        for (int i = CounterNames.Count; i < TileCounts.Counters(tile); i++)
-            tile[TileCounts.Index(i, slot)] = Extras[i - CounterNames.Count];
+        Extras.Flush(tile, slot);
         _current!.EndPixel();
     }
 }

@@ -98,6 +98,13 @@ public struct ExtraCounts
     public const int Capacity = 8;
 
     private uint _first;
+
+    /// <summary>Writes the extra counts into slot <paramref name="slot"/> of a tile's counts, after the built-in counters.</summary>
+    internal readonly void Flush(Span<uint> tile, int slot)
+    {
+        for (int i = CounterNames.Count; i < TileCounts.Counters(tile); i++)
+            tile[TileCounts.Index(i, slot)] = this[i - CounterNames.Count];
+    }
 }
 
 /// <summary>
@@ -123,8 +130,7 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
     public readonly void Flush(Span<uint> tile, int slot)
     {
         Counts.Flush(tile, slot);
-        for (int i = CounterNames.Count; i < TileCounts.Counters(tile); i++)
-            tile[TileCounts.Index(i, slot)] = Extras[i - CounterNames.Count];
+        Extras.Flush(tile, slot);
     }
 }
 

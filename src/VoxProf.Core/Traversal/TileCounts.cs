@@ -7,9 +7,9 @@ namespace VoxProf.Core.Traversal;
 /// element c·<see cref="Slots"/> + s. Rays flush their counts here, in the first-level cache, and the tile goes into
 /// the image's per-counter buffers when it is done, leaving out the counters that stayed zero on it: every counter
 /// written costs the cache misses of sixteen rows scattered over the image, and most strategies leave several counters
-/// at zero everywhere (`dda` the two mask counters, every run without the prepass its three, every run without the
-/// memory model the cache lines). Flushed straight into the image's buffers, every ray wrote all eight built-in
-/// counters (docs/performance.md, "Fewer scattered writes per pixel").
+/// at zero everywhere (`dda` the two mask counters, a run without the prepass its three; the memory model writes the
+/// cache lines itself). Flushed straight into the image's buffers, every ray wrote all eight built-in counters
+/// (docs/performance.md, "Fewer scattered writes per pixel").
 /// </summary>
 internal static class TileCounts
 {
