@@ -46,5 +46,14 @@ public readonly struct Camera
         return Vector3.Normalize(d);
     }
 
+    /// <summary>
+    /// A bound, in radians, on the angle between any pixel's float direction and the exact point of the image plane
+    /// it stands for (forward + u·right + v·trueUp with u and v unrounded): each of u and v carries a few float
+    /// roundings of magnitude up to tan(fov/2)·(W/H) and tan(fov/2), the sum and the normalisation a few of its own
+    /// length, which is at least 1: at most 11·2⁻²⁴·(1 + tan(fov/2) + tan(fov/2)·(W/H)) in all (docs/strategies.md,
+    /// prepass step 1). This is about six times that.
+    /// </summary>
+    internal double DirectionAngleError => Math.ScaleB(1.0 + _tanHalf + (double)_tanHalf * _aspect, -18);
+
     public RaySetup Ray(int x, int y) => new(Eye, Direction(x, y));
 }

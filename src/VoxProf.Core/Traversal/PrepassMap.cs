@@ -110,28 +110,39 @@ public sealed class PrepassMap
     }
 
     /// <summary>
-    /// tan of the widest angle between the unit axis a and the block's pixel rays, taken over every pixel ray exactly as
-    /// the pixel traces it (the float direction), and the greatest length among those directions. In double, the
-    /// tangent |a×p| / (a·p) keeps its digits at any angle and does not depend on the length of p, where an angle from
-    /// the arc cosine of a dot product near 1 loses most of them. +∞ when some pixel ray is 90° or more off the axis.
+    /// Allowance for the length of a pixel direction: a normalised float direction is unit to a few float ulps
+    /// (2⁻²⁴ each), so every pixel's is below the longest corner's plus 2⁻²⁰.
     /// </summary>
-    private static void Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1,
+    internal const double LengthAllowance = 1.0 / (1 << 20);
+
+    /// <summary>
+    /// tan of the widest angle between the unit axis a and the block's pixel rays, and the greatest length among those
+    /// directions, each with an allowance for float rounding. Only the four corner pixels are evaluated (evaluating
+    /// every pixel cost about a quarter of the prepass): before rounding, the block's directions are points of a
+    /// rectangle on the image plane, and the points within a given angle of a form a convex cone, so no interior point
+    /// lies farther off the axis than the farthest corner. A float direction is within
+    /// <see cref="Camera.DirectionAngleError"/> of its exact point, so the widest corner angle plus twice that bounds
+    /// every pixel's (docs/strategies.md). In double, the tangent |a×p| / (a·p) keeps its digits at any angle and does
+    /// not depend on the length of p, where an angle from the arc cosine of a dot product near 1 loses most of them.
+    /// +∞ when some pixel ray may be 90° or more off the axis.
+    /// </summary>
+    internal static void Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1,
         out double slope, out double longest)
     {
         slope = 0;
         longest = 0;
-        for (int y = y0; y < y1; y++)
+        for (int corner = 0; corner < 4; corner++)
         {
-            for (int x = x0; x < x1; x++)
-            {
-                Vector3 p = camera.Direction(x, y);
-                double px = p.X, py = p.Y, pz = p.Z;
-                double cx = ay * pz - az * py, cy = az * px - ax * pz, cz = ax * py - ay * px;
-                double dot = ax * px + ay * py + az * pz;
-                double tan = dot > 0 ? Math.Sqrt(cx * cx + cy * cy + cz * cz) / dot : double.PositiveInfinity;
-                slope = Math.Max(slope, tan);
-                longest = Math.Max(longest, Math.Sqrt(px * px + py * py + pz * pz));
-            }
+            Vector3 p = camera.Direction((corner & 1) == 0 ? x0 : x1 - 1, (corner & 2) == 0 ? y0 : y1 - 1);
+            double px = p.X, py = p.Y, pz = p.Z;
+            double cx = ay * pz - az * py, cy = az * px - ax * pz, cz = ax * py - ay * px;
+            double dot = ax * px + ay * py + az * pz;
+            double tan = dot > 0 ? Math.Sqrt(cx * cx + cy * cy + cz * cz) / dot : double.PositiveInfinity;
+            slope = Math.Max(slope, tan);
+            longest = Math.Max(longest, Math.Sqrt(px * px + py * py + pz * pz));
         }
+        double widest = Math.Atan(slope) + 2 * camera.DirectionAngleError;
+        slope = widest < Math.PI / 2 ? Math.Tan(widest) : double.PositiveInfinity;
+        longest += LengthAllowance;
     }
 }
