@@ -45,12 +45,6 @@ public sealed class PrepassMap
     /// <summary>Look-ups the coarse ray of the block containing (x, y) made in the coarse occupancy grids.</summary>
     public uint BlockNodeFetches(int x, int y) => _lookups[BlockOf(x, y)];
 
-    /// <summary>This pixel's share of its block's coarse-ray iterations (see <see cref="Share(uint, int, int, int, int)"/>).</summary>
-    public uint IterationShare(int x, int y, int width, int height) => Share(BlockIterations(x, y), x, y, width, height);
-
-    /// <summary>This pixel's share of its block's coarse-ray look-ups, split as iterations are.</summary>
-    public uint NodeFetchShare(int x, int y, int width, int height) => Share(BlockNodeFetches(x, y), x, y, width, height);
-
     /// <summary>
     /// This pixel's share of a block total: an even split whose remainder goes to the first pixels of the block in
     /// row-major order, so the shares add up exactly to the total. <paramref name="width"/> and
@@ -72,6 +66,41 @@ public sealed class PrepassMap
             return (total >> log2N) + (index < (total & (n - 1)) ? 1u : 0u);
         }
         return total / n + (index < total % n ? 1u : 0u);
+    }
+
+    /// <summary>
+    /// Writes each pixel's shares of its block's coarse-ray iterations and look-ups, split as <see cref="Share"/>
+    /// splits them, for the image tile [x0, x1) × [y0, y1) into the tile's counts (<see cref="TileCounts"/>): a block
+    /// at a time, where a pair of calls per pixel repeated the block's arithmetic and checks for each of its pixels. A
+    /// tile starts on a multiple of its size, which every block size divides.
+    /// </summary>
+    internal void FillShares(Span<uint> tile, int x0, int y0, int x1, int y1)
+    {
+        if (((x0 | y0) & (Block - 1)) != 0 || x1 > _width || y1 > _height)
+            throw new ArgumentException($"the tile at ({x0}, {y0}) does not start on a block of the map's {_width}x{_height} image");
+        Span<uint> iterations = tile.Slice(TileCounts.Index((int)Counter.PrepassIterations, 0), TileCounts.Slots);
+        Span<uint> lookups = tile.Slice(TileCounts.Index((int)Counter.PrepassNodeFetches, 0), TileCounts.Slots);
+        for (int by = y0; by < y1; by += Block)
+        {
+            for (int bx = x0; bx < x1; bx += Block)
+            {
+                int b = BlockOf(bx, by);
+                int w = Math.Min(_width - bx, Block), h = Math.Min(_height - by, Block);
+                uint n = (uint)(w * h);
+                uint iterationsEach = _iterations[b] / n, iterationsLeft = _iterations[b] % n;
+                uint lookupsEach = _lookups[b] / n, lookupsLeft = _lookups[b] % n;
+                for (int j = 0; j < h; j++)
+                {
+                    int slot = (by - y0 + j) * Tracer.TileSize + (bx - x0);
+                    for (int i = 0; i < w; i++)
+                    {
+                        uint index = (uint)(j * w + i);
+                        iterations[slot + i] = iterationsEach + (index < iterationsLeft ? 1u : 0u);
+                        lookups[slot + i] = lookupsEach + (index < lookupsLeft ? 1u : 0u);
+                    }
+                }
+            }
+        }
     }
 
     /// <summary>

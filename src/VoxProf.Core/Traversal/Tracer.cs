@@ -151,21 +151,23 @@ public static class Tracer
                 {
                     counters.Flush(tile, slot);
                     if (prepass != null)
-                    {
-                        tile[TileCounts.Index((int)Counter.PrepassIterations, slot)] = prepass.IterationShare(x, y, width, camera.Height);
-                        tile[TileCounts.Index((int)Counter.PrepassNodeFetches, slot)] = prepass.NodeFetchShare(x, y, width, camera.Height);
                         tile[TileCounts.Index((int)Counter.PrepassSkip, slot)] = SkippedVoxels(view, ray, tMin);
-                    }
                 }
             }
         }
         if (typeof(TCounters) != typeof(NoCounters))
+        {
+            prepass?.FillShares(tile, x0, y0, x1, y1);
             TileCounts.CopyTo(tile, buffers, width, x0, y0, x1, y1);
+        }
     }
 
     /// <summary>Whole voxels between where the ray would have entered the volume and where the prepass let it start.</summary>
     private static uint SkippedVoxels(in TreeView view, in RaySetup ray, double tMin)
     {
+        // A block whose coarse ray could not advance skips nothing, whatever the slab test would say.
+        if (tMin <= 0)
+            return 0;
         if (!SlabTest.Intersect(ray, 0, 0, 0, view.ExtentX, view.ExtentY, view.ExtentZ, 0, double.PositiveInfinity, out SlabHit box))
             return 0;
         double skipped = Math.Min(tMin, box.Far) - box.Near;
