@@ -12,6 +12,9 @@ namespace VoxProf.Core.Memory;
 /// </summary>
 public sealed class FrameMemory
 {
+    /// <summary>Size of the per-pixel memory of recent nodes (a power of two).</summary>
+    private const int RecentNodes = 32;
+
     private readonly MemorySettings _settings;
     private readonly NodeLayout _layout;
     private readonly int _width;
@@ -76,12 +79,20 @@ public sealed class FrameMemory
         int shift = _settings.LineShift;
         int tileWidth = reads.X1 - reads.X0;
         LineSet set = scratch.Set;
+        Span<int> recent = stackalloc int[RecentNodes];
         int at = 0;
         for (int k = 0; k < reads.Pixels; k++)
         {
             set.Clear();
+            // Nodes already added for this pixel add nothing: a direct-mapped memory of recent nodes skips most
+            // rereads (grid rereads the few nodes above each voxel for every voxel) before their lines are hashed.
+            recent.Fill(-1);
             foreach (int node in reads.Of(k))
             {
+                ref int seen = ref recent[node & (RecentNodes - 1)];
+                if (seen == node)
+                    continue;
+                seen = node;
                 int last = _layout.LastLine(node, shift);
                 for (int line = _layout.FirstLine(node, shift); line <= last; line++)
                     set.Add(line);
@@ -152,11 +163,16 @@ public sealed class FrameMemory
                 {
                     // The set keeps each line once, in the order it first appears: one request per distinct line.
                     step.Clear();
+                    int previous = -1;
                     for (int lane = 0; lane < laneCount; lane++)
                     {
                         if (s >= lengths[lane])
                             continue;
                         int node = all[starts[lane] + s];
+                        // Neighbouring lanes often read the same node at the same step: its lines are in the set.
+                        if (node == previous)
+                            continue;
+                        previous = node;
                         int last = _layout.LastLine(node, shift);
                         for (int line = _layout.FirstLine(node, shift); line <= last; line++)
                             step.Add(line);

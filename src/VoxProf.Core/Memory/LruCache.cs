@@ -32,6 +32,10 @@ public sealed class LruCache
     {
         ArgumentOutOfRangeException.ThrowIfNegative(line);
         Span<int> set = _lines.AsSpan(line % Sets * Ways, Ways);
+        // Rereading a set's most recent line changes nothing: the common case when rays reread the nodes near the
+        // root (the grid strategy rereads them for every voxel).
+        if (set[0] == line)
+            return true;
         int found = set.IndexOf(line);
         bool hit = found >= 0;
         // On a miss the last way (the least recent, or an empty one) is the one dropped.
