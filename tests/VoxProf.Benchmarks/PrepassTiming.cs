@@ -58,10 +58,7 @@ public static class PrepassTiming
             TimeSpan m0 = Process.GetCurrentProcess().TotalProcessorTime;
             PrepassMap map = PrepassMap.Compute(tree, image, block, one);
             double mapSeconds = (Process.GetCurrentProcess().TotalProcessorTime - m0).TotalSeconds;
-            long coarseIterations = 0;
-            for (int by = 0; by < map.BlocksY; by++)
-                for (int bx = 0; bx < map.BlocksX; bx++)
-                    coarseIterations += map.BlockIterations(bx * block, by * block);
+            long coarseIterations = map.TotalIterations;
             double pixels = (double)width * height;
             double Mean(TraceRun run, Counter c) => run.Results[0].Counters[(int)c].Sum(v => (long)v) / pixels;
             output.WriteLine(FormattableString.Invariant(

@@ -28,6 +28,7 @@ public readonly struct Camera
         // Math.Tan in double, rounded once: float tangent functions differ between C runtimes in the last bit.
         _tanHalf = (float)Math.Tan(spec.FovYDegrees * Math.PI / 360.0);
         _aspect = (float)width / height;
+        DirectionAngleWidening = Math.Tan(2 * DirectionAngleError);
     }
 
     public Vector3 Eye { get; }
@@ -54,6 +55,9 @@ public readonly struct Camera
     /// prepass step 1). This is about six times that.
     /// </summary>
     internal double DirectionAngleError => Math.ScaleB(1.0 + _tanHalf + (double)_tanHalf * _aspect, -18);
+
+    /// <summary>tan(2·<see cref="DirectionAngleError"/>): what the prepass widens every cone's half-angle by.</summary>
+    internal double DirectionAngleWidening { get; }
 
     public RaySetup Ray(int x, int y) => new(Eye, Direction(x, y));
 }

@@ -30,7 +30,15 @@ public static class ConePrepass
     /// the cone never meets the volume). Counts its iterations and its look-ups in <paramref name="grids"/> (one per
     /// level tested, less the tests it already knows the answer to).
     /// </summary>
-    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups)
+    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups) =>
+        March(grids, axis, slope, 0, out iterations, out lookups);
+
+    /// <summary>
+    /// As <see cref="March(CoarseOccupancy, in RaySetup, double, out uint, out uint)"/>, starting no nearer than
+    /// <paramref name="from"/> along the axis: the caller knows the cone is of no interest before it (the prepass
+    /// starts a block's coarse ray where the enclosing block's stopped).
+    /// </summary>
+    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, double from, out uint iterations, out uint lookups)
     {
         iterations = 0;
         lookups = 0;
@@ -41,7 +49,7 @@ public static class ConePrepass
         if (!SlabTest.Intersect(axis, -grow, -grow, -grow, grids.ExtentX + grow, grids.ExtentY + grow, grids.ExtentZ + grow,
                 0, double.PositiveInfinity, out SlabHit box))
             return double.PositiveInfinity;
-        double t = box.Near;
+        double t = Math.Max(box.Near, from);
         double tEnd = box.Far;
         double slack = Rounding * (1 + Math.Max(Math.Abs(axis.Ox), Math.Max(Math.Abs(axis.Oy), Math.Abs(axis.Oz))) + tEnd);
 

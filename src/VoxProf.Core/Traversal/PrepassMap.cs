@@ -5,90 +5,88 @@ using VoxProf.Core.Trees;
 namespace VoxProf.Core.Traversal;
 
 /// <summary>
-/// The prepass result for one image: per K×K block, a start distance and the coarse ray's work (iterations and grid
-/// look-ups), which each pixel of the block is charged a share of.
+/// The prepass result for one image: per K×K block, a start distance for its pixel rays, and the coarse rays' work
+/// each pixel is charged a share of. The coarse rays run level by level, from blocks of <see cref="TopBlock"/> pixels
+/// down to K×K, each one starting where the ray of the block enclosing it stopped (docs/strategies.md): the long
+/// approach through empty space is marched once per 32×32 pixels instead of once per K×K, and a pixel is charged its
+/// share of every coarse ray that served it.
 /// </summary>
 public sealed class PrepassMap
 {
-    private readonly double[] _start;
-    private readonly uint[] _iterations;
-    private readonly uint[] _lookups;
-    private readonly int _log2Block, _width, _height;
+    /// <summary>
+    /// Side of the coarsest blocks. Marching blocks of 32, 16, 8 and then 4 pixels took a fifth to a third of the
+    /// coarse-ray iterations per pixel that blocks of 4 alone took on the demo cameras; larger top blocks saved under 2%
+    /// more (docs/performance.md).
+    /// </summary>
+    public const int TopBlock = 32;
 
-    private PrepassMap(int block, int blocksX, int blocksY, int width, int height, double[] start, uint[] iterations, uint[] lookups)
+    private readonly PrepassLevel[] _levels;
+    private readonly PrepassLevel _finest;
+    private readonly uint[] _blockIterations, _blockLookups;
+    private readonly int _width, _height;
+
+    private PrepassMap(int block, int width, int height, PrepassLevel[] levels)
     {
         Block = block;
-        BlocksX = blocksX;
-        BlocksY = blocksY;
-        _log2Block = BitOperations.Log2((uint)block);
         _width = width;
         _height = height;
-        _start = start;
-        _iterations = iterations;
-        _lookups = lookups;
+        _levels = levels;
+        _finest = levels[^1];
+        _blockIterations = BlockTotals(levels, l => l.Iterations);
+        _blockLookups = BlockTotals(levels, l => l.Lookups);
     }
 
+    /// <summary>K: the side of the blocks whose pixel rays share a start distance.</summary>
     public int Block { get; }
-    public int BlocksX { get; }
-    public int BlocksY { get; }
 
-    // Per-pixel calls run for every pixel of a traced image: the block is a power of two, so shifts and masks replace
-    // divisions (a handful of integer divisions per pixel cost more than the pixel's own walk saved).
-    private int BlockOf(int x, int y) => (y >> _log2Block) * BlocksX + (x >> _log2Block);
+    /// <summary>The levels of coarse rays, from blocks of <see cref="TopBlock"/> (or K, if larger) down to K.</summary>
+    public IReadOnlyList<PrepassLevel> Levels => _levels;
 
-    /// <summary>Distance at which every pixel ray of the block containing (x, y) may start (+∞: it meets nothing).</summary>
-    public double Start(int x, int y) => _start[BlockOf(x, y)];
-
-    /// <summary>Iterations of the coarse ray of the block containing (x, y).</summary>
-    public uint BlockIterations(int x, int y) => _iterations[BlockOf(x, y)];
-
-    /// <summary>Look-ups the coarse ray of the block containing (x, y) made in the coarse occupancy grids.</summary>
-    public uint BlockNodeFetches(int x, int y) => _lookups[BlockOf(x, y)];
+    /// <summary>Distance at which every pixel ray of the K×K block containing (x, y) may start (+∞: it meets nothing).</summary>
+    public double Start(int x, int y) => _finest.Starts[_finest.BlockOf(x, y)];
 
     /// <summary>
-    /// This pixel's share of a block total: an even split whose remainder goes to the first pixels of the block in
-    /// row-major order, so the shares add up exactly to the total. <paramref name="width"/> and
-    /// <paramref name="height"/> are the image's, which the map was computed for.
+    /// The coarse-ray iterations charged to the K×K block containing pixel (x, y): its own coarse ray's, and its share
+    /// of each enclosing block's (<see cref="BlockTotals"/>).
     /// </summary>
-    public uint Share(uint total, int x, int y, int width, int height)
-    {
-        if (width != _width || height != _height)
-            throw new ArgumentException($"the map is of a {_width}x{_height} image, not {width}x{height}");
-        int k = Block - 1;
-        int x0 = x & ~k, y0 = y & ~k;
-        int w = Math.Min(width - x0, Block), h = Math.Min(height - y0, Block);
-        uint n = (uint)(w * h);
-        uint index = (uint)((y & k) * w + (x & k));
-        // Full blocks (all but the right and bottom edges) have n = K², a power of two.
-        if (n == (uint)Block * (uint)Block)
-        {
-            int log2N = 2 * _log2Block;
-            return (total >> log2N) + (index < (total & (n - 1)) ? 1u : 0u);
-        }
-        return total / n + (index < total % n ? 1u : 0u);
-    }
+    public uint BlockIterations(int x, int y) => _blockIterations[_finest.BlockOf(x, y)];
+
+    /// <summary>The coarse-ray look-ups charged to the K×K block containing pixel (x, y), as iterations are.</summary>
+    public uint BlockNodeFetches(int x, int y) => _blockLookups[_finest.BlockOf(x, y)];
+
+    /// <summary>Iterations of all the coarse rays.</summary>
+    public long TotalIterations => _levels.Sum(l => l.Iterations.Sum(v => (long)v));
+
+    /// <summary>Look-ups of all the coarse rays in the coarse occupancy grids.</summary>
+    public long TotalLookups => _levels.Sum(l => l.Lookups.Sum(v => (long)v));
 
     /// <summary>
-    /// Writes each pixel's shares of its block's coarse-ray iterations and look-ups, split as <see cref="Share"/>
-    /// splits them, for the image tile [x0, x1) × [y0, y1) into the tile's counts (<see cref="TileCounts"/>): a block
-    /// at a time, where a pair of calls per pixel repeated the block's arithmetic and checks for each of its pixels. A
-    /// tile starts on a multiple of its size, which every block size divides.
+    /// This pixel's share of a total of its K×K block: an even split whose remainder goes one each to the first pixels
+    /// of the block in row-major order, so the shares add up exactly to the total (the blocks at the image's right and
+    /// bottom edges are cut short and split among the pixels they have).
+    /// </summary>
+    public uint Share(uint total, int x, int y) => _finest.Share(total, x, y);
+
+    /// <summary>
+    /// Writes each pixel's prepass counts for the image tile [x0, x1) × [y0, y1) into the tile's counts
+    /// (<see cref="TileCounts"/>): its share of its block's <see cref="BlockIterations"/> and
+    /// <see cref="BlockNodeFetches"/>, a block at a time.
     /// </summary>
     internal void FillShares(Span<uint> tile, int x0, int y0, int x1, int y1)
     {
-        if (((x0 | y0) & (Block - 1)) != 0 || x1 > _width || y1 > _height)
-            throw new ArgumentException($"the tile at ({x0}, {y0}) does not start on a block of the map's {_width}x{_height} image");
+        if (((x0 | y0) & (Block - 1)) != 0 || x1 > _width || y1 > _height || x1 - x0 > Tracer.TileSize || y1 - y0 > Tracer.TileSize)
+            throw new ArgumentException($"({x0}, {y0})-({x1}, {y1}) is not a tile of the map's {_width}x{_height} image");
         Span<uint> iterations = tile.Slice(TileCounts.Index((int)Counter.PrepassIterations, 0), TileCounts.Slots);
         Span<uint> lookups = tile.Slice(TileCounts.Index((int)Counter.PrepassNodeFetches, 0), TileCounts.Slots);
         for (int by = y0; by < y1; by += Block)
         {
             for (int bx = x0; bx < x1; bx += Block)
             {
-                int b = BlockOf(bx, by);
+                int b = _finest.BlockOf(bx, by);
                 int w = Math.Min(_width - bx, Block), h = Math.Min(_height - by, Block);
                 uint n = (uint)(w * h);
-                uint iterationsEach = _iterations[b] / n, iterationsLeft = _iterations[b] % n;
-                uint lookupsEach = _lookups[b] / n, lookupsLeft = _lookups[b] % n;
+                uint iterationsEach = _blockIterations[b] / n, iterationsLeft = _blockIterations[b] % n;
+                uint lookupsEach = _blockLookups[b] / n, lookupsLeft = _blockLookups[b] % n;
                 for (int j = 0; j < h; j++)
                 {
                     int slot = (by - y0 + j) * Tracer.TileSize + (bx - x0);
@@ -104,7 +102,41 @@ public sealed class PrepassMap
     }
 
     /// <summary>
-    /// Traces the coarse ray of every K×K block of <paramref name="camera"/>'s image (K = <paramref name="block"/>)
+    /// The work charged to each K×K block: its own coarse ray's, plus, for each enclosing block, an even share of that
+    /// block's coarse ray, split over the K×K blocks it encloses with the remainder one each to the first of them in
+    /// row-major order. The totals add up exactly to every coarse ray's work, and a pixel is then charged its share of
+    /// its block's total, as with a single level.
+    /// </summary>
+    private static uint[] BlockTotals(PrepassLevel[] levels, Func<PrepassLevel, uint[]> work)
+    {
+        PrepassLevel finest = levels[^1];
+        uint[] totals = (uint[])work(finest).Clone();
+        foreach (PrepassLevel level in levels[..^1])
+        {
+            uint[] own = work(level);
+            int per = level.Block / finest.Block;
+            for (int ey = 0; ey < level.BlocksY; ey++)
+            {
+                for (int ex = 0; ex < level.BlocksX; ex++)
+                {
+                    // The enclosing block's K×K blocks, cut short at the image's edges, in row-major order.
+                    int across = Math.Min(finest.BlocksX - ex * per, per), down = Math.Min(finest.BlocksY - ey * per, per);
+                    uint n = (uint)(across * down), total = own[ey * level.BlocksX + ex];
+                    uint each = total / n, left = total % n, index = 0;
+                    for (int j = 0; j < down; j++)
+                    {
+                        int row = (ey * per + j) * finest.BlocksX + ex * per;
+                        for (int i = 0; i < across; i++, index++)
+                            totals[row + i] += each + (index < left ? 1u : 0u);
+                    }
+                }
+            }
+        }
+        return totals;
+    }
+
+    /// <summary>
+    /// Traces the coarse rays of <paramref name="camera"/>'s image for K×K blocks (K = <paramref name="block"/>)
     /// through the tree's <see cref="BrickTree.Coarse"/> grids, built here on the tree's first prepass.
     /// </summary>
     public static PrepassMap Compute(BrickTree tree, Camera camera, int block, ParallelOptions options) =>
@@ -115,28 +147,57 @@ public sealed class PrepassMap
     {
         if (block is not (2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(block), "the prepass block must be 2, 4 or 8");
-        int blocksX = (camera.Width + block - 1) / block, blocksY = (camera.Height + block - 1) / block;
-        var start = new double[blocksX * blocksY];
-        var iterations = new uint[blocksX * blocksY];
-        var lookups = new uint[blocksX * blocksY];
-        Parallel.For(0, blocksX * blocksY, options, i =>
+        var levels = new List<PrepassLevel>();
+        PrepassLevel? parent = null;
+        for (int size = Math.Max(block, TopBlock); size >= block; size /= 2)
         {
-            int bx = i % blocksX, by = i / blocksX;
-            int x0 = bx * block, y0 = by * block;
-            int x1 = Math.Min(camera.Width, x0 + block), y1 = Math.Min(camera.Height, y0 + block);
-            Vector3 centre = camera.Direction((x0 + x1) * 0.5f, (y0 + y1) * 0.5f);
-            double ax = centre.X, ay = centre.Y, az = centre.Z;
-            double length = Math.Sqrt(ax * ax + ay * ay + az * az);
-            ax /= length; ay /= length; az /= length;
-            Cone(camera, ax, ay, az, x0, y0, x1, y1, out double slope, out double longest);
-            var axis = new RaySetup(camera.Eye.X, camera.Eye.Y, camera.Eye.Z, ax, ay, az);
-            double s = ConePrepass.March(grids, axis, slope, out iterations[i], out lookups[i]);
-            // March measures distance along the unit axis; a pixel ray's parameter is distance over its own length,
-            // which float normalisation leaves a few 1e-8 away from 1: the longest ray of the block reaches s first.
-            start[i] = s / longest;
-        });
-        return new PrepassMap(block, blocksX, blocksY, camera.Width, camera.Height, start, iterations, lookups);
+            var level = new PrepassLevel(size, camera.Width, camera.Height);
+            PrepassLevel? enclosing = parent;
+            // Levels run one after another; within a level every block is independent, so any thread order gives the
+            // same map.
+            Parallel.For(0, level.BlocksX * level.BlocksY, options, i => March(grids, camera, level, enclosing, i));
+            levels.Add(level);
+            parent = level;
+        }
+        return new PrepassMap(block, camera.Width, camera.Height, [.. levels]);
     }
+
+    /// <summary>
+    /// The coarse ray of block <paramref name="index"/> of <paramref name="level"/>. Every pixel ray of the block is
+    /// empty before the enclosing block's start T (its pixels include them all); a point of such a ray at parameter t ≥ T
+    /// lies at distance at least T·|p|·cos θ along this block's axis, θ the cone's half-angle, so the coarse ray starts
+    /// there (less allowances for |p| and rounding), and the block's start is the later of T and its own.
+    /// </summary>
+    private static void March(CoarseOccupancy grids, Camera camera, PrepassLevel level, PrepassLevel? enclosing, int index)
+    {
+        int block = level.Block;
+        int x0 = index % level.BlocksX * block, y0 = index / level.BlocksX * block;
+        int x1 = Math.Min(camera.Width, x0 + block), y1 = Math.Min(camera.Height, y0 + block);
+        double before = enclosing is null ? 0 : enclosing.Starts[enclosing.BlockOf(x0, y0)];
+        if (double.IsPositiveInfinity(before))
+        {
+            // The enclosing cone never meets the volume, nor does any pixel ray of this block.
+            level.Starts[index] = double.PositiveInfinity;
+            return;
+        }
+        Vector3 centre = camera.Direction((x0 + x1) * 0.5f, (y0 + y1) * 0.5f);
+        double ax = centre.X, ay = centre.Y, az = centre.Z;
+        double length = Math.Sqrt(ax * ax + ay * ay + az * az);
+        ax /= length; ay /= length; az /= length;
+        Cone(camera, ax, ay, az, x0, y0, x1, y1, out double slope, out double longest);
+        var axis = new RaySetup(camera.Eye.X, camera.Eye.Y, camera.Eye.Z, ax, ay, az);
+        double from = before * (1 - FromAllowance) / Math.Sqrt(1 + slope * slope);
+        double s = ConePrepass.March(grids, axis, slope, from, out level.Iterations[index], out level.Lookups[index]);
+        // March measures distance along the unit axis; a pixel ray's parameter is distance over its own length,
+        // which float normalisation leaves a few 1e-8 away from 1: the longest ray of the block reaches s first.
+        level.Starts[index] = Math.Max(before, s / longest);
+    }
+
+    /// <summary>
+    /// Allowance on where a coarse ray starts after its enclosing block's: a pixel direction's length is 1 to a few
+    /// float ulps (2⁻²⁴ each) and cos θ = 1 / √(1 + k²) is exact to a few double ulps; 2⁻¹⁸ covers both many times.
+    /// </summary>
+    private const double FromAllowance = 1.0 / (1 << 18);
 
     /// <summary>
     /// Allowance for the length of a pixel direction: a normalised float direction is unit to a few float ulps
@@ -170,8 +231,11 @@ public sealed class PrepassMap
             slope = Math.Max(slope, tan);
             longest = Math.Max(longest, Math.Sqrt(px * px + py * py + pz * pz));
         }
-        double widest = Math.Atan(slope) + 2 * camera.DirectionAngleError;
-        slope = widest < Math.PI / 2 ? Math.Tan(widest) : double.PositiveInfinity;
+        // tan(α + ε) = (tan α + tan ε) / (1 − tan α · tan ε), below 90° while the denominator is positive: the same
+        // widening as through the arc tangent and back, without two transcendental calls per coarse ray.
+        double widen = camera.DirectionAngleWidening;
+        double denominator = 1 - slope * widen;
+        slope = denominator > 0 ? (slope + widen) / denominator : double.PositiveInfinity;
         longest += LengthAllowance;
     }
 }

@@ -168,14 +168,18 @@ public class CounterRuleTests
         shared.Should().BeGreaterThan(0);
     }
 
-    /// <summary>Rule 10: per block, the pixels' shares add up to the coarse ray's totals and differ by at most one.</summary>
+    /// <summary>
+    /// Rule 10: per K×K block, the pixels' shares add up to the work charged to the block and differ by at most one;
+    /// over the image they add up to every coarse ray's work, at every level.
+    /// </summary>
     private static long CheckShares(PrepassMap map, StrategyResult r)
     {
         long total = 0;
-        for (int by = 0; by < map.BlocksY; by++)
-            for (int bx = 0; bx < map.BlocksX; bx++)
+        var sums = new Dictionary<Counter, long> { [Counter.PrepassIterations] = 0, [Counter.PrepassNodeFetches] = 0 };
+        for (int y0 = 0; y0 < Height; y0 += map.Block)
+        {
+            for (int x0 = 0; x0 < Width; x0 += map.Block)
             {
-                int x0 = bx * map.Block, y0 = by * map.Block;
                 foreach ((Counter c, uint expected) in new[]
                 {
                     (Counter.PrepassIterations, map.BlockIterations(x0, y0)),
@@ -186,11 +190,16 @@ public class CounterRuleTests
                     for (int y = y0; y < Math.Min(Height, y0 + map.Block); y++)
                         for (int x = x0; x < Math.Min(Width, x0 + map.Block); x++)
                             shares.Add(r.Get(c)[y * Width + x]);
-                    shares.Sum(v => (long)v).Should().Be(expected, $"{c.Name()} of block ({bx},{by})");
+                    shares.Sum(v => (long)v).Should().Be(expected, $"{c.Name()} of the block at ({x0},{y0})");
                     (shares.Max() - shares.Min()).Should().BeLessThanOrEqualTo(1u);
+                    sums[c] += expected;
                     total += expected;
                 }
             }
+        }
+        sums[Counter.PrepassIterations].Should().Be(map.TotalIterations);
+        sums[Counter.PrepassNodeFetches].Should().Be(map.TotalLookups);
+        map.Levels.Select(l => l.Block).Should().Equal(Enumerable.Range(0, 6).Select(i => PrepassMap.TopBlock >> i).Where(b => b >= map.Block));
         return total;
     }
 

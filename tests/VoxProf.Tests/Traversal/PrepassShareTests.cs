@@ -7,8 +7,10 @@ using VoxProf.Core.Trees;
 namespace VoxProf.Tests.Traversal;
 
 /// <summary>
-/// A tile's prepass shares are written a block at a time (PrepassMap.FillShares): they must be, pixel by pixel, what
-/// PrepassMap.Share gives, on images whose right and bottom blocks are cut short.
+/// How the prepass charges its coarse rays' work: a tile's counts, written a block at a time (PrepassMap.FillShares),
+/// must be PrepassMap.Share of each block's charge pixel by pixel, on images whose right and bottom blocks are cut
+/// short; and each block's charge is its own coarse ray's work plus even shares of the enclosing blocks' rays, which
+/// add up to every coarse ray's work.
 /// </summary>
 public class PrepassShareTests
 {
@@ -16,8 +18,8 @@ public class PrepassShareTests
     [InlineData(2, 37, 23)]
     [InlineData(4, 37, 23)]
     [InlineData(8, 37, 23)]
-    [InlineData(4, 64, 32)]
-    public void Tile_shares_are_the_per_pixel_shares_and_add_up_to_each_block(int block, int width, int height)
+    [InlineData(4, 80, 48)]
+    public void Tile_counts_are_the_blocks_shares_and_add_up_to_every_coarse_ray(int block, int width, int height)
     {
         const int size = 24;
         BrickTree tree = DenseTree.Build(size, size, size, (x, y, z) => (x * 7 + y * 3 + z) % 11 == 0 ? (byte)1 : (byte)0, 2);
@@ -32,7 +34,8 @@ public class PrepassShareTests
             for (int x0 = 0; x0 < width; x0 += Tracer.TileSize)
             {
                 int x1 = Math.Min(width, x0 + Tracer.TileSize), y1 = Math.Min(height, y0 + Tracer.TileSize);
-                tile.Fill(uint.MaxValue);
+                // Whatever the previous tile left: the shares must overwrite it.
+                tile.Fill(12345);
                 map.FillShares(tile, x0, y0, x1, y1);
                 for (int y = y0; y < y1; y++)
                 {
@@ -46,25 +49,36 @@ public class PrepassShareTests
             }
         }
 
-        long totalIterations = 0;
+        PrepassLevel finest = map.Levels[^1];
+        finest.Block.Should().Be(block);
+        map.Levels.Should().HaveCountGreaterThan(1, "coarse rays run for blocks of 32 pixels down to K");
         for (int y = 0; y < height; y++)
         {
             for (int x = 0; x < width; x++)
             {
-                iterations[y * width + x].Should().Be(map.Share(map.BlockIterations(x, y), x, y, width, height), "pixel ({0}, {1})", x, y);
-                lookups[y * width + x].Should().Be(map.Share(map.BlockNodeFetches(x, y), x, y, width, height));
-                totalIterations += iterations[y * width + x];
+                iterations[y * width + x].Should().Be(map.Share(map.BlockIterations(x, y), x, y), "pixel ({0}, {1})", x, y);
+                lookups[y * width + x].Should().Be(map.Share(map.BlockNodeFetches(x, y), x, y));
             }
         }
-        long blockTotal = 0;
-        for (int by = 0; by < map.BlocksY; by++)
-            for (int bx = 0; bx < map.BlocksX; bx++)
-                blockTotal += map.BlockIterations(bx * block, by * block);
-        totalIterations.Should().Be(blockTotal).And.BeGreaterThan(0);
+        for (int y = 0; y < height; y += block)
+        {
+            for (int x = 0; x < width; x += block)
+            {
+                // A block is charged its own coarse ray's work and at most a rounded-up even share of each enclosing one.
+                long most = finest.IterationsAt(x, y) + map.Levels.SkipLast(1).Sum(l =>
+                {
+                    int per = l.Block / block;
+                    return (long)Math.Ceiling(l.IterationsAt(x, y) / (double)(Math.Min(per, finest.BlocksX - x / l.Block * per) * Math.Min(per, finest.BlocksY - y / l.Block * per)));
+                });
+                ((long)map.BlockIterations(x, y)).Should().BeInRange(finest.IterationsAt(x, y), most);
+            }
+        }
+        iterations.Sum(v => (long)v).Should().Be(map.TotalIterations).And.BeGreaterThan(Enumerable.Range(0, map.Levels[^1].BlocksX * map.Levels[^1].BlocksY).Sum(i => (long)map.Levels[^1].IterationsAt(i % map.Levels[^1].BlocksX * block, i / map.Levels[^1].BlocksX * block)));
+        lookups.Sum(v => (long)v).Should().Be(map.TotalLookups);
     }
 
     [Fact]
-    public void A_tile_that_does_not_start_on_a_block_is_refused()
+    public void A_region_that_is_no_tile_of_the_image_is_refused()
     {
         BrickTree tree = DenseTree.Build(8, 8, 8, (x, y, z) => 0, 2);
         var camera = new Camera(new CameraSpec("c", new Vector3(-5, 4, -5), new Vector3(4, 4, 4), Vector3.UnitY, 50), 32, 32);
