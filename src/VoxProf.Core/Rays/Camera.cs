@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Scenes;
 
 namespace VoxProf.Core.Rays;
@@ -45,6 +46,20 @@ public readonly struct Camera
         float v = (1f - 2f * py / Height) * _tanHalf;
         Vector3 d = _forward + u * _right + v * _trueUp;
         return Vector3.Normalize(d);
+    }
+
+    /// <summary>
+    /// The point of the image plane a pixel's direction stands for before any float rounding: forward + u·right +
+    /// v·trueUp, u and v as in <see cref="Direction(float, float)"/>, evaluated in double from the camera's float
+    /// vectors (not normalised). A pixel's float direction is within <see cref="DirectionAngleError"/> of it in angle.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal (double X, double Y, double Z) PlanePoint(double px, double py)
+    {
+        double u = (2 * px / Width - 1) * _tanHalf * _aspect;
+        double v = (1 - 2 * py / Height) * _tanHalf;
+        return (_forward.X + u * _right.X + v * _trueUp.X, _forward.Y + u * _right.Y + v * _trueUp.Y,
+            _forward.Z + u * _right.Z + v * _trueUp.Z);
     }
 
     /// <summary>

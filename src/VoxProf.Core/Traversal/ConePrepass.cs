@@ -30,15 +30,21 @@ public static class ConePrepass
     /// the cone never meets the volume). Counts its iterations and its look-ups in <paramref name="grids"/> (one per
     /// level tested, less the tests it already knows the answer to).
     /// </summary>
-    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups) =>
-        March(grids, axis, slope, 0, out iterations, out lookups);
+    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups)
+    {
+        int level = 0;
+        return March(grids, axis, slope, 0, ref level, out iterations, out lookups);
+    }
 
     /// <summary>
     /// As <see cref="March(CoarseOccupancy, in RaySetup, double, out uint, out uint)"/>, starting no nearer than
-    /// <paramref name="from"/> along the axis: the caller knows the cone is of no interest before it (the prepass
-    /// starts a block's coarse ray where the enclosing block's stopped).
+    /// <paramref name="from"/> along the axis, where the caller knows the cone is of no interest before it, and
+    /// searching for an empty level from <paramref name="startLevel"/> down, which on return is where the next search
+    /// would have started (the prepass starts a block's coarse ray where the enclosing block's stopped, and from its
+    /// level: near geometry the coarse levels are never empty, and any empty level is a correct choice).
     /// </summary>
-    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, double from, out uint iterations, out uint lookups)
+    public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, double from, ref int startLevel,
+        out uint iterations, out uint lookups)
     {
         iterations = 0;
         lookups = 0;
@@ -53,7 +59,7 @@ public static class ConePrepass
         double tEnd = box.Far;
         double slack = Rounding * (1 + Math.Max(Math.Abs(axis.Ox), Math.Max(Math.Abs(axis.Oy), Math.Abs(axis.Oz))) + tEnd);
 
-        int startLevel = 0;
+        startLevel = Math.Clamp(startLevel, 0, grids.FinestLevel);
         // Per level, the last cell whose neighbourhood was found occupied: the grids never change, so while the ray is
         // still in that cell the answer is known without a look-up (most iterations retry the level above the one that
         // worked last, from inside the same coarser cell).

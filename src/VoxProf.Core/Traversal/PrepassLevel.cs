@@ -21,6 +21,7 @@ public sealed class PrepassLevel
         Starts = new double[BlocksX * BlocksY];
         Iterations = new uint[BlocksX * BlocksY];
         Lookups = new uint[BlocksX * BlocksY];
+        StartLevels = new byte[BlocksX * BlocksY];
     }
 
     /// <summary>Block side B in pixels (a power of two).</summary>
@@ -31,6 +32,9 @@ public sealed class PrepassLevel
     internal double[] Starts { get; }
     internal uint[] Iterations { get; }
     internal uint[] Lookups { get; }
+
+    /// <summary>Per block, the grid level its coarse ray's next search would have started from.</summary>
+    internal byte[] StartLevels { get; }
 
     // Per-pixel calls run for every pixel of a traced image: the block is a power of two, so shifts and masks replace
     // divisions (a handful of integer divisions per pixel cost more than the pixel's own walk saved).

@@ -166,28 +166,31 @@ public sealed class PrepassMap
     /// The coarse ray of block <paramref name="index"/> of <paramref name="level"/>. Every pixel ray of the block is
     /// empty before the enclosing block's start T (its pixels include them all); a point of such a ray at parameter t ≥ T
     /// lies at distance at least T·|p|·cos θ along this block's axis, θ the cone's half-angle, so the coarse ray starts
-    /// there (less allowances for |p| and rounding), and the block's start is the later of T and its own.
+    /// there (less allowances for |p| and rounding), and the block's start is the later of T and its own. Its search for
+    /// an empty grid level begins where the enclosing ray's next search would have.
     /// </summary>
     private static void March(CoarseOccupancy grids, Camera camera, PrepassLevel level, PrepassLevel? enclosing, int index)
     {
         int block = level.Block;
         int x0 = index % level.BlocksX * block, y0 = index / level.BlocksX * block;
         int x1 = Math.Min(camera.Width, x0 + block), y1 = Math.Min(camera.Height, y0 + block);
-        double before = enclosing is null ? 0 : enclosing.Starts[enclosing.BlockOf(x0, y0)];
+        int parent = enclosing?.BlockOf(x0, y0) ?? 0;
+        double before = enclosing is null ? 0 : enclosing.Starts[parent];
+        int startLevel = enclosing is null ? 0 : enclosing.StartLevels[parent];
         if (double.IsPositiveInfinity(before))
         {
             // The enclosing cone never meets the volume, nor does any pixel ray of this block.
             level.Starts[index] = double.PositiveInfinity;
             return;
         }
-        Vector3 centre = camera.Direction((x0 + x1) * 0.5f, (y0 + y1) * 0.5f);
-        double ax = centre.X, ay = centre.Y, az = centre.Z;
+        (double ax, double ay, double az) = camera.PlanePoint((x0 + x1) * 0.5, (y0 + y1) * 0.5);
         double length = Math.Sqrt(ax * ax + ay * ay + az * az);
         ax /= length; ay /= length; az /= length;
         Cone(camera, ax, ay, az, x0, y0, x1, y1, out double slope, out double longest);
         var axis = new RaySetup(camera.Eye.X, camera.Eye.Y, camera.Eye.Z, ax, ay, az);
         double from = before * (1 - FromAllowance) / Math.Sqrt(1 + slope * slope);
-        double s = ConePrepass.March(grids, axis, slope, from, out level.Iterations[index], out level.Lookups[index]);
+        double s = ConePrepass.March(grids, axis, slope, from, ref startLevel, out level.Iterations[index], out level.Lookups[index]);
+        level.StartLevels[index] = (byte)startLevel;
         // March measures distance along the unit axis; a pixel ray's parameter is distance over its own length,
         // which float normalisation leaves a few 1e-8 away from 1: the longest ray of the block reaches s first.
         level.Starts[index] = Math.Max(before, s / longest);
@@ -201,41 +204,41 @@ public sealed class PrepassMap
 
     /// <summary>
     /// Allowance for the length of a pixel direction: a normalised float direction is unit to a few float ulps
-    /// (2⁻²⁴ each), so every pixel's is below the longest corner's plus 2⁻²⁰.
+    /// (2⁻²⁴ each), so no pixel's is longer than 1 + 2⁻²⁰.
     /// </summary>
     internal const double LengthAllowance = 1.0 / (1 << 20);
 
     /// <summary>
-    /// tan of the widest angle between the unit axis a and the block's pixel rays, and the greatest length among those
-    /// directions, each with an allowance for float rounding. Only the four corner pixels are evaluated (evaluating
-    /// every pixel cost about a quarter of the prepass): before rounding, the block's directions are points of a
-    /// rectangle on the image plane, and the points within a given angle of a form a convex cone, so no interior point
-    /// lies farther off the axis than the farthest corner. A float direction is within
-    /// <see cref="Camera.DirectionAngleError"/> of its exact point, so the widest corner angle plus twice that bounds
-    /// every pixel's (docs/strategies.md). In double, the tangent |a×p| / (a·p) keeps its digits at any angle and does
-    /// not depend on the length of p, where an angle from the arc cosine of a dot product near 1 loses most of them.
-    /// +∞ when some pixel ray may be 90° or more off the axis.
+    /// tan of the widest angle between the unit axis a and the block's pixel rays, with an allowance for float
+    /// rounding, and the greatest length a pixel direction can have. Only the block's four corners are evaluated, at
+    /// the exact points of the image plane the corner pixels stand for (<see cref="Camera.PlanePoint"/>; evaluating
+    /// every pixel's float direction cost about a quarter of the prepass): the block's exact points form a rectangle
+    /// on the image plane, and the points within a given angle of a form a convex cone, so no interior point lies
+    /// farther off the axis than the farthest corner. A float direction is within
+    /// <see cref="Camera.DirectionAngleError"/> of its exact point, so the widest corner angle plus that bounds every
+    /// pixel's; the cone is widened by twice as much (docs/strategies.md). In double, the tangent |a×p| / (a·p) keeps
+    /// its digits at any angle and does not depend on the length of p, where an angle from the arc cosine of a dot
+    /// product near 1 loses most of them. +∞ when some pixel ray may be 90° or more off the axis.
     /// </summary>
     internal static void Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1,
         out double slope, out double longest)
     {
-        slope = 0;
-        longest = 0;
+        // The largest tan² over the corners: one square root at the end instead of one per corner.
+        double widest = 0;
         for (int corner = 0; corner < 4; corner++)
         {
-            Vector3 p = camera.Direction((corner & 1) == 0 ? x0 : x1 - 1, (corner & 2) == 0 ? y0 : y1 - 1);
-            double px = p.X, py = p.Y, pz = p.Z;
+            (double px, double py, double pz) = camera.PlanePoint(
+                ((corner & 1) == 0 ? x0 : x1 - 1) + 0.5, ((corner & 2) == 0 ? y0 : y1 - 1) + 0.5);
             double cx = ay * pz - az * py, cy = az * px - ax * pz, cz = ax * py - ay * px;
             double dot = ax * px + ay * py + az * pz;
-            double tan = dot > 0 ? Math.Sqrt(cx * cx + cy * cy + cz * cz) / dot : double.PositiveInfinity;
-            slope = Math.Max(slope, tan);
-            longest = Math.Max(longest, Math.Sqrt(px * px + py * py + pz * pz));
+            widest = Math.Max(widest, dot > 0 ? (cx * cx + cy * cy + cz * cz) / (dot * dot) : double.PositiveInfinity);
         }
+        slope = Math.Sqrt(widest);
         // tan(α + ε) = (tan α + tan ε) / (1 − tan α · tan ε), below 90° while the denominator is positive: the same
         // widening as through the arc tangent and back, without two transcendental calls per coarse ray.
         double widen = camera.DirectionAngleWidening;
         double denominator = 1 - slope * widen;
         slope = denominator > 0 ? (slope + widen) / denominator : double.PositiveInfinity;
-        longest += LengthAllowance;
+        longest = 1 + LengthAllowance;
     }
 }
