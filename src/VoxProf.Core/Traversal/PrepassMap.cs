@@ -148,17 +148,26 @@ public sealed class PrepassMap
         if (block is not (2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(block), "the prepass block must be 2, 4 or 8");
         var levels = new List<PrepassLevel>();
-        PrepassLevel? parent = null;
         for (int size = Math.Max(block, TopBlock); size >= block; size /= 2)
+            levels.Add(new PrepassLevel(size, camera.Width, camera.Height));
+        PrepassLevel top = levels[0];
+        // One work item per top block: its own coarse ray, then those of the blocks inside it, level by level (each
+        // needs only its enclosing block's). Top blocks are independent, so any thread order gives the same map, and
+        // no thread waits for a whole level to finish.
+        Parallel.For(0, top.BlocksX * top.BlocksY, options, t =>
         {
-            var level = new PrepassLevel(size, camera.Width, camera.Height);
-            PrepassLevel? enclosing = parent;
-            // Levels run one after another; within a level every block is independent, so any thread order gives the
-            // same map.
-            Parallel.For(0, level.BlocksX * level.BlocksY, options, i => March(grids, camera, level, enclosing, i));
-            levels.Add(level);
-            parent = level;
-        }
+            int tx = t % top.BlocksX, ty = t / top.BlocksX;
+            March(grids, camera, top, null, t);
+            for (int l = 1; l < levels.Count; l++)
+            {
+                PrepassLevel level = levels[l];
+                int per = top.Block / level.Block;
+                int xEnd = Math.Min(level.BlocksX, (tx + 1) * per), yEnd = Math.Min(level.BlocksY, (ty + 1) * per);
+                for (int by = ty * per; by < yEnd; by++)
+                    for (int bx = tx * per; bx < xEnd; bx++)
+                        March(grids, camera, level, levels[l - 1], by * level.BlocksX + bx);
+            }
+        });
         return new PrepassMap(block, camera.Width, camera.Height, [.. levels]);
     }
 

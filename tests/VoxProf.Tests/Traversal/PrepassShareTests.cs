@@ -78,6 +78,25 @@ public class PrepassShareTests
     }
 
     [Fact]
+    public void The_map_is_the_same_on_one_thread_and_on_two()
+    {
+        BrickTree tree = DenseTree.Build(40, 40, 40, (x, y, z) => (x * 5 + y * 11 + z * 3) % 23 == 0 ? (byte)2 : (byte)0, 4);
+        var camera = new Camera(new CameraSpec("c", new Vector3(-25, 60, -30), new Vector3(20, 15, 20), Vector3.UnitY, 60), 150, 70);
+        PrepassMap one = PrepassMap.Compute(tree, camera, 4, new ParallelOptions { MaxDegreeOfParallelism = 1 });
+        PrepassMap two = PrepassMap.Compute(tree, camera, 4, new ParallelOptions { MaxDegreeOfParallelism = 2 });
+        for (int y = 0; y < 70; y++)
+        {
+            for (int x = 0; x < 150; x++)
+            {
+                two.Start(x, y).Should().Be(one.Start(x, y));
+                two.BlockIterations(x, y).Should().Be(one.BlockIterations(x, y));
+                two.BlockNodeFetches(x, y).Should().Be(one.BlockNodeFetches(x, y));
+            }
+        }
+        one.TotalIterations.Should().BeGreaterThan(0);
+    }
+
+    [Fact]
     public void A_region_that_is_no_tile_of_the_image_is_refused()
     {
         BrickTree tree = DenseTree.Build(8, 8, 8, (x, y, z) => 0, 2);
