@@ -1,4 +1,3 @@
-using System.Numerics;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
