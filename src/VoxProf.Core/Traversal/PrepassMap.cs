@@ -194,14 +194,14 @@ public sealed class PrepassMap
         (double ax, double ay, double az) = camera.PlanePoint((x0 + x1) * 0.5, (y0 + y1) * 0.5);
         double length = Math.Sqrt(ax * ax + ay * ay + az * az);
         ax /= length; ay /= length; az /= length;
-        Cone(camera, ax, ay, az, x0, y0, x1, y1, out double slope, out double longest);
+        double slope = Cone(camera, ax, ay, az, x0, y0, x1, y1);
         var axis = new RaySetup(camera.Eye.X, camera.Eye.Y, camera.Eye.Z, ax, ay, az);
         double from = before * (1 - FromAllowance) / Math.Sqrt(1 + slope * slope);
         double s = ConePrepass.March(grids, axis, slope, from, ref startLevel, out level.Iterations[index], out level.Lookups[index]);
         level.StartLevels[index] = (byte)startLevel;
         // March measures distance along the unit axis; a pixel ray's parameter is distance over its own length,
         // which float normalisation leaves a few 1e-8 away from 1: the longest ray of the block reaches s first.
-        level.Starts[index] = Math.Max(before, s / longest);
+        level.Starts[index] = Math.Max(before, s / LongestDirection);
     }
 
     /// <summary>
@@ -216,9 +216,12 @@ public sealed class PrepassMap
     /// </summary>
     internal const double LengthAllowance = 1.0 / (1 << 20);
 
+    /// <summary>A length no pixel direction exceeds: every block's pixel rays start at its coarse distance over this.</summary>
+    internal const double LongestDirection = 1 + LengthAllowance;
+
     /// <summary>
     /// tan of the widest angle between the unit axis a and the block's pixel rays, with an allowance for float
-    /// rounding, and the greatest length a pixel direction can have. Only the block's four corners are evaluated, at
+    /// rounding. Only the block's four corners are evaluated, at
     /// the exact points of the image plane the corner pixels stand for (<see cref="Camera.PlanePoint"/>; evaluating
     /// every pixel's float direction cost about a quarter of the prepass): the block's exact points form a rectangle
     /// on the image plane, and the points within a given angle of a form a convex cone, so no interior point lies
@@ -228,8 +231,7 @@ public sealed class PrepassMap
     /// its digits at any angle and does not depend on the length of p, where an angle from the arc cosine of a dot
     /// product near 1 loses most of them. +∞ when some pixel ray may be 90° or more off the axis.
     /// </summary>
-    internal static void Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1,
-        out double slope, out double longest)
+    internal static double Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1)
     {
         // The largest tan² over the corners: one square root at the end instead of one per corner.
         double widest = 0;
@@ -241,12 +243,11 @@ public sealed class PrepassMap
             double dot = ax * px + ay * py + az * pz;
             widest = Math.Max(widest, dot > 0 ? (cx * cx + cy * cy + cz * cz) / (dot * dot) : double.PositiveInfinity);
         }
-        slope = Math.Sqrt(widest);
+        double slope = Math.Sqrt(widest);
         // tan(α + ε) = (tan α + tan ε) / (1 − tan α · tan ε), below 90° while the denominator is positive: the same
         // widening as through the arc tangent and back, without two transcendental calls per coarse ray.
         double widen = camera.DirectionAngleWidening;
         double denominator = 1 - slope * widen;
-        slope = denominator > 0 ? (slope + widen) / denominator : double.PositiveInfinity;
-        longest = 1 + LengthAllowance;
+        return denominator > 0 ? (slope + widen) / denominator : double.PositiveInfinity;
     }
 }
