@@ -20,7 +20,9 @@ public struct RayStart
     /// is inside a voxel of the volume (it misses the box, only touches it where it leaves, or starts on a high face and
     /// moves away).
     /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    // Not inlined, like SetHit: once per ray, a call costs little, and a kernel's method body without these two compiles
+    // to a tighter walk loop (the `kernels` benchmark, docs/performance.md "Ray start and hit out of line").
+    [MethodImpl(MethodImplOptions.NoInlining)]
     public static bool Clip<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, out RayStart start)
         where TCounters : struct, ICostCounters
     {
@@ -76,7 +78,7 @@ public struct RayStart
     /// Records a hit on a solid cell of size 2^<paramref name="shift"/> at voxel (lx, ly, lz): the hit voxel is the
     /// cell's voxel the walk is in at key (t, lastAxis), by the same crossing order the reference walk follows.
     /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    [MethodImpl(MethodImplOptions.NoInlining)]
     public static void SetHit(ref PixelHit hit, in RaySetup ray, int lx, int ly, int lz, int shift, double t, int lastAxis, byte material)
     {
         int cell = 1 << shift;
