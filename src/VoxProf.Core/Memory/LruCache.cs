@@ -1,3 +1,5 @@
+using System.Numerics;
+
 namespace VoxProf.Core.Memory;
 
 /// <summary>
@@ -11,6 +13,9 @@ public sealed class LruCache
     // Each set's lines, most recently used first: ways are few (at most 64), so moving a line to the front is a short copy.
     private readonly int[] _lines;
 
+    // Sets - 1 when Sets is a power of two (the usual case), so the set index is a mask rather than a division.
+    private readonly int _setMask;
+
     public LruCache(int sets, int ways)
     {
         ArgumentOutOfRangeException.ThrowIfLessThan(sets, 1);
@@ -18,6 +23,7 @@ public sealed class LruCache
         Sets = sets;
         Ways = ways;
         _lines = new int[checked(sets * ways)];
+        _setMask = BitOperations.IsPow2(sets) ? sets - 1 : -1;
         Clear();
     }
 
@@ -31,7 +37,8 @@ public sealed class LruCache
     public bool Access(int line)
     {
         ArgumentOutOfRangeException.ThrowIfNegative(line);
-        Span<int> set = _lines.AsSpan(line % Sets * Ways, Ways);
+        int index = _setMask >= 0 ? line & _setMask : line % Sets;
+        Span<int> set = _lines.AsSpan(index * Ways, Ways);
         // Rereading a set's most recent line changes nothing: the common case when rays reread the nodes near the
         // root (the grid strategy rereads them for every voxel).
         if (set[0] == line)

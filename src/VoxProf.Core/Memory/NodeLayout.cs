@@ -34,4 +34,7 @@ public readonly struct NodeLayout
     /// <summary>The last line the record touches (the first, when the record fits in one line).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public int LastLine(int index, int lineShift) => (int)((Address(index) + RecordBytes - 1) >> lineShift);
+
+    /// <summary>The most lines one record can touch with lines of 2^<paramref name="lineShift"/> bytes.</summary>
+    public int MaxLinesPerRecord(int lineShift) => ((RecordBytes + (1 << lineShift) - 2) >> lineShift) + 1;
 }

@@ -70,6 +70,8 @@ public sealed class LruCacheTests
     [InlineData(4, 2)]
     [InlineData(64, 4)]
     [InlineData(8, 8)]
+    [InlineData(48, 4)] // not a power of two: the set index is a remainder, not a mask
+    [InlineData(3, 2)]
     public void Every_access_agrees_with_a_brute_force_LRU_on_seeded_random_sequences(int sets, int ways)
     {
         for (int seed = 0; seed < 20; seed++)

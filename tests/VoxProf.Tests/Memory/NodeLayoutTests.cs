@@ -71,4 +71,19 @@ public sealed class NodeLayoutTests
         layout.LastLine(index, shift).Should().Be((int)(end / lineBytes));
         (layout.FirstLine(index, shift), layout.LastLine(index, shift)).Should().Be((first, last));
     }
+
+    [Theory]
+    [InlineData(24, 6, 2)]
+    [InlineData(24, 7, 2)]
+    [InlineData(136, 6, 3)]
+    [InlineData(136, 7, 2)]
+    [InlineData(64, 6, 1)]
+    [InlineData(65, 6, 2)]
+    public void The_most_lines_a_record_touches_bounds_every_record_and_is_reached_or_passed_by_one(int recordBytes, int lineShift, int reached)
+    {
+        var layout = new NodeLayout(recordBytes);
+        int most = Enumerable.Range(0, 4096).Max(i => layout.LastLine(i, lineShift) - layout.FirstLine(i, lineShift) + 1);
+        most.Should().Be(reached, "worked by hand from where the records start within a line");
+        layout.MaxLinesPerRecord(lineShift).Should().BeGreaterThanOrEqualTo(most).And.BeLessThanOrEqualTo(most + 1);
+    }
 }
