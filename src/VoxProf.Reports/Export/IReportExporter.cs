@@ -14,4 +14,18 @@ public interface IReportExporter
     string Name { get; }
 
     void Export(ReportContext context, OutputDirectory output);
+
+    /// <summary>
+    /// Whether the exporter reads files other exporters write (the page inlines the images), so it runs after them;
+    /// the others run side by side.
+    /// </summary>
+    bool ReadsOtherOutputs => false;
+
+    /// <summary>
+    /// For an exporter that <see cref="ReadsOtherOutputs"/>: the part of its work that reads no file, run side by side
+    /// with the other exporters before <see cref="Export"/>.
+    /// </summary>
+    void Prepare(ReportContext context)
+    {
+    }
 }

@@ -1,3 +1,4 @@
+using System.Collections.Concurrent;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Model;
@@ -57,21 +58,46 @@ public sealed class ReportWriter
         return new ReportWriter(DefaultExporters()).Write(context, output, step);
     }
 
+    /// <summary>
+    /// Runs every exporter. Those that read no other exporter's files run side by side, with the preparation of the
+    /// rest, which then run in order: the pixel file's compression overlaps the heatmaps' encoding and the page's
+    /// per-pixel copy (on two cores a 2560×1440 trace's files took about 0.6 s less; docs/performance.md). Files do
+    /// not depend on the order; the result lists the files by name and failures in the exporters' order.
+    /// </summary>
     public ReportResult Write(ReportContext context, OutputDirectory output, IProgress<string>? step = null)
     {
-        var failures = new List<ExportFailure>();
-        foreach (IReportExporter exporter in _exporters)
+        var failures = new ExportFailure?[_exporters.Count];
+        void Attempt(int i, Action<IReportExporter> work)
         {
-            step?.Report($"writing {exporter.Name}");
             try
             {
-                exporter.Export(context, output);
+                work(_exporters[i]);
             }
             catch (Exception ex)
             {
-                failures.Add(new ExportFailure(exporter.Name, ex is AggregateException { InnerExceptions.Count: 1 } a ? a.InnerExceptions[0] : ex));
+                failures[i] = new ExportFailure(_exporters[i].Name, ex is AggregateException { InnerExceptions.Count: 1 } a ? a.InnerExceptions[0] : ex);
             }
         }
-        return new ReportResult(output.FullPath, context.Document, context.Statistics, output.Written, failures);
+        void Run(int i)
+        {
+            step?.Report($"writing {_exporters[i].Name}");
+            Attempt(i, e => e.Export(context, output));
+        }
+        int[] later = [.. Enumerable.Range(0, _exporters.Count).Where(i => _exporters[i].ReadsOtherOutputs)];
+        // Preparations first (the page's is the longest single piece), taken one at a time in this order.
+        (int Index, bool Prepare)[] first = [.. later.Select(i => (i, true)),
+            .. Enumerable.Range(0, _exporters.Count).Except(later).Select(i => (i, false))];
+        Parallel.ForEach(Partitioner.Create(first, EnumerablePartitionerOptions.NoBuffering), job =>
+        {
+            if (job.Prepare)
+                Attempt(job.Index, e => e.Prepare(context));
+            else
+                Run(job.Index);
+        });
+        // An exporter whose preparation failed is not run: its failure is reported already.
+        foreach (int i in later.Where(i => failures[i] is null))
+            Run(i);
+        return new ReportResult(output.FullPath, context.Document, context.Statistics, [.. output.Written.Order(StringComparer.Ordinal)],
+            failures.OfType<ExportFailure>().ToList());
     }
 }

@@ -18,15 +18,28 @@ public sealed class HtmlReportExporter : IReportExporter
 {
     public string Name => OutputNames.ReportHtml;
 
+    // The page's per-pixel copy: most of the page's time (0.6 of 0.8 s at 2560×1440), and it reads no file.
+    private PixelBlock? _pixels;
+
+    public bool ReadsOtherOutputs => true;
+
+    public void Prepare(ReportContext context)
+    {
+        if (context.Options.Html)
+            _pixels = PixelBlock.Build(context.Run);
+    }
+
     public void Export(ReportContext context, OutputDirectory output)
     {
         if (!context.Options.Html)
             return;
-        output.WriteText(OutputNames.ReportHtml, w => Write(context, output.WorkingPath, w));
+        PixelBlock pixels = _pixels ?? PixelBlock.Build(context.Run);
+        output.WriteText(OutputNames.ReportHtml, w => Write(context, output.WorkingPath, w, pixels));
     }
 
     /// <param name="directory">Where the PNGs to inline were written.</param>
-    public static void Write(ReportContext context, string directory, TextWriter w)
+    /// <param name="pixels">The run's <see cref="PixelBlock"/>.</param>
+    public static void Write(ReportContext context, string directory, TextWriter w, PixelBlock pixels)
     {
         ReportDocument d = context.Document;
         HtmlPage.Begin(w, $"VoxProf trace: {TracePage.Heading(d)}", "VoxProf trace", TracePage.Heading(d), TracePage.Subtitle(d));
@@ -35,7 +48,6 @@ public sealed class HtmlReportExporter : IReportExporter
         Maps(w, context, directory);
         Histograms(w, context);
         TracePage.Facts(w, d);
-        PixelBlock pixels = PixelBlock.Build(context.Run);
         HtmlPage.End(w, $"Written by VoxProf {d.ToolVersion} (commit {d.ToolCommit}). This file is complete in itself: it loads nothing from anywhere.",
             page => pixels.Write(page));
     }

@@ -98,6 +98,50 @@ public sealed class ReportWriterTests : IDisposable
         Directory.GetFiles(_dir, ".*").Should().BeEmpty("the temporary file of the failed write is removed");
     }
 
+    /// <summary>Reads what the others wrote, as the page does; records what it found and whether it was prepared.</summary>
+    private sealed class ReadingExporter(bool failPreparing) : IReportExporter
+    {
+        public string Name => "reader";
+
+        public bool ReadsOtherOutputs => true;
+
+        public bool Prepared { get; private set; }
+
+        public string[]? Seen { get; private set; }
+
+        public void Prepare(ReportContext context)
+        {
+            if (failPreparing)
+                throw new InvalidOperationException("cannot prepare");
+            Prepared = true;
+        }
+
+        public void Export(ReportContext context, OutputDirectory output) =>
+            Seen = [.. Directory.GetFiles(output.WorkingPath).Select(Path.GetFileName).OfType<string>().Where(n => !n.StartsWith('.')).Order()];
+    }
+
+    [Fact]
+    public void An_exporter_that_reads_other_outputs_runs_after_all_of_them_and_a_failed_preparation_skips_it()
+    {
+        var run = TestRuns.Small();
+        var stats = StrategyStatistics.Compute(run);
+        var context = new ReportContext(run, stats, ReportBuilder.Build(run, stats, TestRuns.Options), TestRuns.Options);
+        var reader = new ReadingExporter(failPreparing: false);
+        var broken = new ReadingExporter(failPreparing: true);
+        // The readers listed first: the order of the list must not let them run before the files exist.
+        var writer = new ReportWriter([reader, broken, new SummaryCsvExporter(), new ReportJsonExporter(), new HeatmapExporter()]);
+
+        using OutputDirectory output = OutputDirectory.Open(_dir);
+        ReportResult result = writer.Write(context, output);
+        output.Commit();
+
+        reader.Prepared.Should().BeTrue();
+        reader.Seen.Should().Contain(["report.json", "summary.csv", "heatmap-dda-iterations.png"]);
+        broken.Seen.Should().BeNull("an exporter whose preparation failed is not run");
+        result.Failures.Should().ContainSingle().Which.Message.Should().Be("reader: cannot prepare");
+        result.Files.Should().BeInAscendingOrder(StringComparer.Ordinal);
+    }
+
     [Fact]
     public void An_output_path_that_is_a_file_is_one_clear_error()
     {
