@@ -215,7 +215,10 @@ public sealed class FrameMemory
         return lineCount;
     }
 
-    /// <summary>Where <paramref name="value"/> is among the first <paramref name="count"/> items, or -1: a step has a few lines.</summary>
+    /// <summary>
+    /// Where <paramref name="value"/> is among the first <paramref name="count"/> items, or -1. Inlined: a step's lists
+    /// are a few items long, and a call per lookup to the library's vectorised search made the replay slower here.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     private static int IndexOf(Span<int> items, int count, int value)
     {
