@@ -61,7 +61,7 @@ public sealed class ReportWriter
     /// <summary>
     /// Runs every exporter. Those that read no other exporter's files run side by side, with the preparation of the
     /// rest, which then run in order: the pixel file's compression overlaps the heatmaps' encoding and the page's
-    /// per-pixel copy (on two cores a 2560×1440 trace's files took about 0.6 s less; docs/performance.md). Files do
+    /// per-pixel copy (on two cores a 2560×1440 trace took 3.8–4.0 s instead of 4.6–5.7; docs/performance.md). Files do
     /// not depend on the order; the result lists the files by name and failures in the exporters' order.
     /// </summary>
     public ReportResult Write(ReportContext context, OutputDirectory output, IProgress<string>? step = null)
