@@ -77,7 +77,7 @@ public struct DdaState
             if (TMaxX > tEnd) return false;
             T = TMaxX; X += ray.StepX; LastAxis = 0;
             TMaxX = NextTime(X, ray.StepX, ray.Ox, ray.Ix);
-            leftNode = (X & last) == (ray.StepX > 0 ? 0 : last);
+            leftNode = Entered(X, ray.StepX, last);
         }
         else if (TMaxY <= TMaxZ)
         {
@@ -85,7 +85,7 @@ public struct DdaState
             if (TMaxY > tEnd) return false;
             T = TMaxY; Y += ray.StepY; LastAxis = 1;
             TMaxY = NextTime(Y, ray.StepY, ray.Oy, ray.Iy);
-            leftNode = (Y & last) == (ray.StepY > 0 ? 0 : last);
+            leftNode = Entered(Y, ray.StepY, last);
         }
         else
         {
@@ -93,7 +93,7 @@ public struct DdaState
             if (TMaxZ > tEnd) return false;
             T = TMaxZ; Z += ray.StepZ; LastAxis = 2;
             TMaxZ = NextTime(Z, ray.StepZ, ray.Oz, ray.Iz);
-            leftNode = (Z & last) == (ray.StepZ > 0 ? 0 : last);
+            leftNode = Entered(Z, ray.StepZ, last);
         }
         return true;
     }
@@ -117,11 +117,19 @@ public struct DdaState
         int last = NodeCells<TBranching>.Last;
         return LastAxis switch
         {
-            0 => (X & last) == (ray.StepX > 0 ? 0 : last),
-            1 => (Y & last) == (ray.StepY > 0 ? 0 : last),
-            _ => (Z & last) == (ray.StepZ > 0 ? 0 : last),
+            0 => Entered(X, ray.StepX, last),
+            1 => Entered(Y, ray.StepY, last),
+            _ => Entered(Z, ray.StepZ, last),
         };
     }
+
+    /// <summary>
+    /// Whether <paramref name="cell"/> is the first cell of its node on a ray moving <paramref name="step"/> (±1):
+    /// cell ≡ 0 moving up, cell ≡ last moving down. `step >> 31` is 0 or all ones, so flipping the bits turns the
+    /// second test into the first without a branch on the direction.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static bool Entered(int cell, int step, int last) => ((cell ^ (step >> 31)) & last) == 0;
 
     /// <summary>Bit of the current cell within its node.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]

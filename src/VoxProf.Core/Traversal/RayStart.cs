@@ -81,11 +81,21 @@ public struct RayStart
     [MethodImpl(MethodImplOptions.NoInlining)]
     public static void SetHit(ref PixelHit hit, in RaySetup ray, int lx, int ly, int lz, int shift, double t, int lastAxis, byte material)
     {
-        int cell = 1 << shift;
         hit.Hit = true;
-        hit.X = lx + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, cell, 0, out _, out _);
-        hit.Y = ly + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, cell, 0, out _, out _);
-        hit.Z = lz + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, cell, 0, out _, out _);
+        if (shift == 0)
+        {
+            // A voxel-sized cell is its own hit voxel: the crossing order has one candidate on each axis.
+            hit.X = lx;
+            hit.Y = ly;
+            hit.Z = lz;
+        }
+        else
+        {
+            int cell = 1 << shift;
+            hit.X = lx + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, cell, 0, out _, out _);
+            hit.Y = ly + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, cell, 0, out _, out _);
+            hit.Z = lz + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, cell, 0, out _, out _);
+        }
         hit.T = t;
         hit.Material = material;
         hit.Face = Face(lastAxis, ray);

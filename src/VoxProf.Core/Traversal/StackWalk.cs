@@ -36,23 +36,24 @@ public static class StackWalk
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
         double tExit = start.TExit;
-        int octant = ray.Octant;
 
-        // Enter the root at the start point
+        // Enter the root at the start point. The current cell's bit is carried from the step that reached it to the
+        // iteration that tests it, so a masked step computes it once, not twice.
         NodeRef node = view.Fetch(0, ref counters);
+        NodeBits<TBranching> bits = new(view, node);
         int sp = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
-        if (TMode.CullsWithMask && !MaskAdmits<TBranching, TCounters>(view, node, octant, dda.CellBit<TBranching>(), ref counters, countCulled: true))
+        int bit = dda.CellBit<TBranching>();
+        if (TMode.CullsWithMask && !MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: true))
             return counters;
 
         while (true)
         {
             counters.Iteration();
-            int bit = dda.CellBit<TBranching>();
             // Whether the walk leaves the node through a face (else the mask left nothing reachable in it)
             bool leftNode;
-            if (view.IsOccupied<TBranching>(node, bit))
+            if (bits.IsOccupied(view, node, bit))
             {
                 // Solid cell: the hit voxel is where the ray enters the cell
                 if (view.IsSolid<TBranching>(node, bit))
@@ -66,10 +67,12 @@ public static class StackWalk
                 // planes are behind the walk and the test's near time is the walk's own t: nothing to compute.
                 path[sp++] = node;
                 node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
+                bits = new(view, node);
                 counters.Descent();
                 counters.SlabTest();
                 dda.Descend<TBranching>(ray);
-                if (!TMode.CullsWithMask || MaskAdmits<TBranching, TCounters>(view, node, octant, dda.CellBit<TBranching>(), ref counters, countCulled: true))
+                bit = dda.CellBit<TBranching>();
+                if (!TMode.CullsWithMask || MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: true))
                     continue;
                 leftNode = false;
             }
@@ -88,9 +91,12 @@ public static class StackWalk
                     leftNode = dda.LeftNode<TBranching>(ray);
                 }
                 counters.CellStep();
-                if (!leftNode &&
-                    (!TMode.CullsWithMask || MaskAdmits<TBranching, TCounters>(view, node, octant, dda.CellBit<TBranching>(), ref counters, countCulled: false)))
-                    continue;
+                if (!leftNode)
+                {
+                    bit = dda.CellBit<TBranching>();
+                    if (!TMode.CullsWithMask || MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: false))
+                        continue;
+                }
             }
 
             // Ascend until some ancestor has a next cell to visit, stepping each parent past the cell just left
@@ -99,6 +105,7 @@ public static class StackWalk
                 if (sp == 0)
                     return counters;
                 node = path[--sp];
+                bits = new(view, node);
                 counters.Ascent();
                 dda.Coarsen<TBranching>();
                 if (TMode.CullsWithMask && !leftNode)
@@ -113,9 +120,12 @@ public static class StackWalk
                 // parent takes, with no new slab test or DDA step to compute.
                 counters.CellStep();
                 leftNode = dda.LeftNode<TBranching>(ray);
-                if (!leftNode &&
-                    (!TMode.CullsWithMask || MaskAdmits<TBranching, TCounters>(view, node, octant, dda.CellBit<TBranching>(), ref counters, countCulled: false)))
-                    break;
+                if (!leftNode)
+                {
+                    bit = dda.CellBit<TBranching>();
+                    if (!TMode.CullsWithMask || MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: false))
+                        break;
+                }
             }
             if (TMode.StepsWithDda)
                 dda.Restart(ray);
@@ -145,14 +155,14 @@ public static class StackWalk
     /// the ray's octant, so the caller leaves the node at once.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, NodeRef node, int octant, int bit,
+    private static bool MaskAdmits<TBranching, TCounters>(in TreeView view, NodeRef node, NodeBits<TBranching> bits, int octant, int bit,
         ref TCounters counters, bool countCulled)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
         if (countCulled)
-            counters.MaskCulled(view.CountUnreachable<TBranching>(node, octant, bit));
-        if (view.ReachesOccupied<TBranching>(node, octant, bit))
+            counters.MaskCulled(bits.CountUnreachable(view, node, octant, bit));
+        if (bits.ReachesOccupied(view, node, octant, bit))
             return true;
         counters.MaskSkipped();
         return false;

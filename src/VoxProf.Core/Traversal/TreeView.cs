@@ -196,6 +196,16 @@ public readonly struct TreeView
     public ulong Reach<TBranching>(int octant, int bit) where TBranching : struct, IBranching =>
         _directionMasks[(octant << (3 * TBranching.Log2N)) + bit];
 
+    /// <summary>
+    /// <see cref="Reach{TBranching}"/> without the bounds check, for the built-in kernels only: their octant comes
+    /// from <see cref="Rays.RaySetup.Octant"/> and their bit from the cell they are in, and the tracer picks their
+    /// branching from the tree, so the index is always inside the table (the `kernels` benchmark: the check and the
+    /// array reload cost dda-mask a few percent).
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal ulong ReachInTable<TBranching>(int octant, int bit) where TBranching : struct, IBranching =>
+        Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(_directionMasks), (nint)(uint)((octant << (3 * TBranching.Log2N)) + bit));
+
     /// <summary>Material at a voxel inside the extent, walked from the root, counting each node record read.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public byte Lookup<TBranching, TCounters>(int x, int y, int z, ref TCounters counters)
