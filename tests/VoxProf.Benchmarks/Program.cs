@@ -59,6 +59,21 @@ if (args.Length > 4 && args[0] == "kernels")
         count: !(args.Length > 6 && args[6] == "nocount"), Console.Out);
     return 0;
 }
+if (args.Length > 4 && args[0] == "loop")
+{
+    // loop SCENE CAMERA WxH REPS: the C reference's loop in C# (ReferenceLoop), both modes, fastest CPU time of REPS.
+    (int lw, int lh) = Size(args[3]);
+    Scene scene = SceneLoader.Load(args[1]);
+    var tree = VoxProf.Core.Trees.TreeBuilder.Build(scene, 4);
+    var image = new VoxProf.Core.Rays.Camera(scene.Cameras.First(c => c.Name == args[2]), lw, lh);
+    foreach (bool mask in new[] { false, true })
+    {
+        var runs = Enumerable.Range(0, int.Parse(args[4])).Select(_ => ReferenceLoop.Run(tree, image, mask)).ToList();
+        Console.WriteLine(FormattableString.Invariant(
+            $"loop {(mask ? "mask" : "dda "),-4} fastest {runs.Min(r => r.Cpu):F3} s cpu  iterations {runs[0].Iterations}  hits {runs[0].Hits}"));
+    }
+    return 0;
+}
 if (args.Length > 1 && args[0] == "png")
 {
     PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);
