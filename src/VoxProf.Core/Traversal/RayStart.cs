@@ -45,10 +45,31 @@ public struct RayStart
         // crossing comes before its last entry crossing ends up outside and never is inside a voxel.
         double t = start.T;
         int a = start.FaceAxis;
-        start.X = CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, a, -1, view.ExtentX + 2, 0, out _, out _) - 1;
-        start.Y = CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, a, -1, view.ExtentY + 2, 0, out _, out _) - 1;
-        start.Z = CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, a, -1, view.ExtentZ + 2, 0, out _, out _) - 1;
+        start.X = StartCell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, a, view.ExtentX);
+        start.Y = StartCell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, a, view.ExtentY);
+        start.Z = StartCell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, a, view.ExtentZ);
         return (uint)start.X < (uint)view.ExtentX && (uint)start.Y < (uint)view.ExtentY && (uint)start.Z < (uint)view.ExtentZ;
+    }
+
+    /// <summary>
+    /// The start voxel on one axis, among the extent and one voxel beyond it on each side (-1 to extent). A walk that
+    /// starts at the eye (t = 0, no entry face) is in the eye's voxel ⌊o⌋ whatever the direction: strictly between two
+    /// planes, the one below is at a negative time and the one above at a positive time moving up, the other way round
+    /// moving down (a difference of two unequal doubles is never 0, and with |1/d| ≥ 1, as for every unit direction,
+    /// neither product rounds to 0); on a plane, the half-open rule the crossing order encodes puts the eye in the
+    /// voxel above it; a parallel axis has no crossings. That is what <see cref="CrossingOrder.Cell"/> would settle
+    /// with two plane times; every camera inside the volume starts this way, so its rays skip them.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static int StartCell(double o, double d, double inv, bool parallel, int axis, double t, int faceAxis, int extent)
+    {
+        if (t == 0 && faceAxis < 0 && Math.Abs(inv) >= 1)
+        {
+            double floor = Math.Floor(o);
+            if (floor >= -1 && floor <= extent)
+                return (int)floor;
+        }
+        return CrossingOrder.Cell(o, d, inv, parallel, axis, t, faceAxis, -1, extent + 2, 0, out _, out _) - 1;
     }
 
     /// <summary>
