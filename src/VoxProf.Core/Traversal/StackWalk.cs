@@ -40,7 +40,7 @@ public static class StackWalk
         // Enter the root at the start point. The current cell's bit is carried from the step that reached it to the
         // iteration that tests it, so a masked step computes it once, not twice.
         NodeRef node = view.Fetch(0, ref counters);
-        NodeBits<TBranching> bits = new(view, node);
+        NodeBits<TBranching> bits = TMode.CullsWithMask ? new(view, node) : default;
         int sp = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -53,7 +53,7 @@ public static class StackWalk
             counters.Iteration();
             // Whether the walk leaves the node through a face (else the mask left nothing reachable in it)
             bool leftNode;
-            if (bits.IsOccupied(view, node, bit))
+            if (TMode.CullsWithMask ? bits.IsOccupied(view, node, bit) : view.IsOccupied<TBranching>(node, bit))
             {
                 // Solid cell: the hit voxel is where the ray enters the cell
                 if (view.IsSolid<TBranching>(node, bit))
@@ -67,7 +67,8 @@ public static class StackWalk
                 // planes are behind the walk and the test's near time is the walk's own t: nothing to compute.
                 path[sp++] = node;
                 node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
-                bits = new(view, node);
+                if (TMode.CullsWithMask)
+                    bits = new(view, node);
                 counters.Descent();
                 counters.SlabTest();
                 dda.Descend<TBranching>(ray);
@@ -105,7 +106,8 @@ public static class StackWalk
                 if (sp == 0)
                     return counters;
                 node = path[--sp];
-                bits = new(view, node);
+                if (TMode.CullsWithMask)
+                    bits = new(view, node);
                 counters.Ascent();
                 dda.Coarsen<TBranching>();
                 if (TMode.CullsWithMask && !leftNode)
