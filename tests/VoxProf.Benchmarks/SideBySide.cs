@@ -1,6 +1,7 @@
 using System.Diagnostics;
 using System.Globalization;
 using System.Text.RegularExpressions;
+using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
@@ -22,7 +23,9 @@ namespace VoxProf.Benchmarks;
 /// slows whole processes at random, and a slowdown only ever adds time, so the fastest of a few is the figure least
 /// moved by it. Prints each round, the medians of the pairwise ratios, and whether both did the same iterations.
 /// Also prints the CPU seconds of a `dda-mask` trace at <c>SHARE_SIZE</c>, the fastest of 3 (for the share of a whole
-/// run's CPU).
+/// run's CPU). On VoxProf's side each round also runs the reference's own loop written in C# (<see cref="ReferenceLoop"/>),
+/// so each ratio splits into what the JIT costs on that loop (loop ÷ C) and what VoxProf's kernels cost on top of it
+/// (VoxProf ÷ loop).
 /// </summary>
 public static partial class SideBySide
 {
@@ -46,11 +49,16 @@ public static partial class SideBySide
         var tracingRatios = Strategies.ToDictionary(s => s, _ => new List<double>());
         var voxIterations = new Dictionary<StrategyDefinition, long>();
         var cIterations = new Dictionary<string, long>();
+        var image = new Camera(cam, width, height);
+        var loopRatios = new Dictionary<string, List<double>> { ["dda"] = [], ["mask"] = [] };
+        var overLoop = Strategies.ToDictionary(s => s, _ => new List<double>());
+        var loopIterations = new Dictionary<string, long>();
         for (int r = 0; r < rounds; r++)
         {
             Dictionary<StrategyDefinition, double> vox = [];
             Dictionary<StrategyDefinition, double> voxTracing = [];
             Dictionary<string, double> c = [];
+            Dictionary<string, double> loop = [];
             for (int side = 0; side < 2; side++)
             {
                 if ((side == 0) == (r % 2 == 0))
@@ -62,6 +70,12 @@ public static partial class SideBySide
                         vox[s] = pixels / cpu;
                         voxTracing[s] = pixels / tracing;
                         voxIterations[s] = iterations;
+                    }
+                    foreach (string mode in new[] { "dda", "mask" })
+                    {
+                        var runs = Enumerable.Range(0, Repetitions).Select(_ => ReferenceLoop.Run(tree, image, mode == "mask")).ToList();
+                        loop[mode] = pixels / runs.Min(t => t.Cpu);
+                        loopIterations[mode] = runs[0].Iterations;
                     }
                 }
                 else
@@ -79,7 +93,12 @@ public static partial class SideBySide
             tracingRatios[BuiltInStrategies.Dda].Add(voxTracing[BuiltInStrategies.Dda] / c["dda"]);
             tracingRatios[BuiltInStrategies.DdaMask].Add(voxTracing[BuiltInStrategies.DdaMask] / c["mask"]);
             tracingRatios[BuiltInStrategies.Hdda].Add(voxTracing[BuiltInStrategies.Hdda] / c["dda"]);
-            output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[BuiltInStrategies.Dda] / 1e6:F3}, dda-mask {vox[BuiltInStrategies.DdaMask] / 1e6:F3}, hdda {vox[BuiltInStrategies.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}"));
+            loopRatios["dda"].Add(loop["dda"] / c["dda"]);
+            loopRatios["mask"].Add(loop["mask"] / c["mask"]);
+            overLoop[BuiltInStrategies.Dda].Add(vox[BuiltInStrategies.Dda] / loop["dda"]);
+            overLoop[BuiltInStrategies.DdaMask].Add(vox[BuiltInStrategies.DdaMask] / loop["mask"]);
+            overLoop[BuiltInStrategies.Hdda].Add(vox[BuiltInStrategies.Hdda] / loop["dda"]);
+            output.WriteLine(Invariant($"round {r + 1}: M rays per CPU second: dda {vox[BuiltInStrategies.Dda] / 1e6:F3}, dda-mask {vox[BuiltInStrategies.DdaMask] / 1e6:F3}, hdda {vox[BuiltInStrategies.Hdda] / 1e6:F3}; C dda {c["dda"] / 1e6:F3}, C mask {c["mask"] / 1e6:F3}; C's loop in C# dda {loop["dda"] / 1e6:F3}, mask {loop["mask"] / 1e6:F3}"));
         }
 
         long worst = Math.Max(Math.Max(Math.Abs(voxIterations[BuiltInStrategies.Dda] - cIterations["dda"]), Math.Abs(voxIterations[BuiltInStrategies.Hdda] - cIterations["dda"])),
@@ -89,6 +108,9 @@ public static partial class SideBySide
         output.WriteLine(Invariant($"ratio dda / C dda = {Median(ratios[BuiltInStrategies.Dda]):F2} (rounds {Range(ratios[BuiltInStrategies.Dda])})"));
         output.WriteLine(Invariant($"ratio hdda / C dda = {Median(ratios[BuiltInStrategies.Hdda]):F2} (rounds {Range(ratios[BuiltInStrategies.Hdda])})"));
         output.WriteLine(Invariant($"tracing alone (VoxProf's timed region, wall seconds on one thread, result buffers allocated before it): dda-mask / C mask = {Median(tracingRatios[BuiltInStrategies.DdaMask]):F2} ({Range(tracingRatios[BuiltInStrategies.DdaMask])}), dda / C dda = {Median(tracingRatios[BuiltInStrategies.Dda]):F2} ({Range(tracingRatios[BuiltInStrategies.Dda])}), hdda / C dda = {Median(tracingRatios[BuiltInStrategies.Hdda]):F2} ({Range(tracingRatios[BuiltInStrategies.Hdda])})"));
+        bool loopSame = loopIterations["dda"] == cIterations["dda"] && loopIterations["mask"] == cIterations["mask"];
+        output.WriteLine(Invariant($"the reference's loop in C# / C (what the JIT makes of the same loop): dda {Median(loopRatios["dda"]):F2} ({Range(loopRatios["dda"])}), mask {Median(loopRatios["mask"]):F2} ({Range(loopRatios["mask"])}); iterations {(loopSame ? "the same as C's" : $"dda {loopIterations["dda"]}, mask {loopIterations["mask"]}: NOT the same as C's")}"));
+        output.WriteLine(Invariant($"VoxProf / the reference's loop in C#: dda-mask {Median(overLoop[BuiltInStrategies.DdaMask]):F2} ({Range(overLoop[BuiltInStrategies.DdaMask])}), dda {Median(overLoop[BuiltInStrategies.Dda]):F2} ({Range(overLoop[BuiltInStrategies.Dda])}), hdda {Median(overLoop[BuiltInStrategies.Hdda]):F2} ({Range(overLoop[BuiltInStrategies.Hdda])})"));
         if (shareSize is (int sw, int sh))
         {
             var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, BuiltInStrategies.DdaMask).Cpu).ToList();
