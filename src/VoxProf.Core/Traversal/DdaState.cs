@@ -152,6 +152,23 @@ public struct DdaState
     }
 
     /// <summary>
+    /// <see cref="Descend{TBranching}"/> for a walk still at the key it started at, whose voxel there is
+    /// (<paramref name="vx"/>, <paramref name="vy"/>, <paramref name="vz"/>) (<see cref="RayStart"/>): the cell at every
+    /// level is that voxel's ancestor. Whether a plane is behind a key depends only on its time and axis, and times grow
+    /// with the plane's coordinate along the ray's direction, so the planes behind the key are the ones up to the
+    /// voxel's entry face at every level alike; the same cell, and the same next-plane times, as the crossing search.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    public void DescendToStart<TBranching>(in RaySetup ray, int vx, int vy, int vz) where TBranching : struct, IBranching
+    {
+        Shift -= TBranching.Log2N;
+        X = vx >> Shift;
+        Y = vy >> Shift;
+        Z = vz >> Shift;
+        Restart(ray);
+    }
+
+    /// <summary>
     /// <see cref="CrossingOrder.Cell"/> for a descent, with a shortcut on the axis of the walk's latest crossing: that
     /// plane is usually a face of the cell being entered, so the child is the first of its cells a ray moving that way
     /// meets. The shortcut checks its answer by the crossing order itself (its entry plane behind the key, its exit

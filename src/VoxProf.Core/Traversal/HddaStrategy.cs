@@ -32,6 +32,8 @@ public struct HddaStrategy : IStrategy
         int depth = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
+        // Until its first step the walk is at its start key, where each descent's cell is the start voxel's ancestor
+        bool atStart = true;
 
         while (true)
         {
@@ -49,11 +51,15 @@ public struct HddaStrategy : IStrategy
                 path[depth++] = node;
                 node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
                 counters.Descent();
-                dda.Descend<TBranching>(ray);
+                if (atStart)
+                    dda.DescendToStart<TBranching>(ray, start.X, start.Y, start.Z);
+                else
+                    dda.Descend<TBranching>(ray);
                 continue;
             }
 
             // Advance to the next cell at this level along the smallest t
+            atStart = false;
             if (!dda.TryStep<TBranching>(ray, tExit, out bool leftNode))
                 return counters;
             counters.CellStep();

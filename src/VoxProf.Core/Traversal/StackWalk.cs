@@ -47,6 +47,8 @@ public static class StackWalk
         int bit = dda.CellBit<TBranching>();
         if (TMode.CullsWithMask && !MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: true))
             return counters;
+        // Until its first step the walk is at its start key, where each descent's cell is the start voxel's ancestor
+        bool atStart = true;
 
         while (true)
         {
@@ -71,7 +73,10 @@ public static class StackWalk
                     bits = new(view, node);
                 counters.Descent();
                 counters.SlabTest();
-                dda.Descend<TBranching>(ray);
+                if (atStart)
+                    dda.DescendToStart<TBranching>(ray, start.X, start.Y, start.Z);
+                else
+                    dda.Descend<TBranching>(ray);
                 bit = dda.CellBit<TBranching>();
                 if (!TMode.CullsWithMask || MaskAdmits(view, node, bits, ray.Octant, bit, ref counters, countCulled: true))
                     continue;
@@ -80,6 +85,7 @@ public static class StackWalk
             else
             {
                 // Advance to the next cell of this node
+                atStart = false;
                 if (TMode.StepsWithDda)
                 {
                     if (!dda.TryStep<TBranching>(ray, tExit, out leftNode))
@@ -101,6 +107,7 @@ public static class StackWalk
             }
 
             // Ascend until some ancestor has a next cell to visit, stepping each parent past the cell just left
+            atStart = false;
             while (true)
             {
                 if (sp == 0)
