@@ -169,14 +169,15 @@ public struct DdaState
     }
 
     /// <summary>
-    /// <see cref="CrossingOrder.Cell"/> for a descent, with a shortcut on the axis of the walk's latest crossing: that
+    /// <see cref="CrossingOrder.Cell"/> for a descent (and for the hit voxel inside a larger solid cell, whose voxels
+    /// are its children in the same sense), with a shortcut on the axis of the walk's latest crossing: that
     /// plane is usually a face of the cell being entered, so the child is the first of its cells a ray moving that way
     /// meets. The shortcut checks its answer by the crossing order itself (its entry plane behind the key, its exit
     /// plane ahead), which is what <see cref="CrossingOrder.Cell"/> settles too, so both give the same cell; when the
     /// check fails the general finder decides.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static int ChildCell(double o, double d, double inv, bool parallel, int axis, double t, int lastAxis, int lo,
+    internal static int ChildCell(double o, double d, double inv, bool parallel, int axis, double t, int lastAxis, int lo,
         int count, int shift, out double exitTime)
     {
         if (axis == lastAxis && !parallel)

@@ -112,10 +112,12 @@ public struct RayStart
         }
         else
         {
+            // The voxels of the cell as its children: on the latest crossing's axis the hit voxel is usually on the
+            // face the walk entered through, which the descent's shortcut checks by the crossing order.
             int cell = 1 << shift;
-            hit.X = lx + CrossingOrder.Cell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, cell, 0, out _, out _);
-            hit.Y = ly + CrossingOrder.Cell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, cell, 0, out _, out _);
-            hit.Z = lz + CrossingOrder.Cell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, cell, 0, out _, out _);
+            hit.X = lx + DdaState.ChildCell(ray.Ox, ray.Dx, ray.Ix, ray.ParallelX, 0, t, lastAxis, lx, cell, 0, out _);
+            hit.Y = ly + DdaState.ChildCell(ray.Oy, ray.Dy, ray.Iy, ray.ParallelY, 1, t, lastAxis, ly, cell, 0, out _);
+            hit.Z = lz + DdaState.ChildCell(ray.Oz, ray.Dz, ray.Iz, ray.ParallelZ, 2, t, lastAxis, lz, cell, 0, out _);
         }
         hit.T = t;
         hit.Material = material;
