@@ -30,6 +30,10 @@ public static class StackWalk
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters
     {
+        // The walk reads the mask table unchecked (TreeView.ReachInTable), which is only safe at the tree's own
+        // branching; a strategy file calling this walk with another one gets an error instead of a stray read.
+        if (TBranching.Log2N != view.Log2N)
+            ThrowBranchingMismatch(view.Log2N, TBranching.Log2N);
         // Count in a local the tracer flushes once per ray, kept in the frame's memory (CountsInMemory).
         TCounters counters = default;
         CountsInMemory.Keep(ref counters);
@@ -140,6 +144,9 @@ public static class StackWalk
                 dda.Restart(ray);
         }
     }
+
+    private static void ThrowBranchingMismatch(int tree, int walk) =>
+        throw new ArgumentException($"the walk was compiled for {1 << walk}³ nodes but the tree has {1 << tree}³ nodes");
 
     /// <summary>Steps to the next cell by a slab test of the current cell's box: its exit plane names the axis.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]

@@ -27,6 +27,20 @@ public class TreeViewTests
         }
     }
 
+    [Fact]
+    public void The_stack_walk_refuses_a_branching_other_than_the_trees()
+    {
+        // It reads the mask table without a bounds check, which only its own branching keeps in range.
+        var view = new TreeView(DenseTree.Build(16, 16, 16, (_, y, _) => y < 4 ? (byte)5 : (byte)0, 2));
+        var ray = new VoxProf.Core.Rays.RaySetup(8.5, 12.5, 8.5, 0.3, -0.9, 0.3);
+        var path = new NodeRef[view.Depth + 1];
+        var hit = default(PixelHit);
+        FluentActions.Invoking(() => StackWalk.Trace<MaskedDdaMode, Branching4, CostCounts>(view, ray, 0, path, ref hit))
+            .Should().Throw<ArgumentException>().WithMessage("the walk was compiled for 4³ nodes but the tree has 2³ nodes");
+        StackWalk.Trace<MaskedDdaMode, Branching2, CostCounts>(view, ray, 0, path, ref hit).Iterations.Should().BeGreaterThan(0);
+        (hit.Hit, hit.Y).Should().Be((true, 3), "at its own branching the walk reaches the ground's top layer");
+    }
+
     [Theory]
     [InlineData(2)]
     [InlineData(4)]
