@@ -8,8 +8,8 @@ namespace VoxProf.Core.Traversal;
 /// keeps the record it read. For 2³ and 4³ nodes it is one 64-bit word the JIT keeps in a register, so a step tests a
 /// bit instead of reloading the node array through the view; 8³ nodes (512 bits) are asked through the view. Only the
 /// masked walk holds it: it tests the word twice a step (the cell, then the mask), while for the unmasked walks the extra
-/// live register cost more than the reload saved (the `kernels` benchmark: dda-mask 0.38 → 0.35 s, dda 0.34 → 0.35 s with
-/// it, back to 0.335 s without).
+/// live register cost more than the reload saved (the `kernels` benchmark: together with the cell bit carried between
+/// iterations, dda-mask 0.38 → 0.35 s; dda 0.34 → 0.35 s with it, 0.335 s without).
 /// </summary>
 internal readonly struct NodeBits<TBranching> where TBranching : struct, IBranching
 {
