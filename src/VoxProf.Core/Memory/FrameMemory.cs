@@ -21,10 +21,17 @@ public sealed class FrameMemory
     private readonly int _width;
     private readonly uint[][] _groupLines;
     private readonly ConcurrentBag<TileReads> _pool = [];
+    private readonly bool _gather;
     private long _accesses;
     private long _hits;
 
     public FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height)
+        : this(settings, layout, width, height, allowGather: true)
+    {
+    }
+
+    /// <param name="allowGather">False keeps the replay on the lane-by-lane search even where the gathered step runs, so tests can hold the two to one answer.</param>
+    internal FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height, bool allowGather)
     {
         if (settings.Problem() is { } problem)
             throw new ArgumentException(problem, nameof(settings));
@@ -38,6 +45,7 @@ public sealed class FrameMemory
         _layout = layout;
         _width = width;
         _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
+        _gather = allowGather && GatheredReads.IsSupported && settings.Group.Lanes <= GatheredReads.MaxLanes;
     }
 
     /// <summary>
@@ -85,24 +93,38 @@ public sealed class FrameMemory
         for (int k = 0; k < reads.Pixels; k++)
         {
             set.Clear();
-            // Nodes already added for this pixel add nothing: a direct-mapped memory of recent nodes skips most
-            // rereads (grid rereads the few nodes above each voxel for every voxel) before their lines are hashed.
             recent.Fill(-1);
-            foreach (int node in reads.Of(k))
+            if (_gather)
             {
-                ref int seen = ref recent[node & (RecentNodes - 1)];
-                if (seen == node)
-                    continue;
-                seen = node;
-                int last = _layout.LastLine(node, shift);
-                for (int line = _layout.FirstLine(node, shift); line <= last; line++)
-                    set.Add(line);
+                GatheredReads.AddPixel(reads.Of(k), recent, set, _layout, shift);
+            }
+            else
+            {
+                foreach (int node in reads.Of(k))
+                    AddRead(node, recent, set, _layout, shift);
             }
             set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
             at += set.Count;
             scratch.PixelEnds[k] = at;
             cacheLines[(reads.Y0 + k / tileWidth) * _width + reads.X0 + k % tileWidth] = (uint)set.Count;
         }
+    }
+
+    /// <summary>
+    /// Adds the lines of one read's node to a pixel's set, unless the pixel's memory of recent nodes has it: a
+    /// direct-mapped memory that skips most rereads (grid rereads the few nodes above each voxel for every voxel)
+    /// before their lines are hashed.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static void AddRead(int node, Span<int> recent, LineSet set, NodeLayout layout, int shift)
+    {
+        ref int seen = ref recent[node & (recent.Length - 1)];
+        if (seen == node)
+            return;
+        seen = node;
+        int last = layout.LastLine(node, shift);
+        for (int line = layout.FirstLine(node, shift); line <= last; line++)
+            set.Add(line);
     }
 
     private void GroupsOf(TileReads reads, TileScratch scratch, SubgroupShape shape, uint[] groups)
@@ -140,8 +162,10 @@ public sealed class FrameMemory
         cache.Clear();
         int shift = _settings.LineShift;
         int tileWidth = reads.X1 - reads.X0;
-        Span<int> starts = stackalloc int[shape.Lanes];
-        Span<int> ends = stackalloc int[shape.Lanes];
+        // Whole blocks of eight lanes for the gathered step; a lane past the group's stays empty (start = end = 0).
+        int padded = GatheredReads.PaddedLanes(shape.Lanes);
+        Span<int> starts = stackalloc int[padded];
+        Span<int> ends = stackalloc int[padded];
         Span<int> nodes = stackalloc int[shape.Lanes];
         Span<int> lines = stackalloc int[shape.Lanes * _layout.MaxLinesPerRecord(shift)];
         long accesses = 0, hits = 0;
@@ -161,9 +185,19 @@ public sealed class FrameMemory
                         lanes++;
                     }
                 }
+                starts[lanes..].Clear();
+                ends[lanes..].Clear();
+                if (_gather)
+                {
+                    (long a, long h) = GatheredReads.Replay(reads.All, starts, ends, longest, nodes, lines, _layout, shift, cache);
+                    accesses += a;
+                    hits += h;
+                    continue;
+                }
                 for (int s = 0; s < longest; s++)
                 {
-                    int lineCount = StepLines(reads.All, starts[..lanes], ends[..lanes], s, nodes, lines, shift);
+                    int nodeCount = StepNodes(reads.All, starts[..lanes], ends[..lanes], s, nodes);
+                    int lineCount = StepLines(_layout, nodes[..nodeCount], lines, shift);
                     foreach (int line in lines[..lineCount])
                     {
                         if (cache.Access(line))
@@ -177,16 +211,13 @@ public sealed class FrameMemory
     }
 
     /// <summary>
-    /// The distinct lines of step <paramref name="step"/> of one group, in the order they first appear, into
-    /// <paramref name="lines"/>; returns how many. A node seen again adds no line, so the lines of the step's distinct
-    /// nodes, in the order the nodes first appear, are the step's lines in order. The lanes of a step mostly read the
-    /// same few nodes (about 2.3 distinct ones per 32-lane step on the sample scene's grid trace, which makes over a
-    /// thousand reads a pixel), so the distinct nodes and their lines are kept in short lists searched straight
-    /// through: hashing every read, as before, made the replay about a quarter slower (docs/performance.md, "The
-    /// memory model's replay").
+    /// The distinct nodes lanes read at step <paramref name="step"/>, first appearance first, lane by lane: where the
+    /// gathered step (<see cref="GatheredReads"/>) does not run. A node seen again adds nothing. The lanes of a step
+    /// mostly read the same few nodes (about 2.3 distinct ones per 32-lane step on the sample scene's grid trace, which
+    /// makes over a thousand reads a pixel), so they are kept in a short list searched straight through: hashing every
+    /// read, as before, made the replay about a quarter slower (docs/performance.md, "The memory model's replay").
     /// </summary>
-    private int StepLines(ReadOnlySpan<int> all, ReadOnlySpan<int> starts, ReadOnlySpan<int> ends, int step,
-        Span<int> nodes, Span<int> lines, int shift)
+    private static int StepNodes(ReadOnlySpan<int> all, ReadOnlySpan<int> starts, ReadOnlySpan<int> ends, int step, Span<int> nodes)
     {
         int nodeCount = 0, previous = -1;
         for (int lane = 0; lane < starts.Length && lane < ends.Length; lane++)
@@ -202,11 +233,22 @@ public sealed class FrameMemory
             if (IndexOf(nodes, nodeCount, node) < 0)
                 nodes[nodeCount++] = node;
         }
+        return nodeCount;
+    }
+
+    /// <summary>
+    /// The distinct lines of a step's distinct <paramref name="nodes"/>, in the order they first appear, into
+    /// <paramref name="lines"/>; returns how many. The lines of the nodes in the order the nodes first appear are the
+    /// step's lines in order.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static int StepLines(NodeLayout layout, ReadOnlySpan<int> nodes, Span<int> lines, int shift)
+    {
         int lineCount = 0;
-        for (int i = 0; i < nodeCount; i++)
+        foreach (int node in nodes)
         {
-            int last = _layout.LastLine(nodes[i], shift);
-            for (int line = _layout.FirstLine(nodes[i], shift); line <= last; line++)
+            int last = layout.LastLine(node, shift);
+            for (int line = layout.FirstLine(node, shift); line <= last; line++)
             {
                 if (IndexOf(lines, lineCount, line) < 0)
                     lines[lineCount++] = line;

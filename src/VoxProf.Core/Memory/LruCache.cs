@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Memory;
 
@@ -34,15 +35,21 @@ public sealed class LruCache
     public void Clear() => _lines.AsSpan().Fill(Empty);
 
     /// <summary>Reads line <paramref name="line"/> (not negative): true on a hit. Either way it becomes its set's most recent line.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public bool Access(int line)
     {
         ArgumentOutOfRangeException.ThrowIfNegative(line);
-        int index = _setMask >= 0 ? line & _setMask : line % Sets;
-        Span<int> set = _lines.AsSpan(index * Ways, Ways);
+        int index = (_setMask >= 0 ? line & _setMask : line % Sets) * Ways;
         // Rereading a set's most recent line changes nothing: the common case when rays reread the nodes near the
-        // root (the grid strategy rereads them for every voxel).
-        if (set[0] == line)
+        // root (the grid strategy rereads them for every voxel). Only that test is inlined into the replay loops.
+        if (_lines[index] == line)
             return true;
+        return Move(line, _lines.AsSpan(index, Ways));
+    }
+
+    /// <summary>The rest of <see cref="Access"/>: finds the line in its set and moves it, or the new line, to the front.</summary>
+    private bool Move(int line, Span<int> set)
+    {
         int found = set.IndexOf(line);
         bool hit = found >= 0;
         // On a miss the last way (the least recent, or an empty one) is the one dropped.
