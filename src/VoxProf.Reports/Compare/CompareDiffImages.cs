@@ -39,13 +39,14 @@ public static class CompareDiffImages
     public static DiffImagesResult Write(ReportComparison cmp, OutputDirectory output, string toolVersion)
     {
         var maps = Maps(cmp);
+        var counters = CountersOf(maps);
         var notes = new List<string>();
         var jobs = new List<Job>();
         (LoadedReport Report, List<string> Strategies)[] missing = [(cmp.Base, []), (cmp.Candidate, [])];
         foreach (var strategy in cmp.Strategies)
         {
-            var basePixels = Load(cmp.Base, cmp.BaseName(strategy), missing[0].Strategies);
-            var candidatePixels = Load(cmp.Candidate, cmp.CandidateName(strategy), missing[1].Strategies);
+            var basePixels = Load(cmp.Base, cmp.BaseName(strategy), counters, missing[0].Strategies);
+            var candidatePixels = Load(cmp.Candidate, cmp.CandidateName(strategy), counters, missing[1].Strategies);
             if (basePixels is null || candidatePixels is null)
                 continue;
 
@@ -113,7 +114,13 @@ public static class CompareDiffImages
 
     private sealed record Job(string Strategy, string Map, long[] Diff, bool[] HitChanged, PixelDiffSummary Summary, int Width, int Height);
 
-    private static PixelData? Load(LoadedReport report, string strategy, List<string> missing)
+    /// <summary>The counters the maps are drawn from: a subgroup map's is loop iterations (<see cref="Values"/>).</summary>
+    private static string[] CountersOf(IReadOnlyList<string> maps) =>
+        maps.Where(m => !HeatmapNames.IsGroupLines(m, out _))
+            .Select(m => HeatmapNames.IsSubgroup(m, out _) ? Counter.Iterations.Name() : m)
+            .Distinct(StringComparer.OrdinalIgnoreCase).ToArray();
+
+    private static PixelData? Load(LoadedReport report, string strategy, IReadOnlyCollection<string> counters, List<string> missing)
     {
         var path = Path.Combine(report.Directory, OutputNames.PixelData(strategy));
         if (!File.Exists(path))
@@ -121,7 +128,7 @@ public static class CompareDiffImages
             missing.Add(strategy);
             return null;
         }
-        var data = report.Manifest is { } manifest ? ReadListed(report.Directory, manifest, strategy) : PixelDataFile.Read(path);
+        var data = report.Manifest is { } manifest ? ReadListed(report.Directory, manifest, strategy, counters) : PixelDataFile.Read(path, counters);
         var run = report.Document.Run;
         if (data.Width != run.Width || data.Height != run.Height)
             throw new InputException($"{path}: image size {data.Width}x{data.Height} differs from its report.json ({run.Width}x{run.Height})");
@@ -129,7 +136,7 @@ public static class CompareDiffImages
     }
 
     // A folder with a manifest: the pixel file must be the one its run wrote, or it would be compared as if it were.
-    private static PixelData ReadListed(string folder, ReportManifest manifest, string strategy)
+    private static PixelData ReadListed(string folder, ReportManifest manifest, string strategy, IReadOnlyCollection<string> counters)
     {
         var name = OutputNames.PixelData(strategy);
         var path = Path.Combine(folder, name);
@@ -143,7 +150,7 @@ public static class CompareDiffImages
             throw new InputException($"{path}: cannot read pixel data ({ex.Message})", ex);
         }
         manifest.Verify(folder, name, bytes);
-        return PixelDataFile.Read(new MemoryStream(bytes, writable: false), path);
+        return PixelDataFile.Read(new MemoryStream(bytes, writable: false), path, counters);
     }
 
     /// <summary>

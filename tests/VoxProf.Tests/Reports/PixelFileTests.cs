@@ -39,6 +39,67 @@ public class PixelFileTests
         back.Hits.Should().Equal(Result().Hits);
     }
 
+    /// <summary>300×300 pixels: more than one of the reader's 65,536-pixel chunks, every field varied.</summary>
+    private static PixelData Large()
+    {
+        const int w = 300, h = 300;
+        var rng = new Random(11);
+        var counters = new uint[CounterNames.Count][];
+        for (int c = 0; c < counters.Length; c++)
+            counters[c] = Enumerable.Range(0, w * h).Select(_ => (uint)rng.Next()).ToArray();
+        var hits = new PixelHit[w * h];
+        for (int i = 0; i < hits.Length; i++)
+        {
+            hits[i] = new PixelHit
+            {
+                Hit = rng.Next(3) > 0, Face = (HitFace)rng.Next(7), Material = (byte)rng.Next(256),
+                X = rng.Next(-5, 5000), Y = rng.Next(), Z = -rng.Next(), T = rng.NextDouble() * 1e4,
+            };
+        }
+        return PixelData.From(new StrategyResult(BuiltInStrategies.DdaMask, w, h, counters, hits, TimeSpan.Zero));
+    }
+
+    [Fact]
+    public void Every_hit_field_and_counter_reads_back_across_chunks()
+    {
+        PixelData data = Large();
+        using var stream = new MemoryStream();
+        PixelDataFile.Write(data, stream);
+        stream.Position = 0;
+        PixelData back = PixelDataFile.Read(stream, "mem");
+        back.Hits.Should().Equal(data.Hits);
+        back.CounterNames.Should().Equal(data.CounterNames);
+        for (int c = 0; c < data.Counters.Length; c++)
+            back.Counters[c].Should().Equal(data.Counters[c], data.CounterNames[c]);
+    }
+
+    [Fact]
+    public void A_reader_asking_for_some_counters_gets_those_alone_and_every_hit()
+    {
+        PixelData data = Large();
+        using var stream = new MemoryStream();
+        PixelDataFile.Write(data, stream);
+        stream.Position = 0;
+        PixelData back = PixelDataFile.Read(stream, "mem", ["DESCENTS", "iterations", "not-a-counter"]);
+        back.CounterNames.Should().Equal("iterations", "descents");
+        back.Find("iterations").Should().Equal(data.Find("iterations"));
+        back.Find("descents").Should().Equal(data.Find("descents"));
+        back.Find("cell-steps").Should().BeNull("it was read past, not kept");
+        back.Hits.Should().Equal(data.Hits, "the counters read past leave the hits where they were");
+    }
+
+    [Fact]
+    public void A_face_code_out_of_range_names_the_pixel()
+    {
+        PixelData data = Large();
+        data.Hits[70001].Face = (HitFace)9;
+        using var stream = new MemoryStream();
+        PixelDataFile.Write(data, stream);
+        stream.Position = 0;
+        FluentActions.Invoking(() => PixelDataFile.Read(stream, "x/pixels-dda-mask.bin.gz")).Should().Throw<InputException>()
+            .Which.Message.Should().Be("x/pixels-dda-mask.bin.gz: pixel 101,233: face code 9 is not 0..6");
+    }
+
     [Fact]
     public void A_version_1_file_is_refused_with_one_line_naming_the_file_and_both_versions()
     {
