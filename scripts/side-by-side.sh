@@ -17,7 +17,8 @@
 #  3. VoxProf's dda, dda-mask and hdda against refbrick --mode both, one thread each, interleaved, counting on,
 #     per CPU second, each side of a round the fastest of 3 traces (the `side` benchmark); checks both did the same
 #     iterations; also runs the reference's own loop written in C# (ReferenceLoop) and prints its ratio to C (what the
-#     JIT makes of that loop) and VoxProf's ratio to it (what the kernels cost on top);
+#     JIT makes of that loop) and VoxProf's ratio to it (what the kernels cost on top); on a processor with AVX-512,
+#     also that loop with eight rays in lockstep (LaneLoop, an experiment) against C;
 #  4. the share of a whole `voxprof trace --strategy dda-mask` run's process CPU (2560x1440, the raw scene) spent
 #     tracing: CPU seconds of that trace alone on one thread (measured in the benchmark, fastest of 3) over the run's
 #     user+system seconds (fastest of 3 runs);

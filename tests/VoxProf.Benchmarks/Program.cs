@@ -74,6 +74,30 @@ if (args.Length > 4 && args[0] == "loop")
     }
     return 0;
 }
+if (args.Length > 4 && args[0] == "lanes")
+{
+    // lanes SCENE CAMERA WxH REPS: the reference's loop with eight rays in lockstep (LaneLoop), against one ray at a time.
+    if (!LaneLoop.IsSupported)
+    {
+        Console.Error.WriteLine("lanes: this processor lacks AVX-512 (F and DQ) or AVX2");
+        return 2;
+    }
+    (int lw, int lh) = Size(args[3]);
+    Scene scene = SceneLoader.Load(args[1]);
+    var tree = VoxProf.Core.Trees.TreeBuilder.Build(scene, 4);
+    var image = new VoxProf.Core.Rays.Camera(scene.Cameras.First(c => c.Name == args[2]), lw, lh);
+    foreach (bool mask in new[] { false, true })
+    {
+        var scalar = Enumerable.Range(0, int.Parse(args[4])).Select(_ => ReferenceLoop.Run(tree, image, mask)).ToList();
+        var lanes = Enumerable.Range(0, int.Parse(args[4])).Select(_ => LaneLoop.Run(tree, image, mask)).ToList();
+        string mode = mask ? "mask" : "dda ";
+        Console.WriteLine(FormattableString.Invariant(
+            $"{mode} one ray at a time  fastest {scalar.Min(r => r.Cpu):F3} s cpu  iterations {scalar[0].Iterations}  hits {scalar[0].Hits}"));
+        Console.WriteLine(FormattableString.Invariant(
+            $"{mode} eight in lockstep  fastest {lanes.Min(r => r.Cpu):F3} s cpu  iterations {lanes[0].Iterations}  hits {lanes[0].Hits}"));
+    }
+    return 0;
+}
 if (args.Length > 1 && args[0] == "png")
 {
     PngTiming.Run(args[1], args.Length > 2 ? int.Parse(args[2]) : 5, Console.Out);

@@ -53,12 +53,15 @@ public static partial class SideBySide
         var loopRatios = new Dictionary<string, List<double>> { ["dda"] = [], ["mask"] = [] };
         var overLoop = Strategies.ToDictionary(s => s, _ => new List<double>());
         var loopIterations = new Dictionary<string, long>();
+        var laneRatios = new Dictionary<string, List<double>> { ["dda"] = [], ["mask"] = [] };
+        var laneIterations = new Dictionary<string, long>();
         for (int r = 0; r < rounds; r++)
         {
             Dictionary<StrategyDefinition, double> vox = [];
             Dictionary<StrategyDefinition, double> voxTracing = [];
             Dictionary<string, double> c = [];
             Dictionary<string, double> loop = [];
+            Dictionary<string, double> lanes = [];
             for (int side = 0; side < 2; side++)
             {
                 if ((side == 0) == (r % 2 == 0))
@@ -76,6 +79,12 @@ public static partial class SideBySide
                         var runs = Enumerable.Range(0, Repetitions).Select(_ => ReferenceLoop.Run(tree, image, mode == "mask")).ToList();
                         loop[mode] = pixels / runs.Min(t => t.Cpu);
                         loopIterations[mode] = runs[0].Iterations;
+                        if (LaneLoop.IsSupported && width % 4 == 0 && height % 2 == 0)
+                        {
+                            var laneRuns = Enumerable.Range(0, Repetitions).Select(_ => LaneLoop.Run(tree, image, mode == "mask")).ToList();
+                            lanes[mode] = pixels / laneRuns.Min(t => t.Cpu);
+                            laneIterations[mode] = laneRuns[0].Iterations;
+                        }
                     }
                 }
                 else
@@ -95,6 +104,8 @@ public static partial class SideBySide
             tracingRatios[BuiltInStrategies.Hdda].Add(voxTracing[BuiltInStrategies.Hdda] / c["dda"]);
             loopRatios["dda"].Add(loop["dda"] / c["dda"]);
             loopRatios["mask"].Add(loop["mask"] / c["mask"]);
+            foreach ((string mode, double rate) in lanes)
+                laneRatios[mode].Add(rate / c[mode]);
             overLoop[BuiltInStrategies.Dda].Add(vox[BuiltInStrategies.Dda] / loop["dda"]);
             overLoop[BuiltInStrategies.DdaMask].Add(vox[BuiltInStrategies.DdaMask] / loop["mask"]);
             overLoop[BuiltInStrategies.Hdda].Add(vox[BuiltInStrategies.Hdda] / loop["dda"]);
@@ -111,6 +122,11 @@ public static partial class SideBySide
         bool loopSame = loopIterations["dda"] == cIterations["dda"] && loopIterations["mask"] == cIterations["mask"];
         output.WriteLine(Invariant($"the reference's loop in C# / C (what the JIT makes of the same loop): dda {Median(loopRatios["dda"]):F2} ({Range(loopRatios["dda"])}), mask {Median(loopRatios["mask"]):F2} ({Range(loopRatios["mask"])}); iterations {(loopSame ? "the same as C's" : $"dda {loopIterations["dda"]}, mask {loopIterations["mask"]}: NOT the same as C's")}"));
         output.WriteLine(Invariant($"VoxProf / the reference's loop in C#: dda-mask {Median(overLoop[BuiltInStrategies.DdaMask]):F2} ({Range(overLoop[BuiltInStrategies.DdaMask])}), dda {Median(overLoop[BuiltInStrategies.Dda]):F2} ({Range(overLoop[BuiltInStrategies.Dda])}), hdda {Median(overLoop[BuiltInStrategies.Hdda]):F2} ({Range(overLoop[BuiltInStrategies.Hdda])})"));
+        if (laneRatios["dda"].Count > 0)
+        {
+            bool laneSame = laneIterations["dda"] == cIterations["dda"] && laneIterations["mask"] == cIterations["mask"];
+            output.WriteLine(Invariant($"the reference's loop in C#, eight rays in lockstep (LaneLoop, an experiment) / C: dda {Median(laneRatios["dda"]):F2} ({Range(laneRatios["dda"])}), mask {Median(laneRatios["mask"]):F2} ({Range(laneRatios["mask"])}); iterations {(laneSame ? "the same as C's" : $"dda {laneIterations["dda"]}, mask {laneIterations["mask"]}: NOT the same as C's")}"));
+        }
         if (shareSize is (int sw, int sh))
         {
             var cpus = Enumerable.Range(0, 3).Select(_ => TraceCpu(scene, tree, cam, sw, sh, BuiltInStrategies.DdaMask).Cpu).ToList();
