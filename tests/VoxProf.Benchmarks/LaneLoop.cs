@@ -71,27 +71,20 @@ public static unsafe class LaneLoop
         return lanes & Vector512.Equals(occupancy & Vector512.Create(lo, hi), Vector512<long>.Zero);
     }
 
+    /// <summary>
+    /// The lanes of <paramref name="left"/> at the depth of its lowest lane, taken out of it; <paramref name="row"/> is
+    /// that depth's first frame slot. The lanes of a block are at one or two depths, so a loop over these is short.
+    /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static int Vox(double o, double d, double t, int lo, int hi)
+    private static Vector512<long> NextDepth(ref Vector512<long> left, Vector512<long> sp, out int row)
     {
-        double p = Math.Floor(o + t * d);
-        if (p < lo) return lo;
-        if (p >= hi) return hi - 1;
-        return (int)p;
+        int l = BitOperations.TrailingZeroCount(left.ExtractMostSignificantBits());
+        long d = sp.GetElement(l);
+        Vector512<long> m = left & Vector512.Equals(sp, Vector512.Create(d));
+        left &= ~m;
+        row = (int)d * Lanes;
+        return m;
     }
-
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool Clip(bool parallel, double o, double inv, int extent, ref double near, ref double far)
-    {
-        if (parallel)
-            return o >= 0 && o < extent;
-        double ta = ((inv < 0 ? extent : 0) - o) * inv, tb = ((inv < 0 ? 0 : extent) - o) * inv;
-        if (ta > near) near = ta;
-        if (tb < far) far = tb;
-        return true;
-    }
-
-    private static Vector512<long> Mask(bool on) => on ? Vector512<long>.AllBitsSet : Vector512<long>.Zero;
 
     /// <summary>Node words for every lane (child mask, solid mask, first child), gathered four lanes at a time.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
@@ -130,7 +123,8 @@ public static unsafe class LaneLoop
             bool px = dx == 0, py = dy == 0, pz = dz == 0;
             int sx = ix < 0 ? -1 : 1, sy = iy < 0 ? -1 : 1, sz = iz < 0 ? -1 : 1;
             double near = double.NegativeInfinity, far = double.PositiveInfinity;
-            bool ok = Clip(px, ox, ix, w.Ex, ref near, ref far) && Clip(py, oy, iy, w.Ey, ref near, ref far) && Clip(pz, oz, iz, w.Ez, ref near, ref far);
+            bool ok = ReferenceLoop.Clip(px, ox, ix, w.Ex, ref near, ref far) && ReferenceLoop.Clip(py, oy, iy, w.Ey, ref near, ref far)
+                && ReferenceLoop.Clip(pz, oz, iz, w.Ez, ref near, ref far);
             if (near < 0) near = 0;
             ok = ok && near <= far;
             sActive[l] = ok ? -1 : 0;
@@ -139,7 +133,8 @@ public static unsafe class LaneLoop
             sT[l] = near; sTe[l] = far;
             sSx[l] = sx; sSy[l] = sy; sSz[l] = sz; sUx[l] = sx > 0 ? 1 : 0; sUy[l] = sy > 0 ? 1 : 0; sUz[l] = sz > 0 ? 1 : 0;
             sPx[l] = px ? -1 : 0; sPy[l] = py ? -1 : 0; sPz[l] = pz ? -1 : 0;
-            int cx = ok ? Vox(ox, dx, near, 0, w.Ex) >> shift0 : 0, cy = ok ? Vox(oy, dy, near, 0, w.Ey) >> shift0 : 0, cz = ok ? Vox(oz, dz, near, 0, w.Ez) >> shift0 : 0;
+            int cx = ok ? ReferenceLoop.Vox(ox, dx, near, 0, w.Ex) >> shift0 : 0, cy = ok ? ReferenceLoop.Vox(oy, dy, near, 0, w.Ey) >> shift0 : 0;
+            int cz = ok ? ReferenceLoop.Vox(oz, dz, near, 0, w.Ez) >> shift0 : 0;
             sCx[l] = cx; sCy[l] = cy; sCz[l] = cz;
             double cs = 1 << shift0;
             sDdx[l] = px ? double.PositiveInfinity : cs * Math.Abs(ix);
@@ -193,11 +188,7 @@ public static unsafe class LaneLoop
                     Vector512<long> left = pop;
                     while (left != Vector512<long>.Zero)
                     {
-                        int l = BitOperations.TrailingZeroCount(left.ExtractMostSignificantBits());
-                        long d = sp.GetElement(l);
-                        Vector512<long> m = left & Vector512.Equals(sp, Vector512.Create(d));
-                        left &= ~m;
-                        int row = (int)d * Lanes;
+                        Vector512<long> m = NextDepth(ref left, sp, out int row);
                         Vector512<double> md = m.AsDouble();
                         node = Vector512.ConditionalSelect(m, Vector512.Load(fN + row), node);
                         cx8 = Vector512.ConditionalSelect(m, Vector512.Load(fCx + row), cx8);
@@ -237,11 +228,7 @@ public static unsafe class LaneLoop
                 Vector512<long> left = desc;
                 while (left != Vector512<long>.Zero)
                 {
-                    int l = BitOperations.TrailingZeroCount(left.ExtractMostSignificantBits());
-                    long d = sp.GetElement(l);
-                    Vector512<long> m = left & Vector512.Equals(sp, Vector512.Create(d));
-                    left &= ~m;
-                    int row = (int)d * Lanes;
+                    Vector512<long> m = NextDepth(ref left, sp, out int row);
                     Vector512<double> md = m.AsDouble();
                     Avx512F.MaskStore(fN + row, m, node);
                     Avx512F.MaskStore(fCx + row, m, cx8);

@@ -63,7 +63,7 @@ public static unsafe class ReferenceLoop
     }
 
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static int Vox(double o, double d, double t, int lo, int hi)
+    internal static int Vox(double o, double d, double t, int lo, int hi)
     {
         double p = Math.Floor(o + t * d);
         if (p < lo) return lo;
@@ -196,7 +196,7 @@ public static unsafe class ReferenceLoop
 
     /// <summary>The reference's clip of one axis to [0, extent), with its rule for a parallel axis.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static bool Clip(bool parallel, double o, double inv, int extent, ref double near, ref double far)
+    internal static bool Clip(bool parallel, double o, double inv, int extent, ref double near, ref double far)
     {
         if (parallel)
             return o >= 0 && o < extent;
