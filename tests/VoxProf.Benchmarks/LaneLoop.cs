@@ -26,9 +26,12 @@ public static unsafe class LaneLoop
 
     public static bool IsSupported => Avx512F.IsSupported && Avx512DQ.IsSupported && Avx2.IsSupported;
 
+    /// <summary>Whether the image splits into whole 4×2 blocks.</summary>
+    public static bool Takes(int width, int height) => width % 4 == 0 && height % 2 == 0;
+
     public static (double Cpu, long Iterations, int Hits) Run(BrickTree tree, Camera camera, bool mask)
     {
-        if (tree.Branching != 4 || camera.Width % 4 != 0 || camera.Height % 2 != 0)
+        if (tree.Branching != 4 || !Takes(camera.Width, camera.Height))
             throw new ArgumentException("4³ trees, image widths a multiple of 4 and even heights only");
         var hits = new bool[camera.Width * camera.Height];
         long iterations = 0;

@@ -79,7 +79,7 @@ public static partial class SideBySide
                         var runs = Enumerable.Range(0, Repetitions).Select(_ => ReferenceLoop.Run(tree, image, mode == "mask")).ToList();
                         loop[mode] = pixels / runs.Min(t => t.Cpu);
                         loopIterations[mode] = runs[0].Iterations;
-                        if (LaneLoop.IsSupported && width % 4 == 0 && height % 2 == 0)
+                        if (LaneLoop.IsSupported && LaneLoop.Takes(width, height))
                         {
                             var laneRuns = Enumerable.Range(0, Repetitions).Select(_ => LaneLoop.Run(tree, image, mode == "mask")).ToList();
                             lanes[mode] = pixels / laneRuns.Min(t => t.Cpu);

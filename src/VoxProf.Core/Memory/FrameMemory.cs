@@ -30,7 +30,7 @@ public sealed class FrameMemory
     {
     }
 
-    /// <param name="allowGather">False keeps the replay on the lane-by-lane search even where the gathered step runs, so tests can hold the two to one answer.</param>
+    /// <param name="allowGather">False keeps the pixels' lines and the replay on the one-at-a-time code even where <see cref="GatheredReads"/> runs, so tests can hold the two to one answer.</param>
     internal FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height, bool allowGather)
     {
         if (settings.Problem() is { } problem)
@@ -198,11 +198,7 @@ public sealed class FrameMemory
                 {
                     int nodeCount = StepNodes(reads.All, starts[..lanes], ends[..lanes], s, nodes);
                     int lineCount = StepLines(_layout, nodes[..nodeCount], lines, shift);
-                    foreach (int line in lines[..lineCount])
-                    {
-                        if (cache.Access(line))
-                            hits++;
-                    }
+                    hits += Issue(cache, lines[..lineCount]);
                     accesses += lineCount;
                 }
             }
@@ -255,6 +251,19 @@ public sealed class FrameMemory
             }
         }
         return lineCount;
+    }
+
+    /// <summary>A step's lines sent to the cache in order; returns how many hit.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal static int Issue(LruCache cache, ReadOnlySpan<int> lines)
+    {
+        int hits = 0;
+        foreach (int line in lines)
+        {
+            if (cache.Access(line))
+                hits++;
+        }
+        return hits;
     }
 
     /// <summary>

@@ -102,11 +102,7 @@ internal static unsafe class GatheredReads
                     pending &= ~same;
                 }
                 int lineCount = FrameMemory.StepLines(layout, nodes[..count], lines, shift);
-                foreach (int line in lines[..lineCount])
-                {
-                    if (cache.Access(line))
-                        hits++;
-                }
+                hits += FrameMemory.Issue(cache, lines[..lineCount]);
                 accesses += lineCount;
             }
         }

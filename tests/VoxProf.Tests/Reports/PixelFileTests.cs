@@ -28,12 +28,19 @@ public class PixelFileTests
         return new StrategyResult(BuiltInStrategies.Hdda, n, 1, counters, hits, TimeSpan.Zero);
     }
 
+    /// <summary>The pixel file of <paramref name="data"/> in memory, ready to read.</summary>
+    private static MemoryStream Written(PixelData data)
+    {
+        var stream = new MemoryStream();
+        PixelDataFile.Write(data, stream);
+        stream.Position = 0;
+        return stream;
+    }
+
     [Fact]
     public void The_binary_file_keeps_every_bit_of_t()
     {
-        using var stream = new MemoryStream();
-        PixelDataFile.Write(PixelData.From(Result()), stream);
-        stream.Position = 0;
+        using MemoryStream stream = Written(PixelData.From(Result()));
         PixelData back = PixelDataFile.Read(stream, "mem");
         back.Hits.Select(h => h.T).Should().Equal(Distances);
         back.Hits.Should().Equal(Result().Hits);
@@ -63,9 +70,7 @@ public class PixelFileTests
     public void Every_hit_field_and_counter_reads_back_across_chunks()
     {
         PixelData data = Large();
-        using var stream = new MemoryStream();
-        PixelDataFile.Write(data, stream);
-        stream.Position = 0;
+        using MemoryStream stream = Written(data);
         PixelData back = PixelDataFile.Read(stream, "mem");
         back.Hits.Should().Equal(data.Hits);
         back.CounterNames.Should().Equal(data.CounterNames);
@@ -77,9 +82,7 @@ public class PixelFileTests
     public void A_reader_asking_for_some_counters_gets_those_alone_and_every_hit()
     {
         PixelData data = Large();
-        using var stream = new MemoryStream();
-        PixelDataFile.Write(data, stream);
-        stream.Position = 0;
+        using MemoryStream stream = Written(data);
         PixelData back = PixelDataFile.Read(stream, "mem", ["DESCENTS", "iterations", "not-a-counter"]);
         back.CounterNames.Should().Equal("iterations", "descents");
         back.Find("iterations").Should().Equal(data.Find("iterations"));
@@ -93,9 +96,7 @@ public class PixelFileTests
     {
         PixelData data = Large();
         data.Hits[70001].Face = (HitFace)9;
-        using var stream = new MemoryStream();
-        PixelDataFile.Write(data, stream);
-        stream.Position = 0;
+        using MemoryStream stream = Written(data);
         FluentActions.Invoking(() => PixelDataFile.Read(stream, "x/pixels-dda-mask.bin.gz")).Should().Throw<InputException>()
             .Which.Message.Should().Be("x/pixels-dda-mask.bin.gz: pixel 101,233: face code 9 is not 0..6");
     }
