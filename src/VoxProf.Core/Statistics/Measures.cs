@@ -14,17 +14,22 @@ namespace VoxProf.Core.Statistics;
 public sealed record MeasureDefinition(string Name, string Unit, bool LowerIsBetter, IReadOnlyList<Counter> Parts, string Description)
 {
     /// <summary>
-    /// The measure's per-pixel values: the counter's own buffer for a plain counter, else a new array holding the
-    /// per-pixel sum (saturating at <see cref="uint.MaxValue"/>, which no real ray reaches).
+    /// The measure's per-pixel values: the counter's own buffer for a plain counter, or for a sum whose other parts are
+    /// zero on every pixel (a total without the prepass), else a new array holding the per-pixel sum (saturating at
+    /// <see cref="uint.MaxValue"/>, which no real ray reaches).
     /// </summary>
     public uint[] Values(StrategyResult result)
     {
-        if (Parts.Count == 1)
+        // A run without the prepass has its parts of the totals at zero: adding them would only cost a fresh
+        // image-sized array per total, twice per strategy (statistics, then the page's histogram).
+        uint[][] parts = [.. Parts.Select(p => result.Counters[(int)p]).Where(v => v.AsSpan().ContainsAnyExcept(0u))];
+        if (parts.Length == 0)
             return result.Counters[(int)Parts[0]];
+        if (parts.Length == 1)
+            return parts[0];
         var sum = new uint[result.Width * result.Height];
-        foreach (Counter part in Parts)
+        foreach (uint[] values in parts)
         {
-            uint[] values = result.Counters[(int)part];
             for (int i = 0; i < sum.Length; i++)
                 sum[i] = (uint)Math.Min(uint.MaxValue, (ulong)sum[i] + values[i]);
         }

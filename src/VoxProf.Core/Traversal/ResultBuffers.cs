@@ -7,13 +7,13 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 internal sealed class ResultBuffers
 {
-    private ResultBuffers(int counters, int pixels)
+    private ResultBuffers(int counters, int pixels, Func<int, bool> produces, ref uint[]? zeros)
     {
         Counters = new uint[counters][];
         // Uninitialised: the one clearing below is then the only pass over the memory (on huge pages where the
         // system offers them: LargeArrays).
         for (int c = 0; c < Counters.Length; c++)
-            Counters[c] = LargeArrays.Uninitialized<uint>(pixels);
+            Counters[c] = produces(c) ? LargeArrays.Uninitialized<uint>(pixels) : zeros ??= LargeArrays.Uninitialized<uint>(pixels);
         Hits = LargeArrays.Uninitialized<PixelHit>(pixels);
     }
 
@@ -21,10 +21,20 @@ internal sealed class ResultBuffers
     public PixelHit[] Hits { get; }
 
     /// <param name="counters">Per strategy, the number of its counters.</param>
-    public static ResultBuffers[] Allocate(IReadOnlyList<int> counters, int pixels, ParallelOptions options)
+    /// <param name="produces">Whether strategy s can make counter c non-zero in this trace. The counters it cannot
+    /// (the prepass's three without the prepass, the cache lines without the memory model) share one buffer of zeros
+    /// per trace: a third of a run's result memory, whose first touch this virtual machine makes about as slow as
+    /// tracing (docs/performance.md). Nothing writes to it: a tile copies only the counters it made non-zero.</param>
+    public static ResultBuffers[] Allocate(IReadOnlyList<int> counters, Func<int, int, bool> produces, int pixels, ParallelOptions options)
     {
-        var buffers = counters.Select(n => new ResultBuffers(n, pixels)).ToArray();
-        var arrays = buffers.SelectMany(b => b.Counters.Select(c => (Array)c).Append(b.Hits)).ToArray();
+        uint[]? zeros = null;
+        var buffers = new ResultBuffers[counters.Count];
+        for (int s = 0; s < buffers.Length; s++)
+        {
+            int strategy = s;
+            buffers[s] = new ResultBuffers(counters[s], pixels, c => produces(strategy, c), ref zeros);
+        }
+        var arrays = buffers.SelectMany(b => b.Counters.Select(c => (Array)c).Append(b.Hits)).Distinct(ReferenceEqualityComparer.Instance).Cast<Array>().ToArray();
         // Clearing writes every page: the memory is committed here rather than inside the kernels.
         Parallel.For(0, arrays.Length, options, i => Array.Clear(arrays[i]));
         return buffers;

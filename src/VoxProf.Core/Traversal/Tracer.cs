@@ -74,7 +74,14 @@ public static class Tracer
         }
 
         var results = new List<StrategyResult>();
+        bool modelsMemory = request.CountWork && request.Memory is not null;
         ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Select(d => d.CounterNames.Count).ToArray(),
+            (s, c) => (Counter)c switch
+            {
+                Counter.PrepassIterations or Counter.PrepassNodeFetches or Counter.PrepassSkip => prepass != null && request.Strategies[s].UsesPrepass,
+                Counter.CacheLines => modelsMemory,
+                _ => true,
+            },
             request.Width * request.Height, options);
         long pixelsDone = 0;
         int[] tiles = (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
@@ -92,7 +99,7 @@ public static class Tracer
             PrepassMap? map = definition.UsesPrepass ? prepass : null;
 
             long before = pixelsDone;
-            FrameMemory? memory = request.CountWork && request.Memory is { } ms ? new FrameMemory(ms, NodeLayout.For(request.Tree.Branching), request.Width, request.Height) : null;
+            FrameMemory? memory = modelsMemory ? new FrameMemory(request.Memory!, NodeLayout.For(request.Tree.Branching), request.Width, request.Height) : null;
             var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
             Parallel.For(0, tiles.Length, options, i =>
             {
