@@ -7,14 +7,10 @@ namespace VoxProf.Core.Traversal;
 /// </summary>
 internal sealed class ResultBuffers
 {
-    private ResultBuffers(int counters, int pixels, Func<int, bool> produces, ref uint[]? zeros)
+    private ResultBuffers(uint[][] counters, PixelHit[] hits)
     {
-        Counters = new uint[counters][];
-        // Uninitialised: the one clearing below is then the only pass over the memory (on huge pages where the
-        // system offers them: LargeArrays).
-        for (int c = 0; c < Counters.Length; c++)
-            Counters[c] = produces(c) ? LargeArrays.Uninitialized<uint>(pixels) : zeros ??= LargeArrays.Uninitialized<uint>(pixels);
-        Hits = LargeArrays.Uninitialized<PixelHit>(pixels);
+        Counters = counters;
+        Hits = hits;
     }
 
     public uint[][] Counters { get; }
@@ -27,14 +23,19 @@ internal sealed class ResultBuffers
     /// (docs/performance.md). Nothing writes to it: a tile copies only the counters it made non-zero.</param>
     public static ResultBuffers[] Allocate(IReadOnlyList<int> counters, Func<int, int, bool> produces, int pixels, ParallelOptions options)
     {
-        uint[]? zeros = null;
+        bool[][] kept = [.. counters.Select((n, s) => Enumerable.Range(0, n).Select(c => produces(s, c)).ToArray())];
+        int live = kept.Sum(k => k.Count(c => c));
+        bool shared = kept.Any(k => k.Contains(false));
+        // Uninitialised, in runs offered to huge pages together (LargeArrays.Run): the one clearing below is then the
+        // only pass over the memory, and mostly faults 2 MiB at a time.
+        uint[][] run = LargeArrays.Run<uint>(live + (shared ? 1 : 0), pixels, pinned: false);
+        PixelHit[][] hits = LargeArrays.Run<PixelHit>(counters.Count, pixels, pinned: true);
+        uint[]? zeros = shared ? run[^1] : null;
+        int next = 0;
         var buffers = new ResultBuffers[counters.Count];
         for (int s = 0; s < buffers.Length; s++)
-        {
-            int strategy = s;
-            buffers[s] = new ResultBuffers(counters[s], pixels, c => produces(strategy, c), ref zeros);
-        }
-        var arrays = buffers.SelectMany(b => b.Counters.Select(c => (Array)c).Append(b.Hits)).Distinct(ReferenceEqualityComparer.Instance).Cast<Array>().ToArray();
+            buffers[s] = new ResultBuffers([.. kept[s].Select(k => k ? run[next++] : zeros!)], hits[s]);
+        Array[] arrays = [.. run, .. hits];
         // Clearing writes every page: the memory is committed here rather than inside the kernels.
         Parallel.For(0, arrays.Length, options, i => Array.Clear(arrays[i]));
         return buffers;
