@@ -40,11 +40,10 @@ public static class LargeArrays
     /// offered to huge pages together (the per-pixel buffers of a trace). An array alone often holds no whole aligned
     /// 2 MiB page (a counter buffer at 1280×720 is 3.7 MB), and the collector writes each array's header as it
     /// allocates it, after which the 2 MiB range holding that header is backed by small pages. So the range the run
-    /// will take is advised first, behind a 2 MiB array that takes the run's first touched page, and the arrays then
-    /// fall into it: the collector places large arrays allocated in a row next to each other. Where it does not, the
-    /// arrays are ordinary ones, as elsewhere than Linux; the values are the same either way. Measured: 9 buffers of
-    /// 3.7 MB took 8,100–8,300 page faults and 155–177 ms to clear, 900–1,140 and 24–32 ms advised ahead
-    /// (docs/performance.md).
+    /// will take is advised before the arrays are allocated, and they then fall into it: the collector places large
+    /// arrays allocated in a row next to each other. Where it does not, the arrays
+    /// are ordinary ones, as elsewhere than Linux; the values are the same either way. Measured: 9 buffers of 3.7 MB
+    /// took 8,100–8,300 page faults to clear; advised ahead, 900–1,140 (docs/performance.md).
     /// </summary>
     public static unsafe T[][] Run<T>(int count, int length, bool pinned) where T : unmanaged
     {
@@ -52,26 +51,36 @@ public static class LargeArrays
         long bytes = (long)length * sizeof(T);
         if (count * bytes >= MinBytes && OperatingSystem.IsLinux())
         {
+            // A 2 MiB anchor takes the run's first touched page (its header) and the range the run will take is advised
+            // behind it. The anchor can land in a gap the run does not fit, though; then the range is advised from the
+            // first array instead, whose own header then costs one 2 MiB range of small pages.
             byte[] anchor = GC.AllocateUninitializedArray<byte>((int)HugePage, pinned);
-            // Large arrays are not moved unless a compaction is asked for, so this address holds long enough to advise.
-            nint start = (nint)Unsafe.AsPointer(ref MemoryMarshal.GetArrayDataReference(anchor));
-            // The run's bytes, the anchor, and 2 MiB of slack for the headers and alignment between the arrays.
-            Advise(start, count * bytes + 2 * HugePage);
-            for (int i = 0; i < count; i++)
+            nint at = AddressOf(anchor);
+            Advise(at, (count + 1) * bytes + 2 * HugePage);
+            arrays[0] = GC.AllocateUninitializedArray<T>(length, pinned);
+            nint first = AddressOf(arrays[0]);
+            if (first < at || first > at + 2 * HugePage)
+                Advise(first, count * bytes + HugePage);
+            GC.KeepAlive(anchor);
+            for (int i = 1; i < count; i++)
             {
                 arrays[i] = GC.AllocateUninitializedArray<T>(length, pinned);
                 // A run longer than the collector's region for large objects continues elsewhere, outside the range
                 // advised ahead: there each array is advised alone, as Uninitialized does.
                 if (bytes >= MinBytes)
-                    Advise((nint)Unsafe.AsPointer(ref MemoryMarshal.GetArrayDataReference(arrays[i])), bytes);
+                    Advise(AddressOf(arrays[i]), bytes);
             }
-            GC.KeepAlive(anchor);
             return arrays;
         }
         for (int i = 0; i < count; i++)
             arrays[i] = GC.AllocateUninitializedArray<T>(length, pinned);
         return arrays;
     }
+
+    /// <summary>Where an array's elements start. Large arrays are not moved unless a compaction is asked for, so the
+    /// address holds long enough to advise.</summary>
+    private static unsafe nint AddressOf<T>(T[] array) where T : unmanaged =>
+        (nint)Unsafe.AsPointer(ref MemoryMarshal.GetArrayDataReference(array));
 
     /// <summary>
     /// As <see cref="Uninitialized{T}"/>, cleared: for arrays read at random for the whole run (the tree's node
