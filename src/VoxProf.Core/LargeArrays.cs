@@ -41,9 +41,9 @@ public static class LargeArrays
     /// 2 MiB page (a counter buffer at 1280×720 is 3.7 MB), and the collector writes each array's header as it
     /// allocates it, after which the 2 MiB range holding that header is backed by small pages. So the range the run
     /// will take is advised before the arrays are allocated, and they then fall into it: the collector places large
-    /// arrays allocated in a row next to each other. Where it does not, the arrays
-    /// are ordinary ones, as elsewhere than Linux; the values are the same either way. Measured: 9 buffers of 3.7 MB
-    /// took 8,100–8,300 page faults to clear; advised ahead, 900–1,140 (docs/performance.md).
+    /// arrays allocated in a row next to each other. Where it does not, the arrays are ordinary ones, as elsewhere than
+    /// Linux; the values are the same either way. Measured: 9 buffers of 3.7 MB took 8,100–8,300 page faults to clear;
+    /// advised ahead, 600–1,140 (docs/performance.md).
     /// </summary>
     public static unsafe T[][] Run<T>(int count, int length, bool pinned) where T : unmanaged
     {
@@ -56,12 +56,12 @@ public static class LargeArrays
             // first array instead, whose own header then costs one 2 MiB range of small pages.
             byte[] anchor = GC.AllocateUninitializedArray<byte>((int)HugePage, pinned);
             nint at = AddressOf(anchor);
-            Advise(at, (count + 1) * bytes + 2 * HugePage);
+            // The anchor, the run, and 2 MiB of slack for the headers and alignment between the arrays.
+            Advise(at, HugePage + count * bytes + HugePage);
             arrays[0] = GC.AllocateUninitializedArray<T>(length, pinned);
             nint first = AddressOf(arrays[0]);
             if (first < at || first > at + 2 * HugePage)
                 Advise(first, count * bytes + HugePage);
-            GC.KeepAlive(anchor);
             for (int i = 1; i < count; i++)
             {
                 arrays[i] = GC.AllocateUninitializedArray<T>(length, pinned);
@@ -70,6 +70,8 @@ public static class LargeArrays
                 if (bytes >= MinBytes)
                     Advise(AddressOf(arrays[i]), bytes);
             }
+            // Alive until the run is placed: a collection freeing it would leave a gap the next array could take.
+            GC.KeepAlive(anchor);
             return arrays;
         }
         for (int i = 0; i < count; i++)
