@@ -20,6 +20,8 @@ public sealed record MeasureDefinition(string Name, string Unit, bool LowerIsBet
     /// </summary>
     public uint[] Values(StrategyResult result)
     {
+        if (Parts.Count == 1)
+            return result.Counters[(int)Parts[0]];
         // A run without the prepass has its parts of the totals at zero: adding them would only cost a fresh
         // image-sized array per total, twice per strategy (statistics, then the page's histogram).
         uint[][] parts = [.. Parts.Select(p => result.Counters[(int)p]).Where(v => v.AsSpan().ContainsAnyExcept(0u))];
