@@ -59,6 +59,13 @@ if (args.Length > 4 && args[0] == "kernels")
         count: !(args.Length > 6 && args[6] == "nocount"), Console.Out);
     return 0;
 }
+if (args.Length > 4 && args[0] == "memory")
+{
+    // memory SCENE CAMERA WxH REPS [STRATEGY ...]: see MemoryTiming.
+    (int mw, int mh) = Size(args[3]);
+    MemoryTiming.Run(SceneLoader.Load(args[1]), args[2], mw, mh, int.Parse(args[4]), args[5..], Console.Out);
+    return 0;
+}
 if (args.Length > 4 && args[0] == "loop")
 {
     // loop SCENE CAMERA WxH REPS: the C reference's loop in C# (ReferenceLoop), both modes, fastest CPU time of REPS.

@@ -6,6 +6,7 @@ namespace VoxProf.Core.Memory;
 internal sealed class TileScratch
 {
     private int[] _lines = new int[8192];
+    private int[] _groupLines = new int[1024];
     private LruCache? _cache;
 
     /// <summary>Where each pixel's distinct lines end in <see cref="Lines"/>.</summary>
@@ -26,6 +27,23 @@ internal sealed class TileScratch
     {
         int start = k == 0 ? 0 : PixelEnds[k - 1];
         return _lines.AsSpan(start, PixelEnds[k] - start);
+    }
+
+    /// <summary>Where each of the tile's smallest groups' distinct lines end in <see cref="GroupLines"/>, group after group in row order.</summary>
+    public int[] GroupEnds { get; } = new int[Tracer.TileSize * Tracer.TileSize];
+
+    /// <summary>The smallest groups' distinct lines; grown, keeping what it holds, to <paramref name="capacity"/>.</summary>
+    public int[] GroupLines(int capacity)
+    {
+        if (_groupLines.Length < capacity)
+            Array.Resize(ref _groupLines, Math.Max(capacity, 2 * _groupLines.Length));
+        return _groupLines;
+    }
+
+    public ReadOnlySpan<int> GroupLinesOf(int group)
+    {
+        int start = group == 0 ? 0 : GroupEnds[group - 1];
+        return _groupLines.AsSpan(start, GroupEnds[group] - start);
     }
 
     public void EnsurePixels(int pixels)
