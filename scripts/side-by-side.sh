@@ -22,9 +22,10 @@
 #  4. the share of a whole `voxprof trace --strategy dda-mask` run's process CPU (2560x1440, the raw scene) spent
 #     tracing: CPU seconds of that trace alone on one thread (measured in the benchmark, fastest of 3) over the run's
 #     user+system seconds (fastest of 3 runs);
-#  5. the published command timed as ../shared/perf/perf_ratio.sh times it: `trace --threads 1 --strategy dda-mask`,
-#     report.json's trace seconds, against one `refbrick --mode mask` run's wall trace time, 3 interleaved pairs, with
-#     the memory model off and on (on is `trace`'s default; its replay of each tile's reads is inside the timed region);
+#  5. the published command timed as ../shared/perf/perf_ratio.sh times it, by scripts/perf-ratio.sh (that script adapted
+#     to today's report.json): `trace --threads 1 --strategy dda-mask`, report.json's trace seconds, against one
+#     `refbrick --mode mask` run's wall trace time, 3 interleaved pairs, with the memory model on (`trace`'s default; its
+#     replay of each tile's reads is inside the timed region) and off;
 #  6. --prepass 4 against no prepass, dda, every demo camera at 1280x720 (the `prepass` benchmark);
 #  7. the start-up of a repeated ./voxprof call.
 set -euo pipefail
@@ -81,29 +82,11 @@ done
 echo "== share of process CPU in traversal: trace --strategy dda-mask, 2560x1440, $CAMERA of the raw scene"
 awk -v t="$TRAVERSAL" -v p="$PROCESS" 'BEGIN { printf "share: %.0f%% (traversal %.2f CPU s of the run'"'"'s %.2f CPU s)\n", 100 * t / p, t, p }'
 
-# 5. The published command, as perf_ratio.sh times it (median of 3 pairwise ratios; C first in odd pairs).
-PIXELS=$(( ${SIZE%x*} * ${SIZE#*x} ))
-published() { # MEMORY: prints the trace's rays per wall second
-  "$HERE/.build/voxprof/voxprof" trace "$SCENE" --camera "$CAMERA" --size "$SIZE" --threads 1 --strategy dda-mask \
-    --memory "$1" --no-html --no-pixels --quiet --out "$OUT/published" >/dev/null
-  awk -v px="$PIXELS" '/"traceSeconds"/ { getline; sub(/.*: */, ""); sub(/,.*/, ""); printf "%.6f\n", px / $0 }' \
-    "$OUT/published/report.json"
-}
-reference() { # prints one mask-mode run's rays per wall second
-  "$REF" --scene "$SCENE" --camera "$CAMERA" --size "$SIZE" --mode mask --quiet |
-    awk -v px="$PIXELS" '{ for (i = 1; i <= NF; i++) if ($i == "trace") printf "%.6f\n", px / $(i + 1) }'
-}
-echo "== the published command as perf_ratio.sh times it: trace --threads 1 --strategy dda-mask, $CAMERA, $SIZE"
-for memory in off on; do
-  PAIRS=()
-  for i in 1 2 3; do
-    if [ $((i % 2)) -eq 1 ]; then c=$(reference); v=$(published "$memory"); else v=$(published "$memory"); c=$(reference); fi
-    PAIRS+=("$(awk -v v="$v" -v c="$c" 'BEGIN { printf "%.3f", v / c }')")
-  done
-  printf '%s\n' "${PAIRS[@]}" | sort -g | tr '\n' ' ' |
-    awk -v m="$memory" '{ printf "memory model %s: voxprof / C rays per second = %.2f (pairs %s, %s, %s)\n", m, $2, $1, $2, $3 }'
-done
-rm -rf "$OUT/published"
+# 5. The published command, as perf_ratio.sh times it: scripts/perf-ratio.sh, its copy adapted to today's report.json
+#    (camera overview, 1280x720, whatever CAMERA and SIZE say), memory model on and off; threshold 0, so it never fails.
+echo "== the published command as perf_ratio.sh times it: trace --threads 1 --strategy dda-mask, overview, 1280x720"
+VOXPROF_PERF_DIR=$PERF VOXPROF_PERF_CACHE=$CACHE "$HERE/scripts/perf-ratio.sh" "$HERE/.build/voxprof/voxprof" 0 |
+  grep -E '^(check|memory model on \(|ratio)'
 
 # 6. The prepass.
 echo "== --prepass 4 against no prepass: dda, demo cameras, 1280x720 ($ROUNDS interleaved rounds; wall: both cores, cpu: one thread)"
