@@ -36,6 +36,9 @@ public static class StrategyFiles
             string[] lines = [.. errors.Take(MaxErrors).Select(d => d.ToString())];
             throw new StrategyCompileException(path, lines, errors.Count);
         }
+        IReadOnlyList<string> fixedBranching = FixedBranchingCheck.Problems(compilation, tree, path);
+        if (fixedBranching.Count > 0)
+            throw new StrategyCompileException(path, [.. fixedBranching.Take(MaxErrors)], fixedBranching.Count, "error");
         image.Position = 0;
         var context = new AssemblyLoadContext("voxprof:" + path, isCollectible: false);
         return FromAssembly(context.LoadFromStream(image), path);
@@ -145,9 +148,12 @@ public static class StrategyFiles
     }
 }
 
-/// <summary>A strategy file that did not compile: the compiler's errors, one line each, as it prints them.</summary>
-public sealed class StrategyCompileException(string file, IReadOnlyList<string> errors, int total)
-    : InputException($"{file}: {total} compile error{(total == 1 ? "" : "s")}{(total > errors.Count ? $", the first {errors.Count} shown" : "")}")
+/// <summary>
+/// A strategy file that did not compile, or that <see cref="FixedBranchingCheck"/> refused: the errors, one line each,
+/// as the compiler prints them.
+/// </summary>
+public sealed class StrategyCompileException(string file, IReadOnlyList<string> errors, int total, string kind = "compile error")
+    : InputException($"{file}: {total} {kind}{(total == 1 ? "" : "s")}{(total > errors.Count ? $", the first {errors.Count} shown" : "")}")
 {
     /// <summary>"FILE(LINE,COL): error CSxxxx: message", at most <see cref="StrategyFiles.MaxErrors"/>.</summary>
     public IReadOnlyList<string> Errors { get; } = errors;
