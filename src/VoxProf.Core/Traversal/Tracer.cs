@@ -101,23 +101,40 @@ public static class Tracer
             long before = pixelsDone;
             FrameMemory? memory = modelsMemory ? new FrameMemory(request.Memory!, NodeLayout.For(request.Tree.Branching), request.Width, request.Height) : null;
             var job = new TileJob(view, camera, map, counters, hits, request.CountWork, memory is not null);
+            // A file's strategy that throws is the user's fault: every tile still runs, so the one reported (the first
+            // in tile order) is the same whatever the thread count and the order tiles finish in.
+            StrategyFault? fault = null;
+            var faultLock = new Lock();
             Parallel.For(0, tiles.Length, options, i =>
             {
                 var (x0, y0, x1, y1) = TileBounds(tiles[i], request.Width, request.Height);
-                if (memory is not null)
+                try
                 {
-                    // The memory model: the same kernels, with a counter that also records each node read.
-                    TileReads reads = memory.BeginTile(x0, y0, x1, y1);
-                    definition.TraceTile(job, x0, y0, x1, y1);
-                    memory.EndTile(reads, counters[(int)Counter.CacheLines]);
+                    if (memory is not null)
+                    {
+                        // The memory model: the same kernels, with a counter that also records each node read.
+                        TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                        definition.TraceTile(job, x0, y0, x1, y1);
+                        memory.EndTile(reads, counters[(int)Counter.CacheLines]);
+                    }
+                    else
+                    {
+                        definition.TraceTile(job, x0, y0, x1, y1);
+                    }
                 }
-                else
+                catch (Exception ex) when (definition.Source is not null && ex is not OperationCanceledException)
                 {
-                    definition.TraceTile(job, x0, y0, x1, y1);
+                    lock (faultLock)
+                    {
+                        if (fault is null || i < fault.Tile)
+                            fault = StrategyFault.In(definition, i, (x0, y0, x1, y1), ex);
+                    }
                 }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
+            if (fault is not null)
+                throw fault;
             pixelsDone = before + heldPixels;
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
             TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);

@@ -35,6 +35,34 @@ public sealed class StrategyFileCommandTests : IDisposable
     }
 
     [Fact]
+    public void A_strategy_that_throws_while_tracing_exits_2_naming_its_file_and_pixels_and_writes_nothing()
+    {
+        string file = Path.Combine(_dir, "throws.cs");
+        File.WriteAllText(file, """
+            using VoxProf.Core.Rays;
+            using VoxProf.Core.Strategies;
+            using VoxProf.Core.Traversal;
+            public struct Throws : IStrategy
+            {
+                public static string Name => "throws";
+                public static string Description => "test";
+                public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
+                    where TBranching : struct, IBranching where TCounters : struct, ICostCounters
+                {
+                    TCounters counters = default;
+                    view.Fetch(view.Nodes.Length + 5, ref counters);
+                    return counters;
+                }
+            }
+            """);
+        string outDir = Path.Combine(_dir, "out");
+        int code = Run("trace", Scene, "--strategy-file", file, "--strategy", "throws", "--size", "40x20", "--out", outDir, "--quiet");
+        code.Should().Be(ExitCodes.BadInput, "the fault is in the user's strategy, not in VoxProf");
+        _err.ToString().Should().MatchRegex($@"^voxprof: error: {Regex.Escape(file)}: strategy 'throws' failed while tracing the pixels \(0, 0\) to \(15, 15\): IndexOutOfRangeException: node index \d+ is outside the tree's \d+ node records\n$");
+        Directory.Exists(outDir).Should().BeFalse("nothing is written for a failed trace");
+    }
+
+    [Fact]
     public void A_strategy_files_own_counters_reach_every_report_like_built_in_ones()
     {
         string box = Path.Combine(Samples, "strategies", "box-skip.cs");
