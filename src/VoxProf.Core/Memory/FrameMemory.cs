@@ -1,4 +1,5 @@
 using System.Collections.Concurrent;
+using System.Numerics;
 using System.Runtime.CompilerServices;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -11,7 +12,7 @@ namespace VoxProf.Core.Memory;
 /// through a cache of its own that starts empty (docs/counters.md, "Memory traffic"). Every tile is processed alone
 /// and the totals are sums of integers, so results do not depend on the thread count or the order tiles finish in.
 /// </summary>
-public sealed class FrameMemory
+public sealed partial class FrameMemory
 {
     /// <summary>Size of the per-pixel memory of recent nodes (a power of two).</summary>
     private const int RecentNodes = 32;
@@ -90,32 +91,91 @@ public sealed class FrameMemory
         SubgroupShape.Standard.Select((s, i) => new GroupLines(s, _groupLines[i])).ToArray(),
         Interlocked.Read(ref _accesses), Interlocked.Read(ref _hits));
 
-    /// <summary>Each pixel's distinct lines, kept per pixel in the scratch for the group unions.</summary>
+    /// <summary>
+    /// Each pixel's distinct lines, kept per pixel in the scratch for the group unions (which need them in no order).
+    /// A pixel of a few reads (a tree strategy's, about eight) counts its lines in a small table on the stack, emptied
+    /// per pixel; one of many reads (grid's, over a thousand, rereading a few dozen nodes) goes through the set.
+    /// </summary>
+    [SkipLocalsInit]
     private void PixelLines(TileReads reads, TileScratch scratch, uint[] cacheLines)
     {
         int shift = _settings.LineShift;
-        int tileWidth = reads.X1 - reads.X0;
+        int perRecord = _layout.MaxLinesPerRecord(shift);
+        int fewReads = FewSlots / 2 / perRecord;
         LineSet set = scratch.Set;
         Span<int> recent = stackalloc int[RecentNodes];
+        Span<int> slots = stackalloc int[FewSlots];
         int at = 0;
+        int x = reads.X0, row = reads.Y0 * _width;
         for (int k = 0; k < reads.Pixels; k++)
         {
-            set.Clear();
-            recent.Fill(-1);
-            if (_gather)
+            ReadOnlySpan<int> nodes = reads.Of(k);
+            int count;
+            if (nodes.Length <= fewReads)
             {
-                GatheredReads.AddPixel(reads.Of(k), recent, set, _layout, shift);
+                count = FewLines(nodes, slots, scratch.Lines(at + nodes.Length * perRecord).AsSpan(at), _layout, shift);
             }
             else
             {
-                foreach (int node in reads.Of(k))
-                    AddRead(node, recent, set, _layout, shift);
+                set.Clear();
+                recent.Fill(-1);
+                if (_gather)
+                {
+                    GatheredReads.AddPixel(nodes, recent, set, _layout, shift);
+                }
+                else
+                {
+                    foreach (int node in nodes)
+                        AddRead(node, recent, set, _layout, shift);
+                }
+                count = set.Count;
+                set.Members.CopyTo(scratch.Lines(at + count).AsSpan(at));
             }
-            set.Members.CopyTo(scratch.Lines(at + set.Count).AsSpan(at));
-            at += set.Count;
+            at += count;
             scratch.PixelEnds[k] = at;
-            cacheLines[(reads.Y0 + k / tileWidth) * _width + reads.X0 + k % tileWidth] = (uint)set.Count;
+            cacheLines[row + x] = (uint)count;
+            if (++x == reads.X1)
+            {
+                x = reads.X0;
+                row += _width;
+            }
         }
+    }
+
+    /// <summary>Slots of the small table: at most half full, so probes stay short.</summary>
+    private const int FewSlots = 64;
+
+    /// <summary>
+    /// The distinct lines of a few reads' records into <paramref name="lines"/>, first appearance first, found with an
+    /// open-addressing table (<paramref name="slots"/>, a power of two, at least twice the lines) emptied first.
+    /// </summary>
+    internal static int FewLines(ReadOnlySpan<int> nodes, Span<int> slots, Span<int> lines, NodeLayout layout, int shift)
+    {
+        slots.Fill(-1);
+        int mask = slots.Length - 1, hashShift = 32 - BitOperations.Log2((uint)slots.Length), count = 0;
+        foreach (int node in nodes)
+        {
+            int last = layout.LastLine(node, shift);
+            for (int line = layout.FirstLine(node, shift); line <= last; line++)
+            {
+                // Fibonacci hashing, as LineSet: neighbouring lines (siblings' records) spread over the table.
+                int slot = (int)(((uint)line * 2654435769u) >> hashShift);
+                while (true)
+                {
+                    int held = slots[slot];
+                    if (held == line)
+                        break;
+                    if (held < 0)
+                    {
+                        slots[slot] = line;
+                        lines[count++] = line;
+                        break;
+                    }
+                    slot = (slot + 1) & mask;
+                }
+            }
+        }
+        return count;
     }
 
     /// <summary>
@@ -195,136 +255,5 @@ public sealed class FrameMemory
                 groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)set.Count;
             }
         }
-    }
-
-    /// <summary>
-    /// Replays the tile through an empty cache: the lockstep groups in row-major order; within a group, step k
-    /// issues the k-th read of every lane that still has one, in lane order, and the distinct lines of that step
-    /// (lanes reading one line share one request) go to the cache in the order they first appear.
-    /// </summary>
-    private (long Accesses, long Hits) Replay(TileReads reads, TileScratch scratch)
-    {
-        SubgroupShape shape = _settings.Group;
-        LruCache cache = scratch.Cache(_settings);
-        cache.Clear();
-        int shift = _settings.LineShift;
-        int tileWidth = reads.X1 - reads.X0;
-        // Whole blocks of eight lanes for the gathered step; a lane past the group's stays empty (start = end = 0).
-        int padded = GatheredReads.PaddedLanes(shape.Lanes);
-        Span<int> starts = stackalloc int[padded];
-        Span<int> ends = stackalloc int[padded];
-        Span<int> nodes = stackalloc int[shape.Lanes];
-        Span<int> lines = stackalloc int[shape.Lanes * _layout.MaxLinesPerRecord(shift)];
-        long accesses = 0, hits = 0;
-        for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
-        {
-            for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
-            {
-                int lanes = 0, longest = 0;
-                for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
-                {
-                    for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
-                    {
-                        int k = (y - reads.Y0) * tileWidth + x - reads.X0;
-                        starts[lanes] = reads.Start(k);
-                        ends[lanes] = starts[lanes] + reads.Of(k).Length;
-                        longest = Math.Max(longest, ends[lanes] - starts[lanes]);
-                        lanes++;
-                    }
-                }
-                starts[lanes..].Clear();
-                ends[lanes..].Clear();
-                if (_gather)
-                {
-                    (long a, long h) = GatheredReads.Replay(reads.All, starts, ends, longest, nodes, lines, _layout, shift, cache);
-                    accesses += a;
-                    hits += h;
-                    continue;
-                }
-                for (int s = 0; s < longest; s++)
-                {
-                    int nodeCount = StepNodes(reads.All, starts[..lanes], ends[..lanes], s, nodes);
-                    int lineCount = StepLines(_layout, nodes[..nodeCount], lines, shift);
-                    hits += Issue(cache, lines[..lineCount]);
-                    accesses += lineCount;
-                }
-            }
-        }
-        return (accesses, hits);
-    }
-
-    /// <summary>
-    /// The distinct nodes lanes read at step <paramref name="step"/>, first appearance first, lane by lane: where the
-    /// gathered step (<see cref="GatheredReads"/>) does not run. A node seen again adds nothing. The lanes of a step
-    /// mostly read the same few nodes (about 2.3 distinct ones per 32-lane step on the sample scene's grid trace, which
-    /// makes over a thousand reads a pixel), so they are kept in a short list searched straight through: hashing every
-    /// read, as before, made the replay about a quarter slower (docs/performance.md, "The memory model's replay").
-    /// </summary>
-    private static int StepNodes(ReadOnlySpan<int> all, ReadOnlySpan<int> starts, ReadOnlySpan<int> ends, int step, Span<int> nodes)
-    {
-        int nodeCount = 0, previous = -1;
-        for (int lane = 0; lane < starts.Length && lane < ends.Length; lane++)
-        {
-            int at = starts[lane] + step;
-            if (at >= ends[lane])
-                continue;
-            int node = all[at];
-            // Neighbouring lanes often read the same node at the same step.
-            if (node == previous)
-                continue;
-            previous = node;
-            if (IndexOf(nodes, nodeCount, node) < 0)
-                nodes[nodeCount++] = node;
-        }
-        return nodeCount;
-    }
-
-    /// <summary>
-    /// The distinct lines of a step's distinct <paramref name="nodes"/>, in the order they first appear, into
-    /// <paramref name="lines"/>; returns how many. The lines of the nodes in the order the nodes first appear are the
-    /// step's lines in order.
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal static int StepLines(NodeLayout layout, ReadOnlySpan<int> nodes, Span<int> lines, int shift)
-    {
-        int lineCount = 0;
-        foreach (int node in nodes)
-        {
-            int last = layout.LastLine(node, shift);
-            for (int line = layout.FirstLine(node, shift); line <= last; line++)
-            {
-                if (IndexOf(lines, lineCount, line) < 0)
-                    lines[lineCount++] = line;
-            }
-        }
-        return lineCount;
-    }
-
-    /// <summary>A step's lines sent to the cache in order; returns how many hit.</summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal static int Issue(LruCache cache, ReadOnlySpan<int> lines)
-    {
-        int hits = 0;
-        foreach (int line in lines)
-        {
-            if (cache.Access(line))
-                hits++;
-        }
-        return hits;
-    }
-
-    /// <summary>
-    /// Where <paramref name="value"/> is among the first <paramref name="count"/> items, or -1. Inlined: a step's lists
-    /// are a few items long, and a call per lookup to the library's vectorised search made the replay slower here.
-    /// </summary>
-    [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    private static int IndexOf(Span<int> items, int count, int value)
-    {
-        for (int i = 0; i < count && i < items.Length; i++)
-        {
-            if (items[i] == value)
-                return i;
-        }
-        return -1;
     }
 }
