@@ -1,5 +1,4 @@
 using System.Collections.Concurrent;
-using System.Numerics;
 using System.Runtime.CompilerServices;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Traversal;
@@ -142,40 +141,29 @@ public sealed partial class FrameMemory
         }
     }
 
-    /// <summary>Slots of the small table: at most half full, so probes stay short.</summary>
+    /// <summary>Slots of a pixel's table of lines: it takes 32 lines.</summary>
     private const int FewSlots = 64;
 
+    /// <summary>Slots of a group's table of lines: it takes 128 lines; a group with more goes through the set.</summary>
+    private const int GroupSlots = 256;
+
     /// <summary>
-    /// The distinct lines of a few reads' records into <paramref name="lines"/>, first appearance first, found with an
-    /// open-addressing table (<paramref name="slots"/>, a power of two, at least twice the lines) emptied first.
+    /// The distinct lines of a few reads' records into <paramref name="lines"/>, first appearance first, counted in a
+    /// <see cref="LineTable"/> on <paramref name="slots"/>, which must take every line the reads can touch.
     /// </summary>
     internal static int FewLines(ReadOnlySpan<int> nodes, Span<int> slots, Span<int> lines, NodeLayout layout, int shift)
     {
-        slots.Fill(-1);
-        int mask = slots.Length - 1, hashShift = 32 - BitOperations.Log2((uint)slots.Length), count = 0;
+        var table = new LineTable(slots, lines);
         foreach (int node in nodes)
         {
             int last = layout.LastLine(node, shift);
             for (int line = layout.FirstLine(node, shift); line <= last; line++)
             {
-                // Fibonacci hashing, as LineSet: neighbouring lines (siblings' records) spread over the table.
-                int slot = (int)(((uint)line * 2654435769u) >> hashShift);
-                while (true)
-                {
-                    int held = slots[slot];
-                    if (held == line)
-                        break;
-                    if (held < 0)
-                    {
-                        slots[slot] = line;
-                        lines[count++] = line;
-                        break;
-                    }
-                    slot = (slot + 1) & mask;
-                }
+                if (!table.Add(line))
+                    throw new InvalidOperationException("a pixel of few reads touched more lines than its table takes");
             }
         }
-        return count;
+        return table.Count;
     }
 
     /// <summary>
@@ -196,34 +184,56 @@ public sealed partial class FrameMemory
     }
 
     /// <summary>
-    /// Each group's distinct lines, the union of its pixels' lines; with <paramref name="keep"/>, also kept in the
-    /// scratch, group after group in row order within the tile, for <see cref="GroupsOfGroups"/>.
+    /// Each group's distinct lines, the union of its pixels' lines, in a <see cref="LineTable"/> (a set when a group
+    /// has more than it takes); with <paramref name="keep"/>, also kept in the scratch, group after group in row order
+    /// within the tile, for <see cref="GroupsOfGroups"/>.
     /// </summary>
+    [SkipLocalsInit]
     private void GroupsOf(TileReads reads, TileScratch scratch, SubgroupShape shape, uint[] groups, bool keep)
     {
         int tileWidth = reads.X1 - reads.X0;
         int tilesX = shape.TilesX(_width);
-        LineSet set = scratch.Set;
+        Span<int> slots = stackalloc int[GroupSlots];
+        Span<int> unkept = stackalloc int[GroupSlots / 2];
         int group = 0, at = 0;
         for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
         {
             for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
             {
-                set.Clear();
-                for (int y = gy; y < Math.Min(gy + shape.TileHeight, reads.Y1); y++)
+                int y1 = Math.Min(gy + shape.TileHeight, reads.Y1), x1 = Math.Min(gx + shape.TileWidth, reads.X1);
+                var table = new LineTable(slots, keep ? scratch.GroupLines(at + GroupSlots / 2).AsSpan(at) : unkept);
+                bool fits = true;
+                for (int y = gy; y < y1 && fits; y++)
                 {
-                    for (int x = gx; x < Math.Min(gx + shape.TileWidth, reads.X1); x++)
+                    for (int x = gx; x < x1 && fits; x++)
                     {
                         foreach (int line in scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0))
-                            set.AddRepeated(line);
+                            fits &= table.Add(line);
                     }
                 }
-                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)set.Count;
-                if (!keep)
-                    continue;
-                set.Members.CopyTo(scratch.GroupLines(at + set.Count).AsSpan(at));
-                at += set.Count;
-                scratch.GroupEnds[group++] = at;
+                int count = table.Count;
+                if (!fits)
+                {
+                    LineSet set = scratch.Set;
+                    set.Clear();
+                    for (int y = gy; y < y1; y++)
+                    {
+                        for (int x = gx; x < x1; x++)
+                        {
+                            foreach (int line in scratch.PixelLinesOf((y - reads.Y0) * tileWidth + x - reads.X0))
+                                set.Add(line);
+                        }
+                    }
+                    count = set.Count;
+                    if (keep)
+                        set.Members.CopyTo(scratch.GroupLines(at + count).AsSpan(at));
+                }
+                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)count;
+                if (keep)
+                {
+                    at += count;
+                    scratch.GroupEnds[group++] = at;
+                }
             }
         }
     }
@@ -234,25 +244,44 @@ public sealed partial class FrameMemory
     /// then added once per smaller group that touched it rather than once per pixel, about a twelfth as many adds on a
     /// tree strategy. Both tiles start on the tracer tile's corner, which the constructor holds both shapes to divide.
     /// </summary>
+    [SkipLocalsInit]
     private void GroupsOfGroups(TileReads reads, TileScratch scratch, SubgroupShape smaller, SubgroupShape shape, uint[] groups)
     {
         int tilesX = shape.TilesX(_width);
         int smallerPerRow = (reads.X1 - reads.X0 + smaller.TileWidth - 1) / smaller.TileWidth;
-        LineSet set = scratch.Set;
+        Span<int> slots = stackalloc int[GroupSlots];
+        Span<int> members = stackalloc int[GroupSlots / 2];
         for (int gy = reads.Y0; gy < reads.Y1; gy += shape.TileHeight)
         {
             for (int gx = reads.X0; gx < reads.X1; gx += shape.TileWidth)
             {
-                set.Clear();
-                for (int sy = gy; sy < Math.Min(gy + shape.TileHeight, reads.Y1); sy += smaller.TileHeight)
+                int y1 = Math.Min(gy + shape.TileHeight, reads.Y1), x1 = Math.Min(gx + shape.TileWidth, reads.X1);
+                var table = new LineTable(slots, members);
+                bool fits = true;
+                for (int sy = gy; sy < y1 && fits; sy += smaller.TileHeight)
                 {
-                    for (int sx = gx; sx < Math.Min(gx + shape.TileWidth, reads.X1); sx += smaller.TileWidth)
+                    for (int sx = gx; sx < x1 && fits; sx += smaller.TileWidth)
                     {
                         foreach (int line in scratch.GroupLinesOf((sy - reads.Y0) / smaller.TileHeight * smallerPerRow + (sx - reads.X0) / smaller.TileWidth))
-                            set.AddRepeated(line);
+                            fits &= table.Add(line);
                     }
                 }
-                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)set.Count;
+                int count = table.Count;
+                if (!fits)
+                {
+                    LineSet set = scratch.Set;
+                    set.Clear();
+                    for (int sy = gy; sy < y1; sy += smaller.TileHeight)
+                    {
+                        for (int sx = gx; sx < x1; sx += smaller.TileWidth)
+                        {
+                            foreach (int line in scratch.GroupLinesOf((sy - reads.Y0) / smaller.TileHeight * smallerPerRow + (sx - reads.X0) / smaller.TileWidth))
+                                set.Add(line);
+                        }
+                    }
+                    count = set.Count;
+                }
+                groups[gy / shape.TileHeight * tilesX + gx / shape.TileWidth] = (uint)count;
             }
         }
     }
