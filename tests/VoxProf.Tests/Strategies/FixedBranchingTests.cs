@@ -11,29 +11,11 @@ public sealed class FixedBranchingTests : IDisposable
 
     public void Dispose() => Directory.Delete(_dir, recursive: true);
 
-    /// <summary>A strategy whose Trace body (line 14 of the file onwards) is <paramref name="body"/>, plus <paramref name="members"/>.</summary>
+    /// <summary>A strategy that fetches the root (line 13), then runs <paramref name="body"/> (line 14 on).</summary>
     private string Write(string body, string members = "")
     {
         string path = Path.Combine(_dir, "walk.cs");
-        File.WriteAllText(path, $$"""
-            using VoxProf.Core.Rays;
-            using VoxProf.Core.Strategies;
-            using VoxProf.Core.Traversal;
-            public struct Walk : IStrategy
-            {
-                public static string Name => "fixed-walk";
-                public static string Description => "test";
-                {{members}}
-                public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
-                    where TBranching : struct, IBranching where TCounters : struct, ICostCounters
-                {
-                    TCounters counters = default;
-                    NodeRef root = view.Fetch(0, ref counters);
-            {{body}}
-                    return counters;
-                }
-            }
-            """);
+        File.WriteAllText(path, StrategySource.Of("Walk", "fixed-walk", "        NodeRef root = view.Fetch(0, ref counters);\n" + body, members));
         return path;
     }
 

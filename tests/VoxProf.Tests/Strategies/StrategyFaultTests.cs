@@ -17,26 +17,9 @@ public sealed class StrategyFaultTests : IDisposable
     [Fact]
     public void A_strategy_that_throws_names_its_file_strategy_and_the_first_failing_tiles_pixels_whatever_the_threads()
     {
-        // Throws for the rays of one side of the image only (which side depends on the camera), so that tiles fail and
-        // pass in both threads' shares.
+        // Throws for the rays leaning toward +x only; with two threads several tiles fail at once, in either order.
         string path = Path.Combine(_dir, "throws.cs");
-        File.WriteAllText(path, """
-            using VoxProf.Core.Rays;
-            using VoxProf.Core.Strategies;
-            using VoxProf.Core.Traversal;
-            public struct Throws : IStrategy
-            {
-                public static string Name => "throws";
-                public static string Description => "test";
-                public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
-                    where TBranching : struct, IBranching where TCounters : struct, ICostCounters
-                {
-                    if (ray.Dx > 0.2)
-                        throw new InvalidOperationException("probe ran off its list");
-                    return default;
-                }
-            }
-            """);
+        File.WriteAllText(path, StrategySource.Of("Throws", "throws", "        if (ray.Dx > 0.2)\n            throw new InvalidOperationException(\"probe ran off its list\");"));
         StrategyDefinition throws = StrategyFiles.Compile(path).Single();
         CameraSpec cam = DemoTrees.Scene.Cameras[0];
         string? first = null;

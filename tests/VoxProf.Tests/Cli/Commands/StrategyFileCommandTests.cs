@@ -2,6 +2,7 @@ using System.Text.Json;
 using System.Text.RegularExpressions;
 using VoxProf.Cli;
 using VoxProf.Reports.Pixels;
+using VoxProf.Tests.Strategies;
 
 namespace VoxProf.Tests.Cli.Commands;
 
@@ -38,23 +39,7 @@ public sealed class StrategyFileCommandTests : IDisposable
     public void A_strategy_that_throws_while_tracing_exits_2_naming_its_file_and_pixels_and_writes_nothing()
     {
         string file = Path.Combine(_dir, "throws.cs");
-        File.WriteAllText(file, """
-            using VoxProf.Core.Rays;
-            using VoxProf.Core.Strategies;
-            using VoxProf.Core.Traversal;
-            public struct Throws : IStrategy
-            {
-                public static string Name => "throws";
-                public static string Description => "test";
-                public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
-                    where TBranching : struct, IBranching where TCounters : struct, ICostCounters
-                {
-                    TCounters counters = default;
-                    view.Fetch(view.Nodes.Length + 5, ref counters);
-                    return counters;
-                }
-            }
-            """);
+        File.WriteAllText(file, StrategySource.Of("Throws", "throws", "        view.Fetch(view.Nodes.Length + 5, ref counters);"));
         string outDir = Path.Combine(_dir, "out");
         int code = Run("trace", Scene, "--strategy-file", file, "--strategy", "throws", "--size", "40x20", "--out", outDir, "--quiet");
         code.Should().Be(ExitCodes.BadInput, "the fault is in the user's strategy, not in VoxProf");
