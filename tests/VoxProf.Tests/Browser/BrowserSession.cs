@@ -84,6 +84,10 @@ public sealed class BrowserFixture(int viewportWidth = 1400, int viewportHeight 
     {
         IBrowserContext context = _context ?? throw new InvalidOperationException("no browser: the test should have been skipped");
         IPage page = await context.NewPageAsync();
+        // What these tests check is what the page shows, not how fast: a 7.6 MB full-size page once took more than
+        // Playwright's default 30 s to load while the sweeps kept both cores busy; clicks and waits get the same slack.
+        page.SetDefaultTimeout(120000);
+        page.SetDefaultNavigationTimeout(180000);
         var session = new PageSession(page, new Uri(Path.GetFullPath(file)).AbsoluteUri);
         await page.RouteAsync("**/*", async route =>
         {

@@ -64,7 +64,7 @@ public sealed class ReportPageTests(ReportPagesFixture pages) : IClassFixture<Re
 
     /// <summary>The readout has decoded <paramref name="strategy"/>'s pixel data.</summary>
     private static Task WaitReady(IPage page, string strategy) =>
-        page.WaitForSelectorAsync($"#readout[data-ready=\"{strategy}\"]", new() { State = WaitForSelectorState.Attached, Timeout = 30000 });
+        page.WaitForSelectorAsync($"#readout[data-ready=\"{strategy}\"]", new() { State = WaitForSelectorState.Attached, Timeout = 120000 });
 
     /// <summary>Moves the mouse onto traced pixel (x, y) of the image on show.</summary>
     public static async Task Hover(IPage page, int x, int y)
