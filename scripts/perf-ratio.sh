@@ -19,29 +19,13 @@ set -euo pipefail
 VOXPROF=${1:?usage: perf-ratio.sh VOXPROF_BINARY [THRESHOLD]}
 THRESHOLD=${2:-0.5}
 HERE=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
-PERF=${VOXPROF_PERF_DIR:-$HERE/../shared/perf}
-CACHE=${VOXPROF_PERF_CACHE:-${XDG_CACHE_HOME:-$HOME/.cache}/voxprof-perf}
 CAMERA=overview
 SIZE=1280x720
 PIXELS=921600
 [ -x "$VOXPROF" ] || { echo "perf-ratio: $VOXPROF is not executable" >&2; exit 2; }
-[ -f "$PERF/refbrick.c" ] && [ -f "$PERF/genscene.c" ] || {
-  echo "perf-ratio: no refbrick.c and genscene.c in $PERF (set VOXPROF_PERF_DIR)" >&2; exit 2; }
-mkdir -p "$CACHE"
 
 # The reference built for this CPU (keyed by its model, as the original does) and the scene, both cached.
-CPUKEY=$( (uname -m; grep -m1 'model name' /proc/cpuinfo 2>/dev/null || true) | cksum | cut -d' ' -f1)
-REF=$CACHE/refbrick-$CPUKEY
-if [ ! -x "$REF" ] || [ "$PERF/refbrick.c" -nt "$REF" ]; then
-  gcc -O3 -march=native -ffp-contract=off -o "$REF" "$PERF/refbrick.c" -lm || exit 2
-fi
-SCENE=$CACHE/scene/terrain.vpscene.json
-if [ ! -f "$SCENE" ] || [ "$(stat -c %s "$CACHE/scene/terrain.raw" 2>/dev/null || echo 0)" != 268435456 ] \
-   || [ "$PERF/genscene.c" -nt "$SCENE" ]; then
-  gcc -O2 -o "$CACHE/genscene" "$PERF/genscene.c" -lm || exit 2
-  mkdir -p "$CACHE/scene"
-  "$CACHE/genscene" "$CACHE/scene" >/dev/null || exit 2
-fi
+. "$HERE/scripts/perf-reference.sh"
 OUT=$(mktemp -d "${TMPDIR:-/tmp}/perf-ratio.XXXXXX")
 trap 'rm -rf "$OUT"' EXIT
 

@@ -31,27 +31,11 @@
 set -euo pipefail
 ROUNDS=${1:-3}
 HERE=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
-PERF=${VOXPROF_PERF_DIR:-$HERE/../shared/perf}
-CACHE=${VOXPROF_PERF_CACHE:-${XDG_CACHE_HOME:-$HOME/.cache}/voxprof-perf}
 CAMERA=${CAMERA:-overview}
 SIZE=${SIZE:-1280x720}
-[ -f "$PERF/refbrick.c" ] && [ -f "$PERF/genscene.c" ] || {
-  echo "side-by-side: no refbrick.c and genscene.c in $PERF (set VOXPROF_PERF_DIR)" >&2; exit 2; }
-mkdir -p "$CACHE"
 
-# 1. The reference, built for this CPU (so the cached binary is keyed by the CPU model), and the scene.
-CPUKEY=$( (uname -m; grep -m1 'model name' /proc/cpuinfo 2>/dev/null || true) | cksum | cut -d' ' -f1)
-REF=$CACHE/refbrick-$CPUKEY
-if [ ! -x "$REF" ] || [ "$PERF/refbrick.c" -nt "$REF" ]; then
-  gcc -O3 -march=native -ffp-contract=off -o "$REF" "$PERF/refbrick.c" -lm
-fi
-SCENE=$CACHE/scene/terrain.vpscene.json
-if [ ! -f "$SCENE" ] || [ "$(stat -c %s "$CACHE/scene/terrain.raw" 2>/dev/null || echo 0)" != 268435456 ] \
-   || [ "$PERF/genscene.c" -nt "$SCENE" ]; then
-  gcc -O2 -o "$CACHE/genscene" "$PERF/genscene.c" -lm
-  mkdir -p "$CACHE/scene"
-  "$CACHE/genscene" "$CACHE/scene" >/dev/null
-fi
+# 1. The reference, built for this CPU, and the scene.
+. "$HERE/scripts/perf-reference.sh"
 
 # 2. VoxProf: the benchmark harness and the published command.
 dotnet build "$HERE/tests/VoxProf.Benchmarks" -c Release --nologo -v quiet >/dev/null
