@@ -23,21 +23,8 @@ public sealed class StrategyFileTests : IDisposable
     private const string Header = "using VoxProf.Core.Rays;\nusing VoxProf.Core.Strategies;\nusing VoxProf.Core.Traversal;\nusing VoxProf.Core.Trees;\n";
 
     /// <summary>A strategy that counts one iteration and hits nothing, under a given name and with given counters.</summary>
-    private static string Strategy(string type, string name, string counters = "") => $$"""
-        public struct {{type}} : IStrategy
-        {
-            public static string Name => "{{name}}";
-            public static string Description => "test";
-            {{counters}}
-            public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
-                where TBranching : struct, IBranching where TCounters : struct, ICostCounters
-            {
-                TCounters counters = default;
-                counters.Iteration();
-                return counters;
-            }
-        }
-        """;
+    private static string Strategy(string type, string name, string counters = "") =>
+        StrategySource.Struct(type, name, "        counters.Iteration();", counters);
 
     [Fact]
     public void A_file_that_does_not_compile_gives_the_compilers_file_line_and_column_for_each_error()
