@@ -7,9 +7,10 @@
 # and report writing excluded), the C reference's its own trace time, 3 interleaved pairs (A B B A A B), the ratio the
 # median of the pairwise ratios. What differs:
 #  - the check that both did the same work reads `iterations.total` (the counter's total moved there);
-#  - it is measured twice, with the memory model off and then on (`trace`'s default, added after the original was
-#    written: its replay of each tile's node reads through a cache is inside the trace seconds, and the C reference
-#    models no memory). The last line, and the exit status, are the model-off ratio: the same work as the reference.
+#  - it is measured twice, with the memory model on (`trace`'s default, added after the original was written: the
+#    kernels then also record each node read, which the trace seconds include; the model's replay of the reads is
+#    timed apart, as report.json's memory seconds) and off. The C reference models no memory. The last line, and the
+#    exit status, are the model-off ratio: the same work as the reference.
 # Last line: "ratio: voxprof/C rays per second = 0.NN (voxprof X M rays/s, C Y M rays/s)".
 # Exit 0 when that ratio >= THRESHOLD (default 0.5), 1 when below, 2 on a usage or tool error.
 # Environment: VOXPROF_PERF_DIR (refbrick.c and genscene.c; default ../shared/perf beside this repository),

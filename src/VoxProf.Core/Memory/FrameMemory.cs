@@ -49,7 +49,7 @@ public sealed partial class FrameMemory
     }
 
     /// <summary>
-    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts"/> until
+    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts{TCounts}"/> until
     /// <see cref="EndTile"/>, which must run on the same thread.
     /// </summary>
     public TileReads BeginTile(int x0, int y0, int x1, int y1)
@@ -57,14 +57,14 @@ public sealed partial class FrameMemory
         if (!_pool.TryTake(out TileReads? reads))
             reads = new TileReads();
         reads.Begin(x0, y0, x1, y1);
-        MemoryCounts.Attach(reads);
+        TileReads.Attach(reads);
         return reads;
     }
 
     /// <summary>Models the recorded tile, writing each pixel's distinct lines into <paramref name="cacheLines"/> (the image's buffer).</summary>
     public void EndTile(TileReads reads, uint[] cacheLines)
     {
-        MemoryCounts.Attach(null);
+        TileReads.Attach(null);
         if (reads.Pixels != (reads.X1 - reads.X0) * (reads.Y1 - reads.Y0))
             throw new InvalidOperationException($"the tile's {reads.Pixels} pixels were not all flushed");
         TileScratch scratch = reads.Scratch;

@@ -76,7 +76,8 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         where TBranching : struct, IBranching
     {
         if (!job.CountWork) Tracer.TraceTile<TStrategy, TBranching, NoCounters>(job, x0, y0, x1, y1);
-        else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads && extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCountsWithExtras>>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts>>(job, x0, y0, x1, y1);
         else if (extras) Tracer.TraceTile<TStrategy, TBranching, CostCountsWithExtras>(job, x0, y0, x1, y1);
         else Tracer.TraceTile<TStrategy, TBranching, CostCounts>(job, x0, y0, x1, y1);
     }

@@ -1,4 +1,5 @@
 using System.Runtime.CompilerServices;
+using VoxProf.Core.Memory;
 
 namespace VoxProf.Core.Traversal;
 
@@ -29,9 +30,10 @@ internal interface ICountFlush
 {
     /// <summary>
     /// Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (counters indexed by
-    /// <see cref="Counter"/>, then extra counters).
+    /// <see cref="Counter"/>, then extra counters), and with the memory model on closes the pixel's reads in
+    /// <paramref name="reads"/>, the tile's recorder, which the tracer looks up once per tile rather than per ray.
     /// </summary>
-    void Flush(Span<uint> tile, int slot);
+    void Flush(Span<uint> tile, int slot, TileReads? reads);
 }
 
 /// <summary>Counting compiled out.</summary>
@@ -46,7 +48,7 @@ public struct NoCounters : ICostCounters, ICountFlush
     public void MaskCulled(int cells) { }
     public void MaskSkipped() { }
     public void Extra(int index, uint amount) { }
-    readonly void ICountFlush.Flush(Span<uint> tile, int slot) { }
+    readonly void ICountFlush.Flush(Span<uint> tile, int slot, TileReads? reads) { }
 }
 
 /// <summary>
@@ -77,7 +79,7 @@ public struct CostCounts : ICostCounters, ICountFlush
 
     /// <summary>Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (indexed by <see cref="Counter"/>).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public readonly void Flush(Span<uint> tile, int slot)
+    public readonly void Flush(Span<uint> tile, int slot, TileReads? reads)
     {
         tile[TileCounts.Index((int)Counter.Iterations, slot)] = Iterations;
         tile[TileCounts.Index((int)Counter.CellSteps, slot)] = CellSteps;
@@ -127,9 +129,9 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Extra(int index, uint amount) => Extras[index] += amount;
 
     /// <summary>Writes the built-in counts, then the extra counters after <see cref="CounterNames.Count"/>.</summary>
-    public readonly void Flush(Span<uint> tile, int slot)
+    public readonly void Flush(Span<uint> tile, int slot, TileReads? reads)
     {
-        Counts.Flush(tile, slot);
+        Counts.Flush(tile, slot, null);
         Extras.Flush(tile, slot);
     }
 }

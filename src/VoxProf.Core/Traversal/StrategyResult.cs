@@ -33,8 +33,13 @@ public sealed class StrategyResult
 
     public PixelHit[] Hits { get; }
 
-    /// <summary>Wall time of this strategy's trace (not deterministic; keep it apart from counts).</summary>
+    /// <summary>Wall time of this strategy's tracing (not deterministic; keep it apart from counts). With the memory
+    /// model on it includes recording each node read, not the model's pass over the reads: that is
+    /// <see cref="MemoryElapsed"/>.</summary>
     public TimeSpan Elapsed { get; }
+
+    /// <summary>Wall time of the memory model's passes over this strategy's reads; zero with the model off.</summary>
+    public TimeSpan MemoryElapsed { get; init; }
 
     /// <summary>What the memory model found; null when the trace ran with the model off.</summary>
     public MemoryResult? Memory { get; init; }

@@ -105,6 +105,9 @@ public static class Tracer
             // in tile order) is the same whatever the thread count and the order tiles finish in.
             StrategyFault? fault = null;
             var faultLock = new Lock();
+            // The memory model's pass over a tile is timed apart from the tile's tracing: a strategy's time is its
+            // tracing, not the analysis of its reads, which costs more the more a strategy reads (TimedSplit).
+            long tracingTicks = 0, modelTicks = 0;
             Parallel.For(0, tiles.Length, options, i =>
             {
                 var (x0, y0, x1, y1) = TileBounds(tiles[i], request.Width, request.Height);
@@ -114,8 +117,12 @@ public static class Tracer
                     {
                         // The memory model: the same kernels, with a counter that also records each node read.
                         TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                        long begun = Stopwatch.GetTimestamp();
                         definition.TraceTile(job, x0, y0, x1, y1);
+                        long traced = Stopwatch.GetTimestamp();
                         memory.EndTile(reads, counters[(int)Counter.CacheLines]);
+                        Interlocked.Add(ref tracingTicks, traced - begun);
+                        Interlocked.Add(ref modelTicks, Stopwatch.GetTimestamp() - traced);
                     }
                     else
                     {
@@ -136,9 +143,14 @@ public static class Tracer
             if (fault is not null)
                 throw fault;
             pixelsDone = before + heldPixels;
+            (TimeSpan tracing, TimeSpan model) = TimedSplit.Split(sw.Elapsed, tracingTicks, modelTicks);
             // Each strategy that uses the shared prepass is charged its full time, as it would pay it alone.
-            TimeSpan elapsed = sw.Elapsed + (map != null ? prepassTime : TimeSpan.Zero);
-            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed) { Memory = memory?.Finish() });
+            TimeSpan elapsed = tracing + (map != null ? prepassTime : TimeSpan.Zero);
+            results.Add(new StrategyResult(definition, request.Width, request.Height, counters, hits, elapsed)
+            {
+                Memory = memory?.Finish(),
+                MemoryElapsed = model,
+            });
         }
         var settings = new TraceSettings(request.Width, request.Height, request.Tree.Branching, request.PrepassBlock, options.MaxDegreeOfParallelism);
         return new TraceRun(request.Scene, request.Camera, settings, request.Tree.Stats, results);
@@ -159,6 +171,7 @@ public static class Tracer
         // The tile's counts, copied into the image's buffers when the tile is done (TileCounts says why).
         Span<uint> tile = typeof(TCounters) != typeof(NoCounters) ? stackalloc uint[buffers.Length * TileCounts.Slots] : default;
         int width = camera.Width;
+        TileReads? reads = job.RecordsReads ? TileReads.Current : null;
         for (int y = y0; y < y1; y++)
         {
             for (int x = x0; x < x1; x++)
@@ -173,7 +186,7 @@ public static class Tracer
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
                 if (typeof(TCounters) != typeof(NoCounters))
                 {
-                    counters.Flush(tile, slot);
+                    counters.Flush(tile, slot, reads);
                     if (prepass != null)
                         tile[TileCounts.Index((int)Counter.PrepassSkip, slot)] = SkippedVoxels(view, ray, tMin);
                 }
@@ -216,6 +229,6 @@ public static class Tracer
 }
 
 /// <summary>What every tile of one strategy's trace shares: the tree, the rays, the prepass and the result buffers.</summary>
-/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts"/>, which records each node read.</param>
+/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts{TCounts}"/>, which records each node read.</param>
 internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork,
     bool RecordsReads);

@@ -55,6 +55,9 @@ public static class ReportBuilder
             new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name, r => r.Elapsed.TotalSeconds))
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
+                MemorySeconds = run.Results.Any(r => r.Memory is not null)
+                    ? run.Results.Where(r => r.Memory is not null).ToDictionary(r => r.Strategy.Name, r => r.MemoryElapsed.TotalSeconds)
+                    : null,
             });
         var warnings = new List<string>();
         if (ToolInfo.IsDebug(options.Environment))

@@ -99,7 +99,11 @@ public static class TracePage
             ("tree build", d.Timings.TreeBuildSeconds.ToString("0.000", Inv) + " s"),
         };
         foreach (var (strategy, seconds) in d.Timings.TraceSeconds)
+        {
             facts.Add(($"trace {strategy}", seconds.ToString("0.000", Inv) + " s"));
+            if (d.Timings.MemorySeconds?.TryGetValue(strategy, out double model) == true)
+                facts.Add(($"memory model {strategy}", model.ToString("0.000", Inv) + " s"));
+        }
         if (d.CommandLine.Count > 0)
             facts.Add(("command", "voxprof " + string.Join(" ", d.CommandLine.Select(Quote))));
 

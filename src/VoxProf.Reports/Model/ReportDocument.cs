@@ -109,8 +109,14 @@ public sealed record StrategyReport(string Name, IReadOnlyDictionary<string, dou
 
 public sealed record EnvironmentInfo(string Runtime, int ProcessorCount, string Configuration, string Os);
 
+/// <param name="TraceSeconds">Per strategy, its tracing's wall time (with the memory model on, recording each node read,
+/// but not the model's pass over the reads).</param>
 public sealed record TimingInfo(double TreeBuildSeconds, IReadOnlyDictionary<string, double> TraceSeconds)
 {
     /// <summary>Worker threads used; counts do not depend on it, so it lives with the timings.</summary>
     public int Threads { get; init; }
+
+    /// <summary>Per strategy, the wall time of the memory model's passes over its reads; null with the model off.</summary>
+    [JsonIgnore(Condition = JsonIgnoreCondition.WhenWritingNull)]
+    public IReadOnlyDictionary<string, double>? MemorySeconds { get; init; }
 }

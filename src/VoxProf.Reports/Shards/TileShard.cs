@@ -14,7 +14,9 @@ namespace VoxProf.Reports.Shards;
 public sealed record TileShardMemory(long Accesses, long Hits, IReadOnlyList<uint[]> GroupLines);
 
 /// <summary>One strategy as a tile shard traced it.</summary>
-public sealed record TileShardStrategy(string Name, double Seconds, TileShardMemory? Memory);
+/// <param name="MemorySeconds">The memory model's time, apart from <paramref name="Seconds"/> (absent from shards
+/// written before it was timed apart).</param>
+public sealed record TileShardStrategy(string Name, double Seconds, TileShardMemory? Memory, double? MemorySeconds = null);
 
 /// <summary>tile-shard.json: what a tile shard traced, so merge can check the shards belong together.</summary>
 public sealed record TileShardDocument(
@@ -38,7 +40,8 @@ public static class TileShard
         foreach (StrategyResult r in run.Results)
             output.Write(OutputNames.PixelData(r.Strategy.Name), s => PixelDataFile.Write(PixelData.From(r), s));
         var strategies = run.Results.Select(r => new TileShardStrategy(r.Strategy.Name, r.Elapsed.TotalSeconds,
-            r.Memory is { } m ? new TileShardMemory(m.Accesses, m.Hits, m.Groups.Select(g => g.Lines).ToArray()) : null)).ToArray();
+            r.Memory is { } m ? new TileShardMemory(m.Accesses, m.Hits, m.Groups.Select(g => g.Lines).ToArray()) : null,
+            r.Memory is not null ? r.MemoryElapsed.TotalSeconds : null)).ToArray();
         var doc = new TileShardDocument(TileShardDocument.ShardKind, TileShardDocument.CurrentSchema, options.ToolVersion, options.ToolCommit,
             run.Scene.Name, run.Scene.ContentHash, run.Camera.Name, run.Settings.Width, run.Settings.Height, options.CommandLine,
             share.Index, share.Count, strategies);
@@ -124,7 +127,7 @@ public static class TileShard
             for (int c = 0; c < counters.Length; c++)
                 counters[c] = new uint[n];
             var hits = new PixelHit[n];
-            double seconds = 0;
+            double seconds = 0, memorySeconds = 0;
             foreach (TileShardFolder shard in shards)
             {
                 PixelData data = shard.Pixels(definition.Name, width, height);
@@ -142,10 +145,12 @@ public static class TileShard
                     }
                 }
                 seconds += shard.Document.Strategies[k].Seconds;
+                memorySeconds += shard.Document.Strategies[k].MemorySeconds ?? 0;
             }
             results.Add(new StrategyResult(definition, width, height, counters, hits, TimeSpan.FromSeconds(seconds))
             {
                 Memory = request.Memory is { } settings ? Memory(shards, k, settings) : null,
+                MemoryElapsed = TimeSpan.FromSeconds(memorySeconds),
             });
         }
         return results;

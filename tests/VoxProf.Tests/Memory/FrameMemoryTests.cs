@@ -39,10 +39,10 @@ public sealed class FrameMemoryTests
                 {
                     for (int x = x0; x < x1; x++)
                     {
-                        MemoryCounts counts = default;
+                        MemoryCounts<CostCounts> counts = default;
                         foreach (int node in f.Reads[y * f.Width + x])
                             counts.NodeFetch(node);
-                        counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0));
+                        counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0), reads);
                     }
                 }
                 TileCounts.CopyTo(tile, buffers, f.Width, x0, y0, x1, y1);
