@@ -1,11 +1,22 @@
+using System.Numerics;
 using FluentAssertions;
+using VoxProf.Core.Geometry;
 using VoxProf.Core.Memory;
+using VoxProf.Core.Rays;
+using VoxProf.Core.Scenes;
+using VoxProf.Core.Scenes.Layers;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
+using VoxProf.Core.Trees;
 using Xunit;
 
 namespace VoxProf.Tests.Memory;
 
-/// <summary>Recording a tile's reads through the counters' own pointer, across the recorder's buffer growing.</summary>
+/// <summary>
+/// Recording a tile's reads through the counters' own pointer, across the recorder's buffer growing; and the reads the
+/// tracer records with the model on, held to those the same kernels make when traced one ray at a time with a counter
+/// of the test's own that keeps every node index.
+/// </summary>
 public sealed class ReadRecordingTests
 {
     [Fact]
@@ -60,6 +71,104 @@ public sealed class ReadRecordingTests
         finally
         {
             TileReads.Attach(null);
+        }
+    }
+
+    private static readonly CameraSpec Camera = new("c", new Vector3(1, 12, 1), new Vector3(63, 0, 63), Vector3.UnitY, 60);
+
+    /// <summary>Every counter a no-op but the node reads, kept in order.</summary>
+    private struct ReadList : ICostCounters
+    {
+        [ThreadStatic]
+        public static List<int>? Reads;
+
+        public readonly void Iteration() { }
+        public readonly void CellStep() { }
+        public readonly void SlabTest() { }
+        public readonly void Descent() { }
+        public readonly void Ascent() { }
+        public readonly void NodeFetch(int nodeIndex) => Reads!.Add(nodeIndex);
+        public readonly void MaskCulled(int cells) { }
+        public readonly void MaskSkipped() { }
+        public readonly void Extra(int index, uint amount) { }
+    }
+
+    private static List<int> ReadsOf<TStrategy>(BrickTree tree, Camera camera, int x, int y) where TStrategy : struct, IStrategy
+    {
+        ReadList.Reads = [];
+        var view = new TreeView(tree);
+        var hit = default(PixelHit);
+        Span<NodeRef> path = stackalloc NodeRef[view.Depth + 1];
+        TStrategy.Trace<Branching4, ReadList>(view, camera.Ray(x, y), 0, path, ref hit);
+        return ReadList.Reads;
+    }
+
+    [Fact]
+    public void Each_pixels_cache_lines_are_the_distinct_lines_of_the_reads_its_kernel_makes()
+    {
+        // Grid's rays read hundreds of nodes each here, so a 16×16 tile fills the recorder's first buffer of 4,096
+        // reads in the middle of a ray: the buffer grows under it, and every read must still land once, in order.
+        var extent = new Box3i(0, 0, 0, 64, 64, 64);
+        var scene = new Scene(64, 64, 64, [new BoxLayer(LayerOp.Add, 1, new Box3i(0, 0, 0, 64, 3, 64), extent),
+            new SphereLayer(LayerOp.Add, 2, 40, 10, 30, 8, extent)], [], "floor");
+        BrickTree tree = TreeBuilder.Build(scene, 4, threads: 1);
+        const int W = 36, H = 20;
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, Camera, W, H, [BuiltInStrategies.Grid, BuiltInStrategies.DdaMask],
+            Threads: 2, Memory: MemorySettings.Default));
+        var camera = new Camera(Camera, W, H);
+        var layout = NodeLayout.For(4);
+        int shift = MemorySettings.Default.LineShift;
+        long gridReads = 0;
+        foreach (StrategyResult r in run.Results)
+        {
+            uint[] lines = r.Counters[(int)Counter.CacheLines], fetches = r.Counters[(int)Counter.NodeFetches];
+            for (int y = 0; y < H; y++)
+            {
+                for (int x = 0; x < W; x++)
+                {
+                    List<int> reads = r.Strategy.Name == "grid" ? ReadsOf<GridStrategy>(tree, camera, x, y) : ReadsOf<DdaMaskStrategy>(tree, camera, x, y);
+                    int distinct = reads.SelectMany(n => Enumerable.Range(layout.FirstLine(n, shift), layout.LastLine(n, shift) - layout.FirstLine(n, shift) + 1))
+                        .Distinct().Count();
+                    lines[y * W + x].Should().Be((uint)distinct, $"{r.Strategy.Name} pixel ({x}, {y})");
+                    fetches[y * W + x].Should().Be((uint)reads.Count, $"{r.Strategy.Name} pixel ({x}, {y})");
+                    if (r.Strategy.Name == "grid")
+                        gridReads += reads.Count;
+                }
+            }
+        }
+        (gridReads / (W * H)).Should().BeGreaterThan(4096 / 256, "a tile's reads should overrun the first buffer");
+
+        // The whole model (the replay's accesses and hits, the groups' lines) from the test's own reads, fed tile by
+        // tile in the tracer's order: a ray recorded twice, or a read lost when the buffer grew, would change them.
+        foreach (StrategyResult r in run.Results)
+        {
+            var memory = new FrameMemory(MemorySettings.Default, layout, W, H);
+            var cacheLines = new uint[W * H];
+            for (int y0 = 0; y0 < H; y0 += Tracer.TileSize)
+            {
+                for (int x0 = 0; x0 < W; x0 += Tracer.TileSize)
+                {
+                    int x1 = Math.Min(W, x0 + Tracer.TileSize), y1 = Math.Min(H, y0 + Tracer.TileSize);
+                    TileReads reads = memory.BeginTile(x0, y0, x1, y1);
+                    var tile = new uint[CounterNames.Count * TileCounts.Slots];
+                    for (int y = y0; y < y1; y++)
+                    {
+                        for (int x = x0; x < x1; x++)
+                        {
+                            MemoryCounts<CostCounts> counts = default;
+                            foreach (int node in r.Strategy.Name == "grid" ? ReadsOf<GridStrategy>(tree, camera, x, y) : ReadsOf<DdaMaskStrategy>(tree, camera, x, y))
+                                counts.NodeFetch(node);
+                            counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0), reads);
+                        }
+                    }
+                    memory.EndTile(reads, cacheLines);
+                }
+            }
+            MemoryResult expected = memory.Finish(), got = r.Memory!;
+            (got.Accesses, got.Hits).Should().Be((expected.Accesses, expected.Hits), r.Strategy.Name);
+            for (int g = 0; g < expected.Groups.Count; g++)
+                got.Groups[g].Lines.Should().Equal(expected.Groups[g].Lines, $"{r.Strategy.Name} {expected.Groups[g].Shape.Name}");
+            r.Counters[(int)Counter.CacheLines].Should().Equal(cacheLines, r.Strategy.Name);
         }
     }
 }
