@@ -55,9 +55,8 @@ public static class ReportBuilder
             new TimingInfo(tree.BuildTime.TotalSeconds, run.Results.ToDictionary(r => r.Strategy.Name, r => r.Elapsed.TotalSeconds))
             {
                 Threads = options.Threads != 0 ? options.Threads : settings.Threads,
-                MemorySeconds = run.Results.Any(r => r.Memory is not null)
-                    ? run.Results.Where(r => r.Memory is not null).ToDictionary(r => r.Strategy.Name, r => r.MemoryElapsed.TotalSeconds)
-                    : null,
+                MemorySeconds = run.Results.Where(r => r.Memory is not null)
+                    .ToDictionary(r => r.Strategy.Name, r => r.MemoryElapsed.TotalSeconds) is { Count: > 0 } model ? model : null,
             });
         var warnings = new List<string>();
         if (ToolInfo.IsDebug(options.Environment))
