@@ -9,7 +9,7 @@ namespace VoxProf.Tests.Memory;
 /// <summary>The memory model fed made-up node reads through the tracer's protocol, against an obvious replay.</summary>
 public sealed class FrameMemoryTests
 {
-    private sealed record Frame(int Width, int Height, int[][] Reads);
+    internal sealed record Frame(int Width, int Height, int[][] Reads);
 
     /// <summary>Random reads per pixel: a few popular nodes (the tree's top) and a wide spread of others.</summary>
     private static Frame RandomFrame(int seed, int width, int height)
@@ -22,7 +22,7 @@ public sealed class FrameMemoryTests
     }
 
     /// <summary>Runs the frame through <see cref="FrameMemory"/> tile by tile, as the tracer does.</summary>
-    private static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings, int recordBytes = 24, bool gather = true)
+    internal static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings, int recordBytes = 24, bool gather = true)
     {
         var memory = new FrameMemory(settings, new NodeLayout(recordBytes), f.Width, f.Height, gather);
         var buffers = new uint[CounterNames.Count][];

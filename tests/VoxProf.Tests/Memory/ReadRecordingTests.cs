@@ -142,29 +142,10 @@ public sealed class ReadRecordingTests
         // tile in the tracer's order: a ray recorded twice, or a read lost when the buffer grew, would change them.
         foreach (StrategyResult r in run.Results)
         {
-            var memory = new FrameMemory(MemorySettings.Default, layout, W, H);
-            var cacheLines = new uint[W * H];
-            for (int y0 = 0; y0 < H; y0 += Tracer.TileSize)
-            {
-                for (int x0 = 0; x0 < W; x0 += Tracer.TileSize)
-                {
-                    int x1 = Math.Min(W, x0 + Tracer.TileSize), y1 = Math.Min(H, y0 + Tracer.TileSize);
-                    TileReads reads = memory.BeginTile(x0, y0, x1, y1);
-                    var tile = new uint[CounterNames.Count * TileCounts.Slots];
-                    for (int y = y0; y < y1; y++)
-                    {
-                        for (int x = x0; x < x1; x++)
-                        {
-                            MemoryCounts<CostCounts> counts = default;
-                            foreach (int node in r.Strategy.Name == "grid" ? ReadsOf<GridStrategy>(tree, camera, x, y) : ReadsOf<DdaMaskStrategy>(tree, camera, x, y))
-                                counts.NodeFetch(node);
-                            counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0), reads);
-                        }
-                    }
-                    memory.EndTile(reads, cacheLines);
-                }
-            }
-            MemoryResult expected = memory.Finish(), got = r.Memory!;
+            int[][] reads = [.. Enumerable.Range(0, W * H).Select(p => (r.Strategy.Name == "grid"
+                ? ReadsOf<GridStrategy>(tree, camera, p % W, p / W) : ReadsOf<DdaMaskStrategy>(tree, camera, p % W, p / W)).ToArray())];
+            (MemoryResult expected, uint[] cacheLines) = FrameMemoryTests.Model(new FrameMemoryTests.Frame(W, H, reads), MemorySettings.Default);
+            MemoryResult got = r.Memory!;
             (got.Accesses, got.Hits).Should().Be((expected.Accesses, expected.Hits), r.Strategy.Name);
             for (int g = 0; g < expected.Groups.Count; g++)
                 got.Groups[g].Lines.Should().Equal(expected.Groups[g].Lines, $"{r.Strategy.Name} {expected.Groups[g].Shape.Name}");
