@@ -48,6 +48,12 @@ public abstract class StrategyDefinition
         return (StrategyDefinition)Activator.CreateInstance(type, source)!;
     }
 
+    /// <summary>
+    /// Whether the strategy's kernel starts each ray's read recording itself (a built-in one, with no counters of its
+    /// own), so the memory model records its reads through <see cref="Memory.StartedMemoryCounts{TCounts}"/> rather than <see cref="Memory.MemoryCounts{TCounts}"/>.
+    /// </summary>
+    internal abstract bool StartsRayRecording { get; }
+
     /// <summary>Traces the pixels [x0, x1) × [y0, y1) into the result buffers.</summary>
     internal abstract void TraceTile(in TileJob job, int x0, int y0, int x1, int y1);
 
@@ -63,6 +69,10 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         StrategyNameRules.ThrowIfInvalid(TStrategy.Name, source);
     }
 
+    private static readonly bool StartsRays = typeof(IStartsRayRecording).IsAssignableFrom(typeof(TStrategy));
+
+    internal override bool StartsRayRecording => StartsRays && ExtraCounters.Count == 0;
+
     internal override void TraceTile(in TileJob job, int x0, int y0, int x1, int y1)
     {
         // Choose the specialisation once per tile: inside it, branching and counting are compile-time constants.
@@ -76,6 +86,8 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         where TBranching : struct, IBranching
     {
         if (!job.CountWork) Tracer.TraceTile<TStrategy, TBranching, NoCounters>(job, x0, y0, x1, y1);
+        // The built-in strategies, which declare no counters of their own, start their rays' recording themselves.
+        else if (job.RecordsReads && StartsRays && !extras) Tracer.TraceTile<TStrategy, TBranching, StartedMemoryCounts<CostCounts>>(job, x0, y0, x1, y1);
         else if (job.RecordsReads && extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCountsWithExtras>>(job, x0, y0, x1, y1);
         else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts>>(job, x0, y0, x1, y1);
         else if (extras) Tracer.TraceTile<TStrategy, TBranching, CostCountsWithExtras>(job, x0, y0, x1, y1);

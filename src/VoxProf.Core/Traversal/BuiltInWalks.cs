@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
@@ -5,7 +6,7 @@ using VoxProf.Core.Trees;
 namespace VoxProf.Core.Traversal;
 
 /// <summary>The stack walk stepping by a Williams et al. slab test of the current cell.</summary>
-public struct SlabStrategy : IStrategy
+public struct SlabStrategy : IStrategy, IStartsRayRecording
 {
     public static string Name => "slab";
     public static string Description => "stack walk; each step inside a node is a Williams et al. slab test of the current cell";
@@ -17,7 +18,7 @@ public struct SlabStrategy : IStrategy
 }
 
 /// <summary>The stack walk stepping by DDA inside a node.</summary>
-public struct DdaStrategy : IStrategy
+public struct DdaStrategy : IStrategy, IStartsRayRecording
 {
     public static string Name => "dda";
     public static string Description => "stack walk; slab tests between levels, DDA steps inside a node";
@@ -29,7 +30,7 @@ public struct DdaStrategy : IStrategy
 }
 
 /// <summary>The stack walk stepping by DDA and culling with directional occupancy masks.</summary>
-public struct DdaMaskStrategy : IStrategy
+public struct DdaMaskStrategy : IStrategy, IStartsRayRecording
 {
     public static string Name => "dda-mask";
     public static string Description => "dda plus directional occupancy-mask culling";

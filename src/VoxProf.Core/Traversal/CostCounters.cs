@@ -32,8 +32,10 @@ internal interface ICountFlush
     /// Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (counters indexed by
     /// <see cref="Counter"/>, then extra counters), and with the memory model on closes the pixel's reads in
     /// <paramref name="reads"/>, the tile's recorder, which the tracer looks up once per tile rather than per ray.
+    /// False, having written nothing, when the ray must be traced again (<see cref="StartedMemoryCounts{TCounts}"/>);
+    /// every other counter type returns a constant true, which the JIT folds.
     /// </summary>
-    void Flush(Span<uint> tile, int slot, TileReads? reads);
+    bool Flush(Span<uint> tile, int slot, TileReads? reads);
 }
 
 /// <summary>Counting compiled out.</summary>
@@ -48,7 +50,7 @@ public struct NoCounters : ICostCounters, ICountFlush
     public void MaskCulled(int cells) { }
     public void MaskSkipped() { }
     public void Extra(int index, uint amount) { }
-    readonly void ICountFlush.Flush(Span<uint> tile, int slot, TileReads? reads) { }
+    readonly bool ICountFlush.Flush(Span<uint> tile, int slot, TileReads? reads) => true;
 }
 
 /// <summary>
@@ -79,7 +81,7 @@ public struct CostCounts : ICostCounters, ICountFlush
 
     /// <summary>Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (indexed by <see cref="Counter"/>).</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    public readonly void Flush(Span<uint> tile, int slot, TileReads? reads)
+    public readonly bool Flush(Span<uint> tile, int slot, TileReads? reads)
     {
         tile[TileCounts.Index((int)Counter.Iterations, slot)] = Iterations;
         tile[TileCounts.Index((int)Counter.CellSteps, slot)] = CellSteps;
@@ -89,6 +91,7 @@ public struct CostCounts : ICostCounters, ICountFlush
         tile[TileCounts.Index((int)Counter.NodeFetches, slot)] = NodeFetches;
         tile[TileCounts.Index((int)Counter.MaskCulledCells, slot)] = MaskCulledCells;
         tile[TileCounts.Index((int)Counter.MaskSkippedNodes, slot)] = MaskSkippedNodes;
+        return true;
     }
 }
 
@@ -129,10 +132,11 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
     [MethodImpl(MethodImplOptions.AggressiveInlining)] public void Extra(int index, uint amount) => Extras[index] += amount;
 
     /// <summary>Writes the built-in counts, then the extra counters after <see cref="CounterNames.Count"/>.</summary>
-    public readonly void Flush(Span<uint> tile, int slot, TileReads? reads)
+    public readonly bool Flush(Span<uint> tile, int slot, TileReads? reads)
     {
         Counts.Flush(tile, slot, null);
         Extras.Flush(tile, slot);
+        return true;
     }
 }
 
@@ -143,10 +147,9 @@ public struct CostCountsWithExtras : ICostCounters, ICountFlush
 /// inline is what keeps it in memory (the `kernels` benchmark, docs/performance.md: dda 0.50 → 0.45 s, hdda 0.46 →
 /// 0.43 s on the raw terrain scene, one thread).
 /// </summary>
+/// <remarks>The call is made once per ray anyway, so it also starts the ray's read recording (<see cref="RayRecording"/>).</remarks>
 internal static class CountsInMemory
 {
     [MethodImpl(MethodImplOptions.NoInlining)]
-    public static void Keep<T>(ref T counters) where T : struct
-    {
-    }
+    public static void Keep<T>(ref T counters) where T : struct => RayRecording.Start(ref counters);
 }

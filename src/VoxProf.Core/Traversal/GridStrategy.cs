@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
@@ -9,7 +10,7 @@ namespace VoxProf.Core.Traversal;
 /// finest voxels, with a full tree lookup at every voxel. Slow on purpose: it defines the correct answer, so it starts
 /// every ray at the eye, never where the prepass would let it.
 /// </summary>
-public struct GridStrategy : IStrategy
+public struct GridStrategy : IStrategy, IStartsRayRecording
 {
     public static string Name => "grid";
     public static string Description => "Amanatides & Woo 3D DDA over the finest voxels, with a tree lookup per voxel";
@@ -21,6 +22,7 @@ public struct GridStrategy : IStrategy
     {
         // Count in a local the JIT can keep in registers; the tracer flushes it once per ray.
         TCounters counters = default;
+        RayRecording.Start(ref counters);
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X, start.Y, start.Z, 0);

@@ -1,3 +1,4 @@
+using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Trees;
@@ -11,7 +12,7 @@ namespace VoxProf.Core.Traversal;
 /// names the neighbouring coarse cell. No slab test after the volume clip, and no DDA state is saved per level: only
 /// the nodes on the path, which a kernel keeps anyway.
 /// </summary>
-public struct HddaStrategy : IStrategy
+public struct HddaStrategy : IStrategy, IStartsRayRecording
 {
     public static string Name => "hdda";
     public static string Description => "Museth's hierarchical DDA: one DDA state that changes level";

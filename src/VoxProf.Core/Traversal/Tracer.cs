@@ -186,7 +186,10 @@ public static class Tracer
                 // A type test on a struct type parameter is folded by the JIT: the timing build keeps none of this.
                 if (typeof(TCounters) != typeof(NoCounters))
                 {
-                    counters.Flush(tile, slot, reads);
+                    // A ray whose reads outgrew the tile's recorder is traced again into a larger one
+                    // (StartedMemoryCounts); for other counters Flush is a constant true and this folds away.
+                    if (!counters.Flush(tile, slot, reads))
+                        TraceAgain<TStrategy, TBranching, TCounters>(view, ray, tMin, path, ref hit, tile, slot, reads!);
                     if (prepass != null)
                         tile[TileCounts.Index((int)Counter.PrepassSkip, slot)] = SkippedVoxels(view, ray, tMin);
                 }
@@ -197,6 +200,21 @@ public static class Tracer
             prepass?.FillShares(tile, x0, y0, x1, y1);
             TileCounts.CopyTo(tile, buffers, width, x0, y0, x1, y1);
         }
+    }
+
+    // Out of the tile loop, whose code it would otherwise crowd: a ray retraced makes the same reads, counts and hit.
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    private static void TraceAgain<TStrategy, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path,
+        ref PixelHit hit, Span<uint> tile, int slot, TileReads reads)
+        where TStrategy : struct, IStrategy
+        where TBranching : struct, IBranching
+        where TCounters : struct, ICostCounters, ICountFlush
+    {
+        do
+        {
+            reads.Grow();
+        }
+        while (!TStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit).Flush(tile, slot, reads));
     }
 
     /// <summary>Whole voxels between where the ray would have entered the volume and where the prepass let it start.</summary>

@@ -103,14 +103,55 @@ public sealed class ReadRecordingTests
         return ReadList.Reads;
     }
 
+    private static Scene Floor()
+    {
+        var extent = new Box3i(0, 0, 0, 64, 64, 64);
+        return new Scene(64, 64, 64, [new BoxLayer(LayerOp.Add, 1, new Box3i(0, 0, 0, 64, 3, 64), extent),
+            new SphereLayer(LayerOp.Add, 2, 40, 10, 30, 8, extent)], [], "floor");
+    }
+
+    /// <summary>grid's kernel as a strategy of the test's own, unmarked, so recorded as a strategy file's reads are.</summary>
+    private struct GridAsFile : IStrategy
+    {
+        public static string Name => "grid-as-file";
+        public static string Description => "grid's kernel, recorded with a room test at every read";
+        public static bool UsesPrepass => false;
+
+        public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
+            where TBranching : struct, IBranching
+            where TCounters : struct, ICostCounters =>
+            GridStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);
+    }
+
+    [Fact]
+    public void A_built_in_kernel_and_a_files_kernel_record_the_same_reads_though_one_is_traced_again_as_the_buffer_grows()
+    {
+        // Built-in grid records with no room test (a ray that fills the buffer is traced again into a larger one); the
+        // same kernel as an unmarked strategy records with a room test at every read, growing the buffer under the ray.
+        Scene scene = Floor();
+        BrickTree tree = TreeBuilder.Build(scene, 4, threads: 1);
+        StrategyDefinition asFile = StrategyDefinition.Of<GridAsFile>();
+        BuiltInStrategies.Grid.StartsRayRecording.Should().BeTrue();
+        asFile.StartsRayRecording.Should().BeFalse();
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, Camera, 36, 20, [BuiltInStrategies.Grid, asFile],
+            Threads: 2, Memory: MemorySettings.Default));
+        StrategyResult builtIn = run.Results[0], file = run.Results[1];
+        for (int c = 0; c < CounterNames.Count; c++)
+            file.Counters[c].Should().Equal(builtIn.Counters[c], CounterNames.All[c].Name());
+        file.Counters[(int)Counter.CacheLines].Should().Contain(n => n > 0);
+        (file.Memory!.Accesses, file.Memory.Hits).Should().Be((builtIn.Memory!.Accesses, builtIn.Memory.Hits));
+        for (int g = 0; g < builtIn.Memory.Groups.Count; g++)
+            file.Memory.Groups[g].Lines.Should().Equal(builtIn.Memory.Groups[g].Lines);
+        file.Hits.Should().Equal(builtIn.Hits);
+    }
+
     [Fact]
     public void Each_pixels_cache_lines_are_the_distinct_lines_of_the_reads_its_kernel_makes()
     {
         // Grid's rays read hundreds of nodes each here, so a 16×16 tile fills the recorder's first buffer of 4,096
-        // reads in the middle of a ray: the buffer grows under it, and every read must still land once, in order.
-        var extent = new Box3i(0, 0, 0, 64, 64, 64);
-        var scene = new Scene(64, 64, 64, [new BoxLayer(LayerOp.Add, 1, new Box3i(0, 0, 0, 64, 3, 64), extent),
-            new SphereLayer(LayerOp.Add, 2, 40, 10, 30, 8, extent)], [], "floor");
+        // reads in the middle of a ray: the ray is traced again into a larger buffer, and every read must land once,
+        // in order.
+        Scene scene = Floor();
         BrickTree tree = TreeBuilder.Build(scene, 4, threads: 1);
         const int W = 36, H = 20;
         TraceRun run = Tracer.Run(new TraceRequest(scene, tree, Camera, W, H, [BuiltInStrategies.Grid, BuiltInStrategies.DdaMask],
