@@ -30,6 +30,8 @@ public struct HddaStrategy : IStrategy, IStartsRayRecording
 
         // One DDA state at the root's level, and the root's record
         NodeRef node = view.Fetch(0, ref counters);
+        // The node's occupancy held in a local while the walk is in it (NodeBits says why)
+        var bits = new NodeBits<TBranching>(view, node);
         int depth = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -40,7 +42,7 @@ public struct HddaStrategy : IStrategy, IStartsRayRecording
         {
             counters.Iteration();
             int bit = dda.CellBit<TBranching>();
-            if (view.IsOccupied<TBranching>(node, bit))
+            if (bits.IsOccupied(view, node, bit))
             {
                 if (view.IsSolid<TBranching>(node, bit))
                 {
@@ -51,6 +53,7 @@ public struct HddaStrategy : IStrategy, IStartsRayRecording
                 // Descend: refine the cell by the crossing order at the walk's key, keep t
                 path[depth++] = node;
                 node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
+                bits = new(view, node);
                 counters.Descent();
                 if (atStart)
                     dda.DescendToStart<TBranching>(ray, start.X, start.Y, start.Z);
@@ -77,6 +80,7 @@ public struct HddaStrategy : IStrategy, IStartsRayRecording
                 dda.Coarsen<TBranching>();
             }
             while (dda.LeftNode<TBranching>(ray));
+            bits = new(view, node);
             dda.Restart(ray);
         }
     }
