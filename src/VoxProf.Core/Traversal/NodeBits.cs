@@ -6,13 +6,13 @@ namespace VoxProf.Core.Traversal;
 /// <summary>
 /// The current node's occupancy held in a local while a built-in kernel walks its cells, as the modelled algorithm
 /// keeps the record it read. For 2³ and 4³ nodes it is one 64-bit word the JIT keeps in a register, so a step tests a
-/// bit instead of reloading the node array through the view; 8³ nodes (512 bits) are asked through the view. The walks
-/// stepping by DDA hold it (the `kernels` benchmark: together with the cell bit carried between iterations, dda-mask
-/// 0.38 → 0.35 s). For `dda` the benchmark, whose tiered compilation recompiles the kernel with a profile, had found
-/// the extra live register costing more than the reload saved (0.35 s against 0.335 s), but the published command,
-/// which compiles each method once without one, traced faster with it: one thread, raw terrain, fastest of 10, 0.246
-/// against 0.251 s with the memory model off and 0.257 against 0.269 s with it on; `hdda` (which holds it too) 0.237
-/// against 0.238–0.242 s and 0.251 against 0.255–0.256 s. The slab walk still reads the node.
+/// bit instead of reloading the node array through the view; 8³ nodes (512 bits) are asked through the view. Every
+/// built-in walk holds it (the `kernels` benchmark: together with the cell bit carried between iterations, dda-mask
+/// 0.38 → 0.35 s). For the unmasked walks that benchmark, whose tiered compilation recompiles the kernel with a
+/// profile, had found the extra live register costing more than the reload saved (dda 0.35 s against 0.335 s), but the
+/// published command, which compiles each method once without one, traced faster with it (one thread, raw terrain,
+/// fastest of 8–10 runs, memory model off / on): dda 0.246 / 0.257 s against 0.251 / 0.269 s; hdda 0.237 / 0.251 s
+/// against 0.238–0.242 / 0.255–0.256 s; slab 0.280 / 0.294–0.296 s against 0.287–0.292 / 0.301–0.303 s.
 /// </summary>
 internal readonly struct NodeBits<TBranching> where TBranching : struct, IBranching
 {

@@ -44,9 +44,8 @@ public static class StackWalk
         // Enter the root at the start point. The current cell's bit is carried from the step that reached it to the
         // iteration that tests it, so a masked step computes it once, not twice.
         NodeRef node = view.Fetch(0, ref counters);
-        // The walks stepping by DDA hold the node's occupancy in a local (NodeBits); the slab walk reads the node.
-        bool holdsBits = TMode.CullsWithMask || TMode.StepsWithDda;
-        NodeBits<TBranching> bits = holdsBits ? new(view, node) : default;
+        // The node's occupancy held in a local while the walk is in it (NodeBits says why)
+        var bits = new NodeBits<TBranching>(view, node);
         int sp = 0;
         int rootShift = view.RootShift;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X >> rootShift, start.Y >> rootShift, start.Z >> rootShift, rootShift);
@@ -61,7 +60,7 @@ public static class StackWalk
             counters.Iteration();
             // Whether the walk leaves the node through a face (else the mask left nothing reachable in it)
             bool leftNode;
-            if (holdsBits ? bits.IsOccupied(view, node, bit) : view.IsOccupied<TBranching>(node, bit))
+            if (bits.IsOccupied(view, node, bit))
             {
                 // Solid cell: the hit voxel is where the ray enters the cell
                 if (view.IsSolid<TBranching>(node, bit))
@@ -75,8 +74,7 @@ public static class StackWalk
                 // planes are behind the walk and the test's near time is the walk's own t: nothing to compute.
                 path[sp++] = node;
                 node = view.Fetch(view.Child<TBranching>(node, bit), ref counters);
-                if (holdsBits)
-                    bits = new(view, node);
+                bits = new(view, node);
                 counters.Descent();
                 counters.SlabTest();
                 if (atStart)
@@ -119,8 +117,7 @@ public static class StackWalk
                 if (sp == 0)
                     return counters;
                 node = path[--sp];
-                if (holdsBits)
-                    bits = new(view, node);
+                bits = new(view, node);
                 counters.Ascent();
                 dda.Coarsen<TBranching>();
                 if (TMode.CullsWithMask && !leftNode)
