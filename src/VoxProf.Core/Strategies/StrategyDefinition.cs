@@ -49,6 +49,20 @@ public abstract class StrategyDefinition
     }
 
     /// <summary>
+    /// Built-in counters the strategy's kernel never counts, which its code shows (the built-ins declare them; a
+    /// strategy file's list is empty). Their per-pixel buffers are the trace's one buffer of zeros
+    /// (<see cref="Traversal.ResultBuffers"/>): memory a trace neither allocates nor summarises.
+    /// </summary>
+    internal IReadOnlyList<Counter> NeverCounts { get; private set; } = [];
+
+    /// <summary>Declares <see cref="NeverCounts"/>; for the built-in definitions only.</summary>
+    internal StrategyDefinition NeverCounting(params Counter[] counters)
+    {
+        NeverCounts = counters;
+        return this;
+    }
+
+    /// <summary>
     /// Whether the strategy's kernel starts each ray's read recording itself (a built-in one, with no counters of its
     /// own), so the memory model records its reads through <see cref="Memory.StartedMemoryCounts{TCounts}"/> rather than <see cref="Memory.MemoryCounts{TCounts}"/>.
     /// </summary>

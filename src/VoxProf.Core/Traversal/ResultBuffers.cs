@@ -18,8 +18,9 @@ internal sealed class ResultBuffers
 
     /// <param name="counters">Per strategy, the number of its counters.</param>
     /// <param name="produces">Whether strategy s can make counter c non-zero in this trace. The counters it cannot
-    /// (the prepass's three without the prepass, the cache lines without the memory model) share one buffer of zeros
-    /// per trace: up to 16 of a strategy's 72 bytes a pixel, memory this virtual machine is slow to hand out
+    /// (the prepass's three without the prepass, the cache lines without the memory model, and those a built-in
+    /// strategy never counts, <see cref="Strategies.StrategyDefinition.NeverCounts"/>) share one buffer of zeros per
+    /// trace: up to 32 of a strategy's 72 bytes a pixel, memory this virtual machine is slow to hand out
     /// (docs/performance.md). Nothing writes to it: a tile copies only the counters it made non-zero.</param>
     public static ResultBuffers[] Allocate(IReadOnlyList<int> counters, Func<int, int, bool> produces, int pixels, ParallelOptions options)
     {

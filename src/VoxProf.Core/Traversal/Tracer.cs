@@ -80,7 +80,7 @@ public static class Tracer
             {
                 Counter.PrepassIterations or Counter.PrepassNodeFetches or Counter.PrepassSkip => prepass != null && request.Strategies[s].UsesPrepass,
                 Counter.CacheLines => modelsMemory,
-                _ => true,
+                var counter => !request.Strategies[s].NeverCounts.Contains(counter),
             },
             request.Width * request.Height, options);
         long pixelsDone = 0;

@@ -1,6 +1,7 @@
 using System.Numerics;
 using FluentAssertions;
 using VoxProf.Core.Memory;
+using VoxProf.Core.Rays;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Statistics;
 using VoxProf.Core.Strategies;
@@ -38,6 +39,51 @@ public sealed class ResultBufferTests
             Measures.TotalIterations.Values(r).Should().BeSameAs(r.Counters[(int)Counter.Iterations]);
             Measures.TotalNodeFetches.Values(r).Should().BeSameAs(r.Counters[(int)Counter.NodeFetches]);
         }
+    }
+
+    [Fact]
+    public void The_counters_a_built_in_strategy_declares_it_never_counts_are_zero_on_every_ray_and_share_the_zero_buffer()
+    {
+        Scene scene = TestScenes.Random(5, 40);
+        BrickTree tree = TreeBuilder.Build(scene, 4, threads: 1);
+        // The memory model on: the shared zeros are then not the cache lines' buffer, so sharing is the declaration's.
+        TraceRun run = Tracer.Run(new TraceRequest(scene, tree, Camera, 40, 24, BuiltInStrategies.All, Threads: 2,
+            Memory: MemorySettings.Default));
+        uint[] zeros = run.Results[0].Counters[(int)Counter.PrepassSkip];
+        var camera = new Camera(Camera, 40, 24);
+        var view = new TreeView(tree);
+        BuiltInStrategies.All.Sum(d => d.NeverCounts.Count).Should().Be(4 + 2 * 3, "grid never descends, ascends or culls; slab, dda and hdda never cull");
+        foreach (StrategyResult r in run.Results)
+        {
+            foreach (Counter c in r.Strategy.NeverCounts)
+                r.Counters[(int)c].Should().BeSameAs(zeros, $"{r.Strategy.Name} declares it never counts {c}");
+            // The declaration held to the kernel itself, ray by ray, with counters of its own.
+            for (int p = 0; p < 40 * 24; p++)
+            {
+                CostCounts counts = KernelCounts(r.Strategy.Name, view, camera.Ray(p % 40, p / 40));
+                var tile = new uint[CounterNames.Count * TileCounts.Slots];
+                counts.Flush(tile, 0, null);
+                foreach (Counter c in r.Strategy.NeverCounts)
+                    tile[TileCounts.Index((int)c, 0)].Should().Be(0u, $"{r.Strategy.Name} pixel {p} {c}");
+                tile[TileCounts.Index((int)Counter.Iterations, 0)].Should().Be(r.Counters[(int)Counter.Iterations][p]);
+            }
+        }
+        run.Results.Single(r => r.Strategy.Name == "dda-mask").Counters[(int)Counter.MaskCulledCells].Should().NotBeSameAs(zeros)
+            .And.Contain(v => v > 0);
+    }
+
+    private static CostCounts KernelCounts(string strategy, in TreeView view, in RaySetup ray)
+    {
+        Span<NodeRef> path = stackalloc NodeRef[view.Depth + 1];
+        var hit = default(PixelHit);
+        return strategy switch
+        {
+            "grid" => GridStrategy.Trace<Branching4, CostCounts>(view, ray, 0, path, ref hit),
+            "slab" => SlabStrategy.Trace<Branching4, CostCounts>(view, ray, 0, path, ref hit),
+            "dda" => DdaStrategy.Trace<Branching4, CostCounts>(view, ray, 0, path, ref hit),
+            "dda-mask" => DdaMaskStrategy.Trace<Branching4, CostCounts>(view, ray, 0, path, ref hit),
+            _ => HddaStrategy.Trace<Branching4, CostCounts>(view, ray, 0, path, ref hit),
+        };
     }
 
     [Fact]
