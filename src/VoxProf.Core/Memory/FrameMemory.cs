@@ -49,7 +49,7 @@ public sealed partial class FrameMemory
     }
 
     /// <summary>
-    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts{TCounts}"/> until
+    /// A recorder for the tile [x0, x1) × [y0, y1), attached to this thread's <see cref="MemoryCounts{TCounts, TRoom}"/> until
     /// <see cref="EndTile"/>, which must run on the same thread.
     /// </summary>
     public TileReads BeginTile(int x0, int y0, int x1, int y1)

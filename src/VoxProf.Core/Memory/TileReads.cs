@@ -12,7 +12,7 @@ namespace VoxProf.Core.Memory;
 /// </summary>
 public sealed unsafe class TileReads
 {
-    // Pinned, so a ray's counters can write its reads through a pointer (MemoryCounts, StartedMemoryCounts); a new,
+    // Pinned, so a ray's counters can write its reads through a pointer (MemoryCounts); a new,
     // larger array replaces it when a tile reads more (MakeRoom, Grow).
     private int[] _reads;
     private int[] _pixelEnds = new int[Tracer.TileSize * Tracer.TileSize];
@@ -72,7 +72,7 @@ public sealed unsafe class TileReads
     }
 
     /// <summary>
-    /// Where the current pixel's reads start, and the buffer's last slot (<see cref="StartedMemoryCounts{TCounts}"/>:
+    /// Where the current pixel's reads start, and the buffer's last slot (<see cref="BoundedRoom"/>:
     /// a ray's reads past it all land there, and the ray is traced again after <see cref="Grow()"/>).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]

@@ -64,7 +64,7 @@ public abstract class StrategyDefinition
 
     /// <summary>
     /// Whether the strategy's kernel starts each ray's read recording itself (a built-in one, with no counters of its
-    /// own), so the memory model records its reads through <see cref="Memory.StartedMemoryCounts{TCounts}"/> rather than <see cref="Memory.MemoryCounts{TCounts}"/>.
+    /// own), so the memory model records its reads through <see cref="Memory.BoundedRoom"/> rather than <see cref="Memory.TestedRoom"/>.
     /// </summary>
     internal abstract bool StartsRayRecording { get; }
 
@@ -101,9 +101,9 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
     {
         if (!job.CountWork) Tracer.TraceTile<TStrategy, TBranching, NoCounters>(job, x0, y0, x1, y1);
         // The built-in strategies, which declare no counters of their own, start their rays' recording themselves.
-        else if (job.RecordsReads && StartsRays && !extras) Tracer.TraceTile<TStrategy, TBranching, StartedMemoryCounts<CostCounts>>(job, x0, y0, x1, y1);
-        else if (job.RecordsReads && extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCountsWithExtras>>(job, x0, y0, x1, y1);
-        else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts>>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads && StartsRays && !extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts, BoundedRoom>>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads && extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCountsWithExtras, TestedRoom>>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts, TestedRoom>>(job, x0, y0, x1, y1);
         else if (extras) Tracer.TraceTile<TStrategy, TBranching, CostCountsWithExtras>(job, x0, y0, x1, y1);
         else Tracer.TraceTile<TStrategy, TBranching, CostCounts>(job, x0, y0, x1, y1);
     }

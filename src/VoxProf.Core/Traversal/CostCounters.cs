@@ -32,7 +32,7 @@ internal interface ICountFlush
     /// Writes this ray's counts into slot <paramref name="slot"/> of its tile's counts (counters indexed by
     /// <see cref="Counter"/>, then extra counters), and with the memory model on closes the pixel's reads in
     /// <paramref name="reads"/>, the tile's recorder, which the tracer looks up once per tile rather than per ray.
-    /// False, having written nothing, when the ray must be traced again (<see cref="StartedMemoryCounts{TCounts}"/>);
+    /// False, having written nothing, when the ray must be traced again (<see cref="BoundedRoom"/>);
     /// every other counter type returns a constant true, which the JIT folds.
     /// </summary>
     bool Flush(Span<uint> tile, int slot, TileReads? reads);

@@ -187,7 +187,7 @@ public static class Tracer
                 if (typeof(TCounters) != typeof(NoCounters))
                 {
                     // A ray whose reads outgrew the tile's recorder is traced again into a larger one
-                    // (StartedMemoryCounts); for other counters Flush is a constant true and this folds away.
+                    // (BoundedRoom); for other counters Flush is a constant true and this folds away.
                     if (!counters.Flush(tile, slot, reads))
                         TraceAgain<TStrategy, TBranching, TCounters>(view, ray, tMin, path, ref hit, tile, slot, reads!);
                     if (prepass != null)
@@ -247,6 +247,6 @@ public static class Tracer
 }
 
 /// <summary>What every tile of one strategy's trace shares: the tree, the rays, the prepass and the result buffers.</summary>
-/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts{TCounts}"/>, which records each node read.</param>
+/// <param name="RecordsReads">The memory model is on: count with <see cref="MemoryCounts{TCounts, TRoom}"/>, which records each node read.</param>
 internal readonly record struct TileJob(TreeView View, Camera Camera, PrepassMap? Prepass, uint[][] Counters, PixelHit[] Hits, bool CountWork,
     bool RecordsReads);

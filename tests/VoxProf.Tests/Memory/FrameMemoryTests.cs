@@ -39,7 +39,7 @@ public sealed class FrameMemoryTests
                 {
                     for (int x = x0; x < x1; x++)
                     {
-                        MemoryCounts<CostCounts> counts = default;
+                        MemoryCounts<CostCounts, TestedRoom> counts = default;
                         foreach (int node in f.Reads[y * f.Width + x])
                             counts.NodeFetch(node);
                         counts.Flush(tile, (y - y0) * Tracer.TileSize + (x - x0), reads);

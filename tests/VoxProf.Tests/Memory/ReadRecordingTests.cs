@@ -32,7 +32,7 @@ public sealed class ReadRecordingTests
         {
             for (int p = 0; p < expected.Length; p++)
             {
-                MemoryCounts<CostCounts> counts = default;
+                MemoryCounts<CostCounts, TestedRoom> counts = default;
                 foreach (int node in expected[p])
                     counts.NodeFetch(node);
                 counts.Flush(tile, p, reads);
@@ -61,7 +61,7 @@ public sealed class ReadRecordingTests
             foreach (int first in new[] { 10, 20 })
             {
                 reads.Begin(0, 0, 1, 1);
-                MemoryCounts<CostCounts> counts = default;
+                MemoryCounts<CostCounts, TestedRoom> counts = default;
                 counts.NodeFetch(first);
                 counts.NodeFetch(first + 1);
                 counts.Flush(tile, 0, reads);
