@@ -17,8 +17,8 @@ public sealed unsafe class TileReads
     private int[] _reads;
     private int[] _pixelEnds = new int[Tracer.TileSize * Tracer.TileSize];
 
-    // The buffer's start, where the current pixel's reads start (after the finished pixels'), and its last slot.
-    private int* _base, _cursor, _last;
+    // The buffer's start and its last slot.
+    private int* _base, _last;
 
     public TileReads() => Replace(GC.AllocateUninitializedArray<int>(4096, pinned: true));
 
@@ -55,7 +55,6 @@ public sealed unsafe class TileReads
         Scratch.EnsurePixels(pixels);
         Pixels = 0;
         Count = 0;
-        _cursor = _base;
     }
 
     /// <summary>
@@ -78,7 +77,7 @@ public sealed unsafe class TileReads
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     internal void Room(out int* next, out int* last)
     {
-        next = _cursor;
+        next = _base + Count;
         last = _last;
     }
 
@@ -98,7 +97,6 @@ public sealed unsafe class TileReads
         _reads = reads;
         // Pinned arrays never move, so their address holds for as long as the field keeps them.
         _base = (int*)Unsafe.AsPointer(ref MemoryMarshal.GetArrayDataReference(reads));
-        _cursor = _base + Count;
         _last = _base + reads.Length - 1;
     }
 
@@ -110,10 +108,7 @@ public sealed unsafe class TileReads
     internal void EndPixel(int* next)
     {
         if (next != null)
-        {
-            _cursor = next;
             Count = (int)(next - _base);
-        }
         _pixelEnds[Pixels++] = Count;
     }
 

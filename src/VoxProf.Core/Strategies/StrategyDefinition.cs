@@ -83,9 +83,11 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         StrategyNameRules.ThrowIfInvalid(TStrategy.Name, source);
     }
 
-    private static readonly bool StartsRays = typeof(IStartsRayRecording).IsAssignableFrom(typeof(TStrategy));
+    // A built-in strategy, which declares no counters of its own, starts its rays' recording itself.
+    private static readonly bool StartsRays =
+        typeof(IStartsRayRecording).IsAssignableFrom(typeof(TStrategy)) && TStrategy.ExtraCounters.Count == 0;
 
-    internal override bool StartsRayRecording => StartsRays && ExtraCounters.Count == 0;
+    internal override bool StartsRayRecording => StartsRays;
 
     internal override void TraceTile(in TileJob job, int x0, int y0, int x1, int y1)
     {
@@ -100,8 +102,7 @@ internal sealed class StrategyDefinition<TStrategy> : StrategyDefinition where T
         where TBranching : struct, IBranching
     {
         if (!job.CountWork) Tracer.TraceTile<TStrategy, TBranching, NoCounters>(job, x0, y0, x1, y1);
-        // The built-in strategies, which declare no counters of their own, start their rays' recording themselves.
-        else if (job.RecordsReads && StartsRays && !extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts, BoundedRoom>>(job, x0, y0, x1, y1);
+        else if (job.RecordsReads && StartsRays) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts, BoundedRoom>>(job, x0, y0, x1, y1);
         else if (job.RecordsReads && extras) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCountsWithExtras, TestedRoom>>(job, x0, y0, x1, y1);
         else if (job.RecordsReads) Tracer.TraceTile<TStrategy, TBranching, MemoryCounts<CostCounts, TestedRoom>>(job, x0, y0, x1, y1);
         else if (extras) Tracer.TraceTile<TStrategy, TBranching, CostCountsWithExtras>(job, x0, y0, x1, y1);
