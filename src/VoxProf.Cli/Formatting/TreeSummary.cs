@@ -2,18 +2,20 @@ using System.Globalization;
 using System.Numerics;
 using System.Text;
 using System.Text.Json;
+using System.Text.Json.Serialization;
 using VoxProf.Core.Scenes;
 using VoxProf.Core.Trees;
 
 namespace VoxProf.Cli.Formatting;
 
 /// <summary>What <c>voxprof inspect</c> prints about a scene and its built tree, as text or JSON.</summary>
-internal static class TreeSummary
+internal static partial class TreeSummary
 {
     private static readonly JsonSerializerOptions JsonOptions = new()
     {
         PropertyNamingPolicy = JsonNamingPolicy.CamelCase,
         WriteIndented = true,
+        TypeInfoResolver = SummaryJson.Default,
     };
 
     /// <param name="census">One tally per layer of <paramref name="scene"/>, in order.</param>
@@ -102,4 +104,8 @@ internal static class TreeSummary
         LevelSummary[] Levels, long Nodes, long SolidCells, long SolidVoxels, long TotalBytes,
         double BytesPerSolidVoxel, double BuildMilliseconds, double VoxeliseMilliseconds, double LoadMilliseconds,
         LayerSummary[] Layers, CameraSummary[] Cameras);
+
+    // Generated at build time, as the reports' contracts are (VoxProf.Reports' DocumentJson): no reflection per run.
+    [JsonSerializable(typeof(InspectSummary))]
+    private sealed partial class SummaryJson : JsonSerializerContext;
 }

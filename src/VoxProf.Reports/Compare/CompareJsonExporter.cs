@@ -13,6 +13,7 @@ public sealed class CompareJsonExporter : ICompareExporter
     {
         WriteIndented = true,
         Encoder = ReportJson.Options.Encoder,
+        TypeInfoResolver = DocumentJson.Default,
     };
 
     public string FileName => "compare.json";

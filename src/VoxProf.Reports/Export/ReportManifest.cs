@@ -25,6 +25,7 @@ public sealed record ReportManifest(string Tool, string Version, string RunId, I
         RespectRequiredConstructorParameters = true,
         RespectNullableAnnotations = true,
         DefaultIgnoreCondition = JsonIgnoreCondition.Never,
+        TypeInfoResolver = Model.DocumentJson.Default,
     };
 
     public byte[] ToJson() => JsonSerializer.SerializeToUtf8Bytes(this, Options);

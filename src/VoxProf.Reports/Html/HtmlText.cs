@@ -15,6 +15,7 @@ public static class HtmlText
     {
         // The default encoder escapes '<', '>' and '&', so no "</script>" can end the data block early.
         Encoder = JavaScriptEncoder.Default,
+        TypeInfoResolver = Model.DocumentJson.Default,
     };
 
     /// <summary>Text content or an attribute value (the encoder escapes quotes too).</summary>

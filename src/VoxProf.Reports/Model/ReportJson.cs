@@ -16,6 +16,7 @@ public static class ReportJson
         NewLine = "\n",
         // A file, never embedded in HTML unescaped: keep "×" and "'" readable instead of \u00D7 and \u0027.
         Encoder = JavaScriptEncoder.UnsafeRelaxedJsonEscaping,
+        TypeInfoResolver = DocumentJson.Default,
     };
 
     public static string Serialize(ReportDocument document) => JsonSerializer.Serialize(document, Options) + "\n";

@@ -1,0 +1,26 @@
+using System.Text.Json.Serialization;
+using VoxProf.Reports.Calibration;
+using VoxProf.Reports.Compare;
+using VoxProf.Reports.Export;
+using VoxProf.Reports.Html;
+using VoxProf.Reports.Shards;
+using VoxProf.Reports.Views;
+
+namespace VoxProf.Reports.Model;
+
+/// <summary>
+/// The JSON contracts of every document the reports write or read, generated at build time. Every serialiser option
+/// set of the reports resolves its types here and nowhere else, so a run builds no contract by reflection: that cost
+/// about 0.15 CPU s of each run (converters for every built-in type, emitted accessors), a tenth of a small trace
+/// (docs/performance.md, "JSON contracts generated at build time"). The options keep deciding names, indentation and
+/// escaping, so the files are byte for byte what reflection wrote. A document type missing here fails at its first
+/// use (NotSupportedException), in the tests that write and read it.
+/// </summary>
+[JsonSerializable(typeof(ReportDocument))]
+[JsonSerializable(typeof(RunDocument))]
+[JsonSerializable(typeof(TileShardDocument))]
+[JsonSerializable(typeof(CalibrationDocument))]
+[JsonSerializable(typeof(CompareDocument))]
+[JsonSerializable(typeof(ReportManifest))]
+[JsonSerializable(typeof(PixelBlock.PageData))]
+internal sealed partial class DocumentJson : JsonSerializerContext;
