@@ -1,4 +1,5 @@
 using System.Buffers;
+using System.Numerics;
 
 namespace VoxProf.Core.Statistics;
 
@@ -54,18 +55,45 @@ public static class SubgroupModel
             throw new ArgumentException("cost image size does not match width × height", nameof(costs));
         if (tileMax.Length != tilesX * tilesY)
             throw new ArgumentException("tileMax must hold TilesX × TilesY values", nameof(tileMax));
-        tileMax.Clear();
-        for (int y = 0; y < height; y++)
+        // A band of TileHeight rows is first reduced to one row of column maxima, a vector at a time, and that row
+        // then to the band's tiles: no division per pixel (a profile of a 72-view run had the per-pixel loop at 5% of
+        // its CPU). Maxima do not depend on the order they are taken in, so the result is the per-pixel loop's.
+        uint[] rented = ArrayPool<uint>.Shared.Rent(width);
+        try
         {
-            Span<uint> tileRow = tileMax.Slice(y / shape.TileHeight * tilesX, tilesX);
-            ReadOnlySpan<uint> row = costs.Slice(y * width, width);
-            for (int x = 0; x < width; x++)
+            Span<uint> band = rented.AsSpan(0, width);
+            for (int ty = 0; ty < tilesY; ty++)
             {
-                ref uint m = ref tileRow[x / shape.TileWidth];
-                if (row[x] > m)
-                    m = row[x];
+                int y0 = ty * shape.TileHeight, y1 = Math.Min(y0 + shape.TileHeight, height);
+                costs.Slice(y0 * width, width).CopyTo(band);
+                for (int y = y0 + 1; y < y1; y++)
+                    MaxInto(band, costs.Slice(y * width, width));
+                Span<uint> tileRow = tileMax.Slice(ty * tilesX, tilesX);
+                for (int tx = 0; tx < tilesX; tx++)
+                {
+                    uint m = 0;
+                    foreach (uint v in band.Slice(tx * shape.TileWidth, Math.Min(shape.TileWidth, width - tx * shape.TileWidth)))
+                        m = Math.Max(m, v);
+                    tileRow[tx] = m;
+                }
             }
         }
+        finally
+        {
+            ArrayPool<uint>.Shared.Return(rented);
+        }
+    }
+
+    private static void MaxInto(Span<uint> maxima, ReadOnlySpan<uint> row)
+    {
+        int i = 0;
+        if (Vector.IsHardwareAccelerated)
+        {
+            for (; i <= maxima.Length - Vector<uint>.Count; i += Vector<uint>.Count)
+                Vector.Max(new Vector<uint>(maxima[i..]), new Vector<uint>(row[i..])).CopyTo(maxima[i..]);
+        }
+        for (; i < maxima.Length; i++)
+            maxima[i] = Math.Max(maxima[i], row[i]);
     }
 
     /// <summary>Per-pixel image in which every pixel holds its tile's maximum, for a heatmap at image size.</summary>
@@ -76,10 +104,16 @@ public static class SubgroupModel
             throw new ArgumentException("pixel image size does not match width × height", nameof(pixels));
         for (int y = 0; y < height; y++)
         {
-            ReadOnlySpan<uint> tileRow = tileMax.Slice(y / shape.TileHeight * tilesX, tilesX);
             Span<uint> row = pixels.Slice(y * width, width);
-            for (int x = 0; x < width; x++)
-                row[x] = tileRow[x / shape.TileWidth];
+            // The rows of a band are alike: each after the first is a copy of the one above it.
+            if (y % shape.TileHeight != 0)
+            {
+                pixels.Slice((y - 1) * width, width).CopyTo(row);
+                continue;
+            }
+            ReadOnlySpan<uint> tileRow = tileMax.Slice(y / shape.TileHeight * tilesX, tilesX);
+            for (int tx = 0; tx < tilesX; tx++)
+                row.Slice(tx * shape.TileWidth, Math.Min(shape.TileWidth, width - tx * shape.TileWidth)).Fill(tileRow[tx]);
         }
     }
 

@@ -34,6 +34,11 @@ public class CounterSummaryTests
     {
         uint[] values = [uint.MaxValue, uint.MaxValue, 2];
         CounterSummary.Compute(values).Total.Should().Be(2L * uint.MaxValue + 2);
+        // Long enough for the vector sums, with a tail after them.
+        uint[] many = [.. Enumerable.Repeat(uint.MaxValue, 37), 5];
+        CounterSummary s = CounterSummary.Compute(many);
+        s.Total.Should().Be(37L * uint.MaxValue + 5);
+        s.Max.Should().Be(uint.MaxValue);
     }
 
     [Fact]

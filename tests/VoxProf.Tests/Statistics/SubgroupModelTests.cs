@@ -87,6 +87,35 @@ public class SubgroupModelTests
         pixels[4 * 10 + 8].Should().Be(3);
     }
 
+    // The tile maxima by their definition, pixel by pixel: tile (x / TileWidth, y / TileHeight). The model reduces a
+    // band of rows a vector at a time; sizes with partial tiles and rows shorter than a vector must agree too.
+    [Theory]
+    [InlineData(1, 1, 8, 4)]
+    [InlineData(7, 3, 8, 4)]
+    [InlineData(37, 13, 8, 4)]
+    [InlineData(64, 64, 8, 8)]
+    [InlineData(101, 29, 8, 8)]
+    [InlineData(23, 17, 3, 5)]
+    public void Tile_maxima_and_the_expanded_image_match_the_per_pixel_definition(int width, int height, int tileWidth, int tileHeight)
+    {
+        var random = new Random(width * 1000 + height);
+        uint[] costs = [.. Enumerable.Range(0, width * height).Select(_ => random.Next(4) == 0 ? (uint)random.Next() : (uint)random.Next(50))];
+        var shape = new SubgroupShape(tileWidth, tileHeight);
+        int tilesX = shape.TilesX(width);
+        uint[] expected = new uint[tilesX * shape.TilesY(height)];
+        for (int y = 0; y < height; y++)
+            for (int x = 0; x < width; x++)
+                expected[y / tileHeight * tilesX + x / tileWidth] = Math.Max(expected[y / tileHeight * tilesX + x / tileWidth], costs[y * width + x]);
+
+        uint[] tiles = Enumerable.Repeat(123u, expected.Length).ToArray();
+        SubgroupModel.TileMax(costs, width, height, shape, tiles);
+        uint[] pixels = new uint[costs.Length];
+        SubgroupModel.ExpandTiles(tiles, width, height, shape, pixels);
+
+        tiles.Should().Equal(expected);
+        pixels.Should().Equal(Enumerable.Range(0, costs.Length).Select(i => expected[i / width / tileHeight * tilesX + i % width / tileWidth]));
+    }
+
     [Fact]
     public void Shapes_are_named_by_their_lane_count()
     {
