@@ -26,13 +26,14 @@ public struct GridStrategy : IStrategy, IStartsRayRecording
         if (!RayStart.Clip(view, ray, tMin, ref counters, out RayStart start))
             return counters;
         var dda = DdaState.Start(ray, start.T, start.FaceAxis, start.X, start.Y, start.Z, 0);
+        var last = default(LastLookup);
 
         while (true)
         {
             counters.Iteration();
 
-            // Look the voxel up from the root
-            byte material = view.Lookup<TBranching, TCounters>(dda.X, dda.Y, dda.Z, ref counters);
+            // Look the voxel up from the root (counted as such even where the last walk's path is reused)
+            byte material = view.LookupAgain<TBranching, TCounters>(dda.X, dda.Y, dda.Z, path, ref last, ref counters);
             if (material != 0)
             {
                 dda.SetHit(ref hit, ray, material);

@@ -206,6 +206,45 @@ public readonly struct TreeView
     internal ulong ReachInTable<TBranching>(int octant, int bit) where TBranching : struct, IBranching =>
         Unsafe.Add(ref MemoryMarshal.GetArrayDataReference(_directionMasks), (nint)(uint)((octant << (3 * TBranching.Log2N)) + bit));
 
+    /// <summary>
+    /// <see cref="Lookup{TBranching, TCounters}"/> for the voxels of one ray in turn: the walk from the root is
+    /// repeated only when the voxel leaves the cell the last walk ended in. A voxel inside that cell has the same cell
+    /// at every coarser level too, so a walk would read the same nodes in the same order and end the same way; those
+    /// reads are counted (and recorded) again from <paramref name="path"/>, exactly as the walk would count them.
+    /// grid's rays cross empty space a cell of hundreds of voxels at a time, one voxel per step.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal byte LookupAgain<TBranching, TCounters>(int x, int y, int z, Span<NodeRef> path, ref LastLookup last, ref TCounters counters)
+        where TBranching : struct, IBranching
+        where TCounters : struct, ICostCounters
+    {
+        if (last.Nodes != 0 && ((x >> last.Shift) ^ last.CellX | (y >> last.Shift) ^ last.CellY | (z >> last.Shift) ^ last.CellZ) == 0)
+        {
+            for (int i = 0; i < last.Nodes; i++)
+                counters.NodeFetch(path[i].Index);
+            return last.Material;
+        }
+        var node = default(NodeRef);
+        int shift = RootShift;
+        for (int level = 0; ; level++)
+        {
+            counters.NodeFetch(node.Index);
+            path[level] = node;
+            int bit = NodeCells<TBranching>.BitOf(x >> shift, y >> shift, z >> shift);
+            byte material = 0;
+            if (IsSolid<TBranching>(node, bit))
+                material = SolidMaterial<TBranching>(node, bit);
+            else if (IsOccupied<TBranching>(node, bit))
+            {
+                node = new NodeRef(Child<TBranching>(node, bit));
+                shift -= TBranching.Log2N;
+                continue;
+            }
+            last = new LastLookup(level + 1, shift, x >> shift, y >> shift, z >> shift, material);
+            return material;
+        }
+    }
+
     /// <summary>Material at a voxel inside the extent, walked from the root, counting each node record read.</summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
     public byte Lookup<TBranching, TCounters>(int x, int y, int z, ref TCounters counters)
@@ -228,3 +267,7 @@ public readonly struct TreeView
         }
     }
 }
+
+/// <summary>Where a ray's last <see cref="TreeView.LookupAgain"/> walk ended: its node count, and the cell it ended in
+/// (cell coordinates at that level, whose cells are 2^Shift voxels a side) with the material it found there.</summary>
+internal readonly record struct LastLookup(int Nodes, int Shift, int CellX, int CellY, int CellZ, byte Material);
