@@ -52,4 +52,21 @@ public sealed class TileMergeTests : IDisposable
 
         Run("merge", Out("t1"), "--out", Out("merged")).Err.Should().Be("voxprof: error: merge: shard 2 of 2 missing; expected all 2 shard folders\n");
     }
+
+    [Fact]
+    public void Of_shards_read_side_by_side_the_first_damaged_in_shard_order_is_named()
+    {
+        for (int i = 1; i <= 3; i++)
+            Trace(Out($"t{i}"), "--shard", $"{i}/3", "--strategy", "dda").Code.Should().Be(0);
+        // Shard 3's file is missing, shard 2's is not the one its run wrote: shard 2 comes first, whichever finishes first.
+        File.Delete(Path.Combine(Out("t3"), "pixels-dda.bin.gz"));
+        File.AppendAllText(Path.Combine(Out("t2"), "pixels-dda.bin.gz"), "x");
+
+        var merged = Run("merge", Out("t3"), Out("t1"), Out("t2"), "--out", Out("merged"));
+
+        merged.Code.Should().Be(2);
+        merged.Err.Should().StartWith($"voxprof: error: {Path.Combine(Out("t2"), "pixels-dda.bin.gz")}: ").And.NotContain(Out("t3"));
+        merged.Err.TrimEnd('\n').Should().NotContain("\n", "one line");
+        Directory.Exists(Out("merged")).Should().BeFalse();
+    }
 }
