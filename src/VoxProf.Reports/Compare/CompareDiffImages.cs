@@ -46,18 +46,11 @@ public static class CompareDiffImages
         foreach (var strategy in cmp.Strategies)
         {
             // The two files side by side: inflating one is a single core's work (a 2560×1440 file holds 260 MB).
-            var candidateTask = Task.Run(() => Load(cmp.Candidate, cmp.CandidateName(strategy), counters, missing[1].Strategies));
-            PixelData? basePixels;
-            try
-            {
-                basePixels = Load(cmp.Base, cmp.BaseName(strategy), counters, missing[0].Strategies);
-            }
-            finally
-            {
-                // Never leave the other read running; the base's own failure, if any, is the one reported.
-                ((IAsyncResult)candidateTask).AsyncWaitHandle.WaitOne();
-            }
-            PixelData? candidatePixels = candidateTask.GetAwaiter().GetResult();
+            var pixels = new PixelData?[2];
+            SideBySide.For(2, i => pixels[i] = i == 0
+                ? Load(cmp.Base, cmp.BaseName(strategy), counters, missing[0].Strategies)
+                : Load(cmp.Candidate, cmp.CandidateName(strategy), counters, missing[1].Strategies));
+            var (basePixels, candidatePixels) = (pixels[0], pixels[1]);
             if (basePixels is null || candidatePixels is null)
                 continue;
 
@@ -87,14 +80,7 @@ public static class CompareDiffImages
 
         var ranges = jobs.GroupBy(j => j.Map).ToDictionary(g => g.Key, g => g.Max(j => DiffHeatmap.RobustRange(j.Diff)));
         // The images side by side (each is drawn and encoded on one core); the list keeps the jobs' order.
-        try
-        {
-            Parallel.ForEach(jobs, job => WriteImage(cmp, output, toolVersion, jobs, ranges, job));
-        }
-        catch (AggregateException ex) when (ex.InnerExceptions.Count == 1)
-        {
-            System.Runtime.ExceptionServices.ExceptionDispatchInfo.Throw(ex.InnerExceptions[0]);
-        }
+        SideBySide.For(jobs.Count, i => WriteImage(cmp, output, toolVersion, jobs, ranges, jobs[i]));
         return new DiffImagesResult([.. jobs.Select(j => FileName(j.Strategy, j.Map))], notes);
     }
 

@@ -127,23 +127,9 @@ public static class TileShard
             for (int c = 0; c < counters.Length; c++)
                 counters[c] = new uint[n];
             var hits = new PixelHit[n];
-            // The shards' files side by side (inflating one is a single core's work, 260 MB at 2560×1440), one a core
-            // so that no more than that many files are held at once: each copies its own tiles, which no other shard
-            // holds. A failure is reported for the first shard in order that failed.
-            var failures = new Exception?[shards.Count];
-            Parallel.For(0, shards.Count, new ParallelOptions { MaxDegreeOfParallelism = Environment.ProcessorCount }, i =>
-            {
-                try
-                {
-                    CopyTiles(shards[i], definition, a.Count, width, height, counters, hits);
-                }
-                catch (Exception ex)
-                {
-                    failures[i] = ex;
-                }
-            });
-            if (failures.FirstOrDefault(f => f is not null) is { } failure)
-                System.Runtime.ExceptionServices.ExceptionDispatchInfo.Throw(failure);
+            // The shards' files side by side (inflating one is a single core's work, 260 MB at 2560×1440): each copies
+            // its own tiles, which no other shard holds.
+            SideBySide.For(shards.Count, i => CopyTiles(shards[i], definition, a.Count, width, height, counters, hits));
             double seconds = shards.Sum(s => s.Document.Strategies[k].Seconds);
             double memorySeconds = shards.Sum(s => s.Document.Strategies[k].MemorySeconds ?? 0);
             results.Add(new StrategyResult(definition, width, height, counters, hits, TimeSpan.FromSeconds(seconds))
