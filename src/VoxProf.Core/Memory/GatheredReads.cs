@@ -36,6 +36,22 @@ internal static unsafe class GatheredReads
         fixed (int* read = reads)
         fixed (int* memory = recent)
         {
+            if (Avx512F.IsSupported && recent.Length == 2 * Vector512<int>.Count)
+            {
+                // A memory of 32 nodes fits two vectors, and one two-table permute looks up sixteen reads in it (the
+                // permute takes an index's low five bits: the read's slot), without a gather.
+                Vector512<int> low = Vector512.Load(memory), high = Vector512.Load(memory + 16);
+                for (; i + 16 <= reads.Length; i += 16)
+                {
+                    Vector512<int> nodes = Vector512.Load(read + i);
+                    if (Vector512.EqualsAll(Avx512F.PermuteVar16x32x2(low, nodes, high), nodes))
+                        continue;
+                    for (int j = i; j < i + 16; j++)
+                        FrameMemory.AddRead(read[j], recent, set, layout, shift);
+                    low = Vector512.Load(memory);
+                    high = Vector512.Load(memory + 16);
+                }
+            }
             for (; i + 8 <= reads.Length; i += 8)
             {
                 Vector256<int> nodes = Vector256.Load(read + i);
@@ -50,13 +66,14 @@ internal static unsafe class GatheredReads
     }
 
     /// <summary>
-    /// A replay step's distinct nodes found eight lanes at a time. Each lane's read at the step is gathered straight
-    /// from the tile's reads (a masked gather, so a lane that has finished reads nothing), then the lowest lane not yet
-    /// matched names the next distinct node and one compare per eight lanes strikes every lane reading it. A step's
-    /// lanes read about 2.3 distinct nodes on the grid trace, so that is about three rounds of compares where the
-    /// lane-by-lane search tested every lane against a list. The gather matters: the same compares on lanes stored one
-    /// at a time waited on those stores and were slower than the search (docs/performance.md, "The memory model's
-    /// replay"). A group's steps run in one call, its spans pinned once.
+    /// A replay step's distinct nodes found eight lanes at a time. Each lane's reads are loaded eight steps at a time
+    /// (one load from the lane's own run of reads) and each block of eight lanes is transposed, so a step's reads of
+    /// eight lanes sit in one vector; then the lowest active lane not yet matched names the next distinct node and one
+    /// compare per eight lanes strikes every lane reading it. A step's lanes read about 2.3 distinct nodes on the grid
+    /// trace, so that is about three rounds of compares where the lane-by-lane search tested every lane against a
+    /// list. Lanes stored one at a time and then compared were slower than that search (their compares waited on the
+    /// stores); a gather per step and block, as before, cost more than the loads and the transpose' shuffles
+    /// (docs/performance.md, "The memory model's replay"). A group's steps run in one call, its spans pinned once.
     /// </summary>
     /// <remarks>
     /// Replays one group's steps 0 … <paramref name="longest"/> − 1 through <paramref name="cache"/>: at each step the
@@ -72,40 +89,123 @@ internal static unsafe class GatheredReads
         if (starts.Length % 8 != 0 || ends.Length != starts.Length || starts.Length > MaxLanes)
             throw new ArgumentException("lanes must come in whole blocks of eight, at most 64", nameof(starts));
         int blocks = starts.Length >> 3;
-        Span<Vector256<int>> values = stackalloc Vector256<int>[MaxLanes / 8];
+        // Eight steps' reads of every lane: step k of block b at vector k * blocks + b.
+        Span<Vector256<int>> values = stackalloc Vector256<int>[MaxLanes];
         long accesses = 0, hits = 0;
         fixed (int* read = all)
         fixed (int* start = starts)
         fixed (int* end = ends)
+        fixed (Vector256<int>* held = values)
         {
-            for (int step = 0; step < longest; step++)
+            // Each lane's number of reads: lane i reads at a step while the step is below it.
+            Span<Vector256<int>> length = stackalloc Vector256<int>[MaxLanes / 8];
+            for (int b = 0; b < blocks; b++)
+                length[b] = Vector256.Load(end + 8 * b) - Vector256.Load(start + 8 * b);
+            bool wide = Vector512.IsHardwareAccelerated && blocks % 2 == 0;
+            for (int first = 0; first < longest; first += 8)
             {
-                Vector256<int> at0 = Vector256.Create(step);
-                ulong pending = 0;
                 for (int b = 0; b < blocks; b++)
+                    Transposed(read, all.Length, start + 8 * b, first, held + b, blocks);
+                int steps = Math.Min(8, longest - first);
+                for (int k = 0; k < steps; k++)
                 {
-                    Vector256<int> at = Vector256.Load(start + 8 * b) + at0;
-                    Vector256<int> active = Vector256.LessThan(at, Vector256.Load(end + 8 * b));
-                    values[b] = Avx2.GatherMaskVector256(Vector256<int>.Zero, read, at, active, sizeof(int));
-                    pending |= (ulong)active.ExtractMostSignificantBits() << (8 * b);
-                }
-                int count = 0;
-                while (pending != 0)
-                {
-                    int lane = BitOperations.TrailingZeroCount(pending);
-                    int node = read[start[lane] + step];
-                    nodes[count++] = node;
-                    Vector256<int> wanted = Vector256.Create(node);
-                    ulong same = 0;
+                    int step = first + k;
+                    Vector256<int> at0 = Vector256.Create(step);
+                    Vector256<int>* row = held + k * blocks;
+                    ulong pending = 0;
                     for (int b = 0; b < blocks; b++)
-                        same |= (ulong)Vector256.Equals(values[b], wanted).ExtractMostSignificantBits() << (8 * b);
-                    pending &= ~same;
+                        pending |= (ulong)Vector256.LessThan(at0, length[b]).ExtractMostSignificantBits() << (8 * b);
+                    // A finished lane holds another pixel's read or nothing; it is never pending, so matching it only
+                    // clears a bit that is clear already.
+                    int count = 0;
+                    while (pending != 0)
+                    {
+                        int lane = BitOperations.TrailingZeroCount(pending);
+                        int node = ((int*)row)[lane];
+                        nodes[count++] = node;
+                        pending &= ~(wide ? Same512(row, blocks, node) : Same256(row, blocks, node));
+                    }
+                    int lineCount = FrameMemory.StepLines(layout, nodes[..count], lines, shift);
+                    hits += FrameMemory.Issue(cache, lines[..lineCount]);
+                    accesses += lineCount;
                 }
-                int lineCount = FrameMemory.StepLines(layout, nodes[..count], lines, shift);
-                hits += FrameMemory.Issue(cache, lines[..lineCount]);
-                accesses += lineCount;
             }
         }
         return (accesses, hits);
+    }
+
+    /// <summary>The lanes of a step (<paramref name="blocks"/> vectors of eight at <paramref name="row"/>) that read <paramref name="node"/>, a bit each.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong Same256(Vector256<int>* row, int blocks, int node)
+    {
+        Vector256<int> wanted = Vector256.Create(node);
+        ulong same = 0;
+        for (int b = 0; b < blocks; b++)
+            same |= (ulong)Vector256.Equals(row[b], wanted).ExtractMostSignificantBits() << (8 * b);
+        return same;
+    }
+
+    /// <summary>As <see cref="Same256"/>, sixteen lanes a compare, for an even number of blocks.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static ulong Same512(Vector256<int>* row, int blocks, int node)
+    {
+        Vector512<int> wanted = Vector512.Create(node);
+        ulong same = 0;
+        for (int b = 0; b < blocks; b += 2)
+            same |= Vector512.Equals(Vector512.Load((int*)(row + b)), wanted).ExtractMostSignificantBits() << (8 * b);
+        return same;
+    }
+
+    /// <summary>
+    /// Steps <paramref name="first"/> … +7 of eight lanes, lane i reading <c>read[start[i] + step]</c>, written as eight
+    /// vectors (one a step, a lane an element) at <paramref name="output"/>, <paramref name="stride"/> apart. A lane's
+    /// eight reads are one load; near the end of the reads, where a load would pass it, they are read one at a time. What
+    /// a lane holds past its own end is whatever follows in the reads: the caller masks those lanes out.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static void Transposed(int* read, int length, int* start, int first, Vector256<int>* output, int stride)
+    {
+        Vector256<int> r0 = Row(read, length, start[0] + first), r1 = Row(read, length, start[1] + first);
+        Vector256<int> r2 = Row(read, length, start[2] + first), r3 = Row(read, length, start[3] + first);
+        Vector256<int> r4 = Row(read, length, start[4] + first), r5 = Row(read, length, start[5] + first);
+        Vector256<int> r6 = Row(read, length, start[6] + first), r7 = Row(read, length, start[7] + first);
+        // The usual 8×8 transpose: interleave pairs of rows, then pairs of pairs, then swap 128-bit halves.
+        Vector256<int> t0 = Avx2.UnpackLow(r0, r1), t1 = Avx2.UnpackHigh(r0, r1);
+        Vector256<int> t2 = Avx2.UnpackLow(r2, r3), t3 = Avx2.UnpackHigh(r2, r3);
+        Vector256<int> t4 = Avx2.UnpackLow(r4, r5), t5 = Avx2.UnpackHigh(r4, r5);
+        Vector256<int> t6 = Avx2.UnpackLow(r6, r7), t7 = Avx2.UnpackHigh(r6, r7);
+        Vector256<int> u0 = Avx2.UnpackLow(t0.AsInt64(), t2.AsInt64()).AsInt32(), u1 = Avx2.UnpackHigh(t0.AsInt64(), t2.AsInt64()).AsInt32();
+        Vector256<int> u2 = Avx2.UnpackLow(t1.AsInt64(), t3.AsInt64()).AsInt32(), u3 = Avx2.UnpackHigh(t1.AsInt64(), t3.AsInt64()).AsInt32();
+        Vector256<int> u4 = Avx2.UnpackLow(t4.AsInt64(), t6.AsInt64()).AsInt32(), u5 = Avx2.UnpackHigh(t4.AsInt64(), t6.AsInt64()).AsInt32();
+        Vector256<int> u6 = Avx2.UnpackLow(t5.AsInt64(), t7.AsInt64()).AsInt32(), u7 = Avx2.UnpackHigh(t5.AsInt64(), t7.AsInt64()).AsInt32();
+        output[0] = Avx2.Permute2x128(u0, u4, 0x20);
+        output[stride] = Avx2.Permute2x128(u1, u5, 0x20);
+        output[2 * stride] = Avx2.Permute2x128(u2, u6, 0x20);
+        output[3 * stride] = Avx2.Permute2x128(u3, u7, 0x20);
+        output[4 * stride] = Avx2.Permute2x128(u0, u4, 0x31);
+        output[5 * stride] = Avx2.Permute2x128(u1, u5, 0x31);
+        output[6 * stride] = Avx2.Permute2x128(u2, u6, 0x31);
+        output[7 * stride] = Avx2.Permute2x128(u3, u7, 0x31);
+    }
+
+    /// <summary>Eight reads from <paramref name="at"/>: one load, or one at a time (zero past the reads) where a load would pass their end.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    private static Vector256<int> Row(int* read, int length, int at)
+    {
+        if (at + 8 <= length)
+            return Vector256.Load(read + at);
+        return Tail(read, length, at);
+    }
+
+    [MethodImpl(MethodImplOptions.NoInlining)]
+    private static Vector256<int> Tail(int* read, int length, int at)
+    {
+        Vector256<int> row = Vector256<int>.Zero;
+        for (int i = 0; i < 8; i++)
+        {
+            if (at + i >= 0 && at + i < length)
+                row = row.WithElement(i, read[at + i]);
+        }
+        return row;
     }
 }
