@@ -18,8 +18,8 @@ public sealed partial class FrameMemory
         cache.Clear();
         int shift = _settings.LineShift;
         int tileWidth = reads.X1 - reads.X0;
-        // Whole blocks of eight lanes for the gathered step; a lane past the group's stays empty (start = end = 0).
-        int padded = GatheredReads.PaddedLanes(shape.Lanes);
+        // Whole blocks of eight lanes for the vector step; a lane past the group's stays empty (start = end = 0).
+        int padded = VectorReads.PaddedLanes(shape.Lanes);
         Span<int> starts = stackalloc int[padded];
         Span<int> ends = stackalloc int[padded];
         Span<int> nodes = stackalloc int[shape.Lanes];
@@ -45,7 +45,7 @@ public sealed partial class FrameMemory
                 ends[lanes..].Clear();
                 if (_gather)
                 {
-                    (long a, long h) = GatheredReads.Replay(reads.All, starts, ends, longest, nodes, lines, _layout, shift, cache);
+                    (long a, long h) = VectorReads.Replay(reads.All, starts, ends, longest, nodes, lines, _layout, shift, cache, _wide);
                     accesses += a;
                     hits += h;
                     continue;
@@ -64,7 +64,7 @@ public sealed partial class FrameMemory
 
     /// <summary>
     /// The distinct nodes lanes read at step <paramref name="step"/>, first appearance first, lane by lane: where the
-    /// gathered step (<see cref="GatheredReads"/>) does not run. A node seen again adds nothing. The lanes of a step
+    /// vector step (<see cref="VectorReads"/>, AVX2) does not run. A node seen again adds nothing. The lanes of a step
     /// mostly read the same few nodes (about 2.3 distinct ones per 32-lane step on the sample scene's grid trace, which
     /// makes over a thousand reads a pixel), so they are kept in a short list searched straight through: hashing every
     /// read, as before, made the replay about a quarter slower (docs/performance.md, "The memory model's replay").

@@ -22,16 +22,18 @@ public sealed partial class FrameMemory
     private readonly uint[][] _groupLines;
     private readonly ConcurrentBag<TileReads> _pool = [];
     private readonly bool _gather;
+    private readonly bool _wide;
     private long _accesses;
     private long _hits;
 
     public FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height)
-        : this(settings, layout, width, height, allowGather: true)
+        : this(settings, layout, width, height, allowGather: true, allowWide: true)
     {
     }
 
-    /// <param name="allowGather">False keeps the pixels' lines and the replay on the one-at-a-time code even where <see cref="GatheredReads"/> runs, so tests can hold the two to one answer.</param>
-    internal FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height, bool allowGather)
+    /// <param name="allowGather">False keeps the pixels' lines and the replay on the one-at-a-time code even where <see cref="VectorReads"/> runs, so tests can hold the two to one answer.</param>
+    /// <param name="allowWide">False keeps <see cref="VectorReads"/> to eight lanes even where it could take sixteen, for the same reason.</param>
+    internal FrameMemory(MemorySettings settings, NodeLayout layout, int width, int height, bool allowGather, bool allowWide)
     {
         if (settings.Problem() is { } problem)
             throw new ArgumentException(problem, nameof(settings));
@@ -45,7 +47,8 @@ public sealed partial class FrameMemory
         _layout = layout;
         _width = width;
         _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
-        _gather = allowGather && GatheredReads.IsSupported && settings.Group.Lanes <= GatheredReads.MaxLanes;
+        _gather = allowGather && VectorReads.IsSupported && settings.Group.Lanes <= VectorReads.MaxLanes;
+        _wide = allowWide && VectorReads.WideSupported;
     }
 
     /// <summary>
@@ -120,7 +123,7 @@ public sealed partial class FrameMemory
                 recent.Fill(-1);
                 if (_gather)
                 {
-                    GatheredReads.AddPixel(nodes, recent, set, _layout, shift);
+                    VectorReads.AddPixel(nodes, recent, set, _layout, shift, _wide);
                 }
                 else
                 {

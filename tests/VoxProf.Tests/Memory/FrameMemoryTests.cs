@@ -22,9 +22,9 @@ public sealed class FrameMemoryTests
     }
 
     /// <summary>Runs the frame through <see cref="FrameMemory"/> tile by tile, as the tracer does.</summary>
-    internal static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings, int recordBytes = 24, bool gather = true)
+    internal static (MemoryResult Result, uint[] CacheLines) Model(Frame f, MemorySettings settings, int recordBytes = 24, bool gather = true, bool wide = true)
     {
-        var memory = new FrameMemory(settings, new NodeLayout(recordBytes), f.Width, f.Height, gather);
+        var memory = new FrameMemory(settings, new NodeLayout(recordBytes), f.Width, f.Height, gather, wide);
         var buffers = new uint[CounterNames.Count][];
         for (int c = 0; c < buffers.Length; c++)
             buffers[c] = new uint[f.Width * f.Height];
@@ -99,21 +99,25 @@ public sealed class FrameMemoryTests
     [InlineData(5, 128, 4096, 2, 136, false)]
     [InlineData(6, 64, 4096, 2, 24, true)]
     [InlineData(7, 64, 1024, 1, 136, true)]
-    // The lane-by-lane search the replay keeps where the gathered step (AVX2) does not run
+    // The lane-by-lane search the replay keeps where the vector step (AVX2) does not run
     [InlineData(1, 64, 16384, 4, 24, false, false)]
     [InlineData(6, 64, 4096, 2, 24, true, false)]
     [InlineData(7, 64, 1024, 1, 136, true, false)]
-    // Replay groups other than 32 lanes: 4 (half a block of eight), 64 (the most the gathered step takes), 128 (more)
+    // Replay groups other than 32 lanes: 4 (half a block of eight), 64 (the most the vector step takes), 128 (more)
     [InlineData(8, 64, 4096, 2, 24, true, true, 2, 2)]
     [InlineData(9, 64, 4096, 4, 24, true, true, 8, 8)]
     [InlineData(10, 64, 4096, 4, 24, false, true, 16, 8)]
+    // Eight lanes at a time where sixteen could run (AVX-512): the code machines without it take
+    [InlineData(6, 64, 4096, 2, 24, true, true, 8, 4, false)]
+    [InlineData(7, 64, 1024, 1, 136, true, true, 8, 4, false)]
+    [InlineData(9, 64, 4096, 4, 24, true, true, 8, 8, false)]
     public void Pixel_and_group_lines_and_the_cache_replay_agree_with_an_obvious_replay(int seed, int lineBytes, int cacheBytes, int ways, int recordBytes, bool coherent,
-        bool gather = true, int groupWidth = 8, int groupHeight = 4)
+        bool gather = true, int groupWidth = 8, int groupHeight = 4, bool wide = true)
     {
         // 37 × 21: partial tracer tiles and partial groups at the right and bottom.
         Frame f = coherent ? CoherentFrame(seed, 37, 21) : RandomFrame(seed, 37, 21);
         var settings = new MemorySettings(lineBytes, cacheBytes, ways) { Group = new SubgroupShape(groupWidth, groupHeight) };
-        (MemoryResult result, uint[] cacheLines) = Model(f, settings, recordBytes, gather);
+        (MemoryResult result, uint[] cacheLines) = Model(f, settings, recordBytes, gather, wide);
 
         for (int p = 0; p < f.Reads.Length; p++)
             cacheLines[p].Should().Be((uint)f.Reads[p].SelectMany(n => LinesOf(n, lineBytes, recordBytes)).Distinct().Count(), $"pixel {p}");

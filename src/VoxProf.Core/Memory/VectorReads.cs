@@ -6,16 +6,19 @@ using System.Runtime.Intrinsics.X86;
 namespace VoxProf.Core.Memory;
 
 /// <summary>
-/// The memory model's two passes over a tile's reads, eight reads at a time with AVX2 gathers, where the processor has
-/// them (<see cref="FrameMemory"/> keeps the one-at-a-time versions for the rest and for tests). Both give exactly the
-/// one-at-a-time answers, in the same order.
+/// The memory model's two passes over a tile's reads eight reads at a time with AVX2, sixteen where AVX-512 runs,
+/// where the processor has them (<see cref="FrameMemory"/> keeps the one-at-a-time versions for the rest and for
+/// tests). Both give exactly the one-at-a-time answers, in the same order.
 /// </summary>
-internal static unsafe class GatheredReads
+internal static unsafe class VectorReads
 {
     /// <summary>The most lanes a group may have here: one bit each in a 64-bit word.</summary>
     public const int MaxLanes = 64;
 
     public static bool IsSupported => Avx2.IsSupported;
+
+    /// <summary>Whether the sixteen-lane versions run here (AVX-512, and the runtime willing to use it).</summary>
+    public static bool WideSupported => Avx512F.IsSupported && Vector512.IsHardwareAccelerated;
 
     /// <summary>Lanes rounded up to whole blocks of eight: the length <see cref="Replay"/> wants its lane spans to have.</summary>
     public static int PaddedLanes(int lanes) => (lanes + 7) & ~7;
@@ -27,7 +30,9 @@ internal static unsafe class GatheredReads
     /// all eight are there, which is most of the time on a grid trace (over a thousand reads a pixel, of a few dozen
     /// nodes), the eight add nothing and change nothing, and they are skipped together; otherwise they go one at a time.
     /// </summary>
-    public static void AddPixel(ReadOnlySpan<int> reads, Span<int> recent, LineSet set, NodeLayout layout, int shift)
+    /// <param name="wide">Sixteen reads at a time with AVX-512 (<see cref="WideSupported"/>); false keeps to eight, as
+    /// where it does not run, so tests can hold both to one answer.</param>
+    public static void AddPixel(ReadOnlySpan<int> reads, Span<int> recent, LineSet set, NodeLayout layout, int shift, bool wide)
     {
         if (!BitOperations.IsPow2(recent.Length))
             throw new ArgumentException("the memory of recent nodes must have a power-of-two length", nameof(recent));
@@ -36,7 +41,7 @@ internal static unsafe class GatheredReads
         fixed (int* read = reads)
         fixed (int* memory = recent)
         {
-            if (Avx512F.IsSupported && recent.Length == 2 * Vector512<int>.Count)
+            if (wide && WideSupported && recent.Length == 2 * Vector512<int>.Count)
             {
                 // A memory of 32 nodes fits two vectors, and one two-table permute looks up sixteen reads in it (the
                 // permute takes an index's low five bits: the read's slot), without a gather.
@@ -80,11 +85,12 @@ internal static unsafe class GatheredReads
     /// distinct nodes the lanes read, first appearance first, and their lines (<see cref="FrameMemory.StepLines"/>). Lane i
     /// reads <c>all[starts[i] + step]</c> while that is before <c>ends[i]</c>. The spans hold
     /// <see cref="PaddedLanes"/> lanes, at most <see cref="MaxLanes"/>; a padding lane has its end at or before its
-    /// start, so it reads nothing. Returns the cache's accesses and hits.
+    /// start, so it reads nothing. With <paramref name="wide"/>, sixteen lanes a compare where AVX-512 runs. Returns the
+    /// cache's accesses and hits.
     /// </remarks>
     [SkipLocalsInit]
     public static (long Accesses, long Hits) Replay(ReadOnlySpan<int> all, ReadOnlySpan<int> starts, ReadOnlySpan<int> ends, int longest,
-        Span<int> nodes, Span<int> lines, NodeLayout layout, int shift, LruCache cache)
+        Span<int> nodes, Span<int> lines, NodeLayout layout, int shift, LruCache cache, bool wide)
     {
         if (starts.Length % 8 != 0 || ends.Length != starts.Length || starts.Length > MaxLanes)
             throw new ArgumentException("lanes must come in whole blocks of eight, at most 64", nameof(starts));
@@ -101,7 +107,7 @@ internal static unsafe class GatheredReads
             Span<Vector256<int>> length = stackalloc Vector256<int>[MaxLanes / 8];
             for (int b = 0; b < blocks; b++)
                 length[b] = Vector256.Load(end + 8 * b) - Vector256.Load(start + 8 * b);
-            bool wide = Vector512.IsHardwareAccelerated && blocks % 2 == 0;
+            wide = wide && WideSupported && blocks % 2 == 0;
             for (int first = 0; first < longest; first += 8)
             {
                 for (int b = 0; b < blocks; b++)
