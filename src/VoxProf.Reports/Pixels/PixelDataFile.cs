@@ -94,20 +94,7 @@ public static class PixelDataFile
         {
             using var gzip = new GZipStream(stream, CompressionMode.Decompress, leaveOpen: true);
             using var r = new BinaryReader(gzip, Encoding.UTF8, leaveOpen: true);
-            byte[] magic = r.ReadBytes(4);
-            if (!magic.AsSpan().SequenceEqual(Magic))
-                throw new InputException($"{source}: not a VoxProf pixel data file (expected magic VXPX)");
-            ushort version = r.ReadUInt16();
-            if (version != Version)
-                throw new InputException($"{source}: pixel data version {version} is not supported, expected {Version} (run voxprof trace again to write it in this version)");
-            int counterCount = r.ReadUInt16();
-            int width = r.ReadInt32(), height = r.ReadInt32();
-            if (width is < 1 or > MaxSide || height is < 1 or > MaxSide)
-                throw new InputException($"{source}: image size {width}x{height} is out of range, expected 1..{MaxSide} per side");
-            string strategy = ReadName(r, source);
-            var names = new string[counterCount];
-            for (int c = 0; c < counterCount; c++)
-                names[c] = ReadName(r, source);
+            (string strategy, int width, int height, string[] names) = ReadHeader(r, source);
             int n = width * height;
             var keptNames = new List<string>();
             var values = new List<uint[]>();
@@ -124,7 +111,9 @@ public static class PixelDataFile
                     Skip(r, (long)n * sizeof(uint), scratch, source);
                 }
             }
-            return new PixelData(strategy, width, height, keptNames, [.. values], ReadHits(r, width, n, scratch, source));
+            var hits = new PixelHit[n];
+            ReadHits(r, width, n, scratch, source, hits, PixelRuns.All);
+            return new PixelData(strategy, width, height, keptNames, [.. values], hits);
         }
         catch (EndOfStreamException ex)
         {
@@ -137,48 +126,148 @@ public static class PixelDataFile
     }
 
     /// <summary>
-    /// The seven hit arrays straight into the hit records, a chunk at a time (full-size copies of each array were
-    /// another 92 MB of fresh memory per file at 2560×1440).
+    /// Reads the pixels of <paramref name="share"/>'s tracer tiles from a file of a <paramref name="width"/> ×
+    /// <paramref name="height"/> image straight into the whole image's buffers, leaving every other pixel as it is:
+    /// <paramref name="counters"/>[i] receives the file's counter named <paramref name="counterNames"/>[i] (any case).
+    /// A merge of tile shards reads each shard's file this way: reading every array whole, as
+    /// <see cref="Read(Stream, string, IReadOnlyCollection{string}?)"/> does, made a file at 2560×1440 about 260 MB of
+    /// fresh memory only to copy the shard's half or less of it (docs/performance.md, "`compare` on large images").
     /// </summary>
-    private static PixelHit[] ReadHits(BinaryReader r, int width, int n, byte[] scratch, string source)
+    public static void ReadTiles(Stream stream, string source, TileShare share, int width, int height,
+        IReadOnlyList<string> counterNames, uint[][] counters, PixelHit[] hits)
     {
-        var hits = new PixelHit[n];
+        if (counters.Length != counterNames.Count || counters.Any(c => c.Length != width * height) || hits.Length != width * height)
+            throw new ArgumentException("one whole-image buffer per counter name and one for the hits", nameof(counters));
+        try
+        {
+            using var gzip = new GZipStream(stream, CompressionMode.Decompress, leaveOpen: true);
+            using var r = new BinaryReader(gzip, Encoding.UTF8, leaveOpen: true);
+            (string strategy, int w, int h, string[] names) = ReadHeader(r, source);
+            if (w != width || h != height)
+                throw new InputException($"{source}: {w}x{h} pixels, expected {width}x{height}; trace the shard again");
+            var into = new uint[]?[names.Length];
+            for (int i = 0; i < counterNames.Count; i++)
+            {
+                int at = Array.FindIndex(names, name => string.Equals(name, counterNames[i], StringComparison.OrdinalIgnoreCase));
+                if (at < 0)
+                    throw new InputException($"{source}: pixel data of {strategy} has no counter {counterNames[i]}; trace the shards again");
+                into[at] = counters[i];
+            }
+            int n = width * height;
+            var runs = new PixelRuns(share, width, height);
+            var scratch = new byte[ChunkLength * sizeof(double)];
+            foreach (uint[]? target in into)
+            {
+                if (target is null)
+                    Skip(r, (long)n * sizeof(uint), scratch, source);
+                else
+                    ReadRuns(r, target, runs, scratch, source);
+            }
+            ReadHits(r, width, n, scratch, source, hits, runs);
+        }
+        catch (EndOfStreamException ex)
+        {
+            throw new InputException($"{source}: truncated pixel data file", ex);
+        }
+        catch (InvalidDataException ex)
+        {
+            throw new InputException($"{source}: not a gzip stream ({ex.Message})", ex);
+        }
+    }
+
+    /// <summary>The magic, version, image size, strategy and counter names, each checked.</summary>
+    private static (string Strategy, int Width, int Height, string[] Names) ReadHeader(BinaryReader r, string source)
+    {
+        byte[] magic = r.ReadBytes(4);
+        if (!magic.AsSpan().SequenceEqual(Magic))
+            throw new InputException($"{source}: not a VoxProf pixel data file (expected magic VXPX)");
+        ushort version = r.ReadUInt16();
+        if (version != Version)
+            throw new InputException($"{source}: pixel data version {version} is not supported, expected {Version} (run voxprof trace again to write it in this version)");
+        int counterCount = r.ReadUInt16();
+        int width = r.ReadInt32(), height = r.ReadInt32();
+        if (width is < 1 or > MaxSide || height is < 1 or > MaxSide)
+            throw new InputException($"{source}: image size {width}x{height} is out of range, expected 1..{MaxSide} per side");
+        string strategy = ReadName(r, source);
+        var names = new string[counterCount];
+        for (int c = 0; c < counterCount; c++)
+            names[c] = ReadName(r, source);
+        return (strategy, width, height, names);
+    }
+
+    /// <summary>One counter array, a chunk at a time through <paramref name="scratch"/>, its kept runs copied into <paramref name="target"/>.</summary>
+    private static void ReadRuns(BinaryReader r, uint[] target, PixelRuns runs, byte[] scratch, string source)
+    {
+        for (int start = 0; start < target.Length; start += ChunkLength)
+        {
+            int k = Math.Min(ChunkLength, target.Length - start);
+            Span<byte> bytes = scratch.AsSpan(0, k * sizeof(uint));
+            Fill(r, bytes, source);
+            Span<uint> values = MemoryMarshal.Cast<byte, uint>(bytes);
+            if (!BitConverter.IsLittleEndian)
+                BinaryPrimitives.ReverseEndianness(values, values);
+            for (int i = start; i < start + k;)
+            {
+                int end = runs.RunEnd(i, start + k, out bool held);
+                if (held)
+                    values[(i - start)..(end - start)].CopyTo(target.AsSpan(i, end - i));
+                i = end;
+            }
+        }
+    }
+
+    /// <summary>
+    /// The seven hit arrays straight into the hit records of the pixels <paramref name="runs"/> keeps, a chunk at a
+    /// time (full-size copies of each array were another 92 MB of fresh memory per file at 2560×1440).
+    /// </summary>
+    private static void ReadHits(BinaryReader r, int width, int n, byte[] scratch, string source, PixelHit[] hits, PixelRuns runs)
+    {
         for (int plane = 0; plane < 7; plane++)
         {
             int size = plane < 3 ? 1 : plane < 6 ? sizeof(int) : sizeof(double);
             for (int start = 0; start < n; start += ChunkLength)
             {
                 int k = Math.Min(ChunkLength, n - start);
-                Span<byte> bytes = scratch.AsSpan(0, k * size);
-                Fill(r, bytes, source);
-                Span<PixelHit> h = hits.AsSpan(start, k);
-                if (plane < 3)
+                Span<byte> chunk = scratch.AsSpan(0, k * size);
+                Fill(r, chunk, source);
+                for (int i = start; i < start + k;)
                 {
-                    ReadBytes(h, bytes, plane, start, width, source);
-                    continue;
+                    int end = runs.RunEnd(i, start + k, out bool held);
+                    if (held)
+                        ReadPlane(hits.AsSpan(i, end - i), chunk[((i - start) * size)..((end - start) * size)], plane, i, width, source);
+                    i = end;
                 }
-                // The file is little-endian whatever the machine: swap on a big-endian host.
-                if (plane < 6)
-                {
-                    Span<int> ints = MemoryMarshal.Cast<byte, int>(bytes);
-                    if (!BitConverter.IsLittleEndian)
-                        BinaryPrimitives.ReverseEndianness(ints, ints);
-                    for (int i = 0; i < k; i++)
-                    {
-                        if (plane == 3) h[i].X = ints[i];
-                        else if (plane == 4) h[i].Y = ints[i];
-                        else h[i].Z = ints[i];
-                    }
-                    continue;
-                }
-                Span<long> bits = MemoryMarshal.Cast<byte, long>(bytes);
-                if (!BitConverter.IsLittleEndian)
-                    BinaryPrimitives.ReverseEndianness(bits, bits);
-                for (int i = 0; i < k; i++)
-                    h[i].T = BitConverter.Int64BitsToDouble(bits[i]);
             }
         }
-        return hits;
+    }
+
+    /// <summary>A run of one plane's values (<paramref name="bytes"/>, little-endian) into the run's hit records.</summary>
+    private static void ReadPlane(Span<PixelHit> h, Span<byte> bytes, int plane, int start, int width, string source)
+    {
+        if (plane < 3)
+        {
+            ReadBytes(h, bytes, plane, start, width, source);
+            return;
+        }
+        // The file is little-endian whatever the machine: swap on a big-endian host.
+        if (plane < 6)
+        {
+            Span<int> ints = MemoryMarshal.Cast<byte, int>(bytes);
+            if (!BitConverter.IsLittleEndian)
+                BinaryPrimitives.ReverseEndianness(ints, ints);
+            for (int i = 0; i < h.Length; i++)
+            {
+                if (plane == 3) h[i].X = ints[i];
+                else if (plane == 4) h[i].Y = ints[i];
+                else h[i].Z = ints[i];
+            }
+            return;
+        }
+        Span<long> bits = MemoryMarshal.Cast<byte, long>(bytes);
+        if (!BitConverter.IsLittleEndian)
+            BinaryPrimitives.ReverseEndianness(bits, bits);
+        for (int i = 0; i < h.Length; i++)
+            h[i].T = BitConverter.Int64BitsToDouble(bits[i]);
     }
 
     /// <summary>A chunk of one of the byte planes (hit flag, face, material) into the hit records.</summary>

@@ -143,23 +143,8 @@ public static class TileShard
 
     /// <summary>The tiles <paramref name="shard"/> traced, from its pixel file into the whole image's buffers.</summary>
     private static void CopyTiles(TileShardFolder shard, StrategyDefinition definition, int count, int width, int height,
-        uint[][] counters, PixelHit[] hits)
-    {
-        PixelData data = shard.Pixels(definition.Name, width, height);
-        uint[][] theirs = [.. definition.CounterNames.Select(name => data.Find(name)
-            ?? throw new InputException($"{shard.Folder}: pixel data of {definition.Name} has no counter {name}; trace the shards again"))];
-        foreach (int tile in new TileShare(shard.Document.Index, count).Tiles(width, height))
-        {
-            var (x0, y0, x1, y1) = Tracer.TileBounds(tile, width, height);
-            for (int y = y0; y < y1; y++)
-            {
-                int from = y * width + x0, length = x1 - x0;
-                for (int c = 0; c < counters.Length; c++)
-                    Array.Copy(theirs[c], from, counters[c], from, length);
-                Array.Copy(data.Hits, from, hits, from, length);
-            }
-        }
-    }
+        uint[][] counters, PixelHit[] hits) =>
+        shard.ReadTiles(definition, new TileShare(shard.Document.Index, count), width, height, counters, hits);
 
     private static MemoryResult Memory(IReadOnlyList<TileShardFolder> shards, int strategy, MemorySettings settings)
     {
@@ -183,19 +168,19 @@ public static class TileShard
 /// <summary>A tile shard's folder as read for a merge.</summary>
 public sealed record TileShardFolder(string Folder, TileShardDocument Document, ReportManifest Manifest)
 {
-    /// <summary>The shard's pixel data of <paramref name="strategy"/>, checked against its manifest and image size.</summary>
-    public PixelData Pixels(string strategy, int width, int height)
+    /// <summary>
+    /// The shard's pixels of <paramref name="strategy"/> in <paramref name="share"/>'s tiles, from its pixel file
+    /// (checked against its manifest) into the whole image's buffers, one per counter of the strategy.
+    /// </summary>
+    public void ReadTiles(StrategyDefinition strategy, TileShare share, int width, int height, uint[][] counters, PixelHit[] hits)
     {
-        string name = OutputNames.PixelData(strategy);
+        string name = OutputNames.PixelData(strategy.Name);
         string path = Path.Combine(Folder, name);
         if (!File.Exists(path))
             throw new InputException($"{path}: not found; expected the pixel data of the shard's tiles (trace the shard without --no-pixels)");
         byte[] bytes = File.ReadAllBytes(path);
         Manifest.Verify(Folder, name, bytes);
         using var stream = new MemoryStream(bytes);
-        PixelData data = PixelDataFile.Read(stream, path);
-        if (data.Width != width || data.Height != height)
-            throw new InputException($"{path}: {data.Width}x{data.Height} pixels, expected {width}x{height}; trace the shard again");
-        return data;
+        PixelDataFile.ReadTiles(stream, path, share, width, height, strategy.CounterNames, counters, hits);
     }
 }

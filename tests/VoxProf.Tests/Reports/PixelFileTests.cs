@@ -29,7 +29,7 @@ public class PixelFileTests
     }
 
     /// <summary>The pixel file of <paramref name="data"/> in memory, ready to read.</summary>
-    private static MemoryStream Written(PixelData data)
+    internal static MemoryStream Written(PixelData data)
     {
         var stream = new MemoryStream();
         PixelDataFile.Write(data, stream);
@@ -47,7 +47,7 @@ public class PixelFileTests
     }
 
     /// <summary>300×300 pixels: more than one of the reader's 65,536-pixel chunks, every field varied.</summary>
-    private static PixelData Large()
+    internal static PixelData Large()
     {
         const int w = 300, h = 300;
         var rng = new Random(11);
