@@ -75,14 +75,7 @@ public static class Tracer
 
         var results = new List<StrategyResult>();
         bool modelsMemory = request.CountWork && request.Memory is not null;
-        ResultBuffers[] buffers = ResultBuffers.Allocate(request.Strategies.Select(d => d.CounterNames.Count).ToArray(),
-            (s, c) => (Counter)c switch
-            {
-                Counter.PrepassIterations or Counter.PrepassNodeFetches or Counter.PrepassSkip => prepass != null && request.Strategies[s].UsesPrepass,
-                Counter.CacheLines => modelsMemory,
-                var counter => !request.Strategies[s].NeverCounts.Contains(counter),
-            },
-            request.Width * request.Height, options);
+        ResultBuffers[] buffers = ResultBuffers.For(request, prepass != null, options);
         long pixelsDone = 0;
         int[] tiles = (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
         long heldPixels = 0;

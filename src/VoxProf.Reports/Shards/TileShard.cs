@@ -120,16 +120,18 @@ public static class TileShard
             throw new InputException($"{shards[0].Folder}: the shard's image or strategies differ from its recorded command; trace the shards again");
         int width = request.Width, height = request.Height, n = width * height;
         var results = new List<StrategyResult>();
+        // The trace's own buffers: a counter no shard can have counted stays the trace's shared zeros, and is not read.
+        ResultBuffers[] buffers = ResultBuffers.For(request);
         for (int k = 0; k < request.Strategies.Count; k++)
         {
             StrategyDefinition definition = request.Strategies[k];
-            var counters = new uint[definition.CounterNames.Count][];
-            for (int c = 0; c < counters.Length; c++)
-                counters[c] = new uint[n];
-            var hits = new PixelHit[n];
+            uint[][] counters = buffers[k].Counters;
+            PixelHit[] hits = buffers[k].Hits;
+            string[] names = [.. definition.CounterNames.Where((_, c) => buffers[k].Produced[c])];
+            uint[][] filled = [.. counters.Where((_, c) => buffers[k].Produced[c])];
             // The shards' files side by side (inflating one is a single core's work, 260 MB at 2560×1440): each copies
             // its own tiles, which no other shard holds.
-            SideBySide.For(shards.Count, i => CopyTiles(shards[i], definition, a.Count, width, height, counters, hits));
+            SideBySide.For(shards.Count, i => shards[i].ReadTiles(definition, new TileShare(shards[i].Document.Index, a.Count), width, height, names, filled, hits));
             double seconds = shards.Sum(s => s.Document.Strategies[k].Seconds);
             double memorySeconds = shards.Sum(s => s.Document.Strategies[k].MemorySeconds ?? 0);
             results.Add(new StrategyResult(definition, width, height, counters, hits, TimeSpan.FromSeconds(seconds))
@@ -140,11 +142,6 @@ public static class TileShard
         }
         return results;
     }
-
-    /// <summary>The tiles <paramref name="shard"/> traced, from its pixel file into the whole image's buffers.</summary>
-    private static void CopyTiles(TileShardFolder shard, StrategyDefinition definition, int count, int width, int height,
-        uint[][] counters, PixelHit[] hits) =>
-        shard.ReadTiles(definition, new TileShare(shard.Document.Index, count), width, height, counters, hits);
 
     private static MemoryResult Memory(IReadOnlyList<TileShardFolder> shards, int strategy, MemorySettings settings)
     {
@@ -170,9 +167,10 @@ public sealed record TileShardFolder(string Folder, TileShardDocument Document, 
 {
     /// <summary>
     /// The shard's pixels of <paramref name="strategy"/> in <paramref name="share"/>'s tiles, from its pixel file
-    /// (checked against its manifest) into the whole image's buffers, one per counter of the strategy.
+    /// (checked against its manifest) into the whole image's buffers, one per name of <paramref name="counterNames"/>.
     /// </summary>
-    public void ReadTiles(StrategyDefinition strategy, TileShare share, int width, int height, uint[][] counters, PixelHit[] hits)
+    public void ReadTiles(StrategyDefinition strategy, TileShare share, int width, int height, IReadOnlyList<string> counterNames,
+        uint[][] counters, PixelHit[] hits)
     {
         string name = OutputNames.PixelData(strategy.Name);
         string path = Path.Combine(Folder, name);
@@ -181,6 +179,6 @@ public sealed record TileShardFolder(string Folder, TileShardDocument Document, 
         byte[] bytes = File.ReadAllBytes(path);
         Manifest.Verify(Folder, name, bytes);
         using var stream = new MemoryStream(bytes);
-        PixelDataFile.ReadTiles(stream, path, share, width, height, strategy.CounterNames, counters, hits);
+        PixelDataFile.ReadTiles(stream, path, share, width, height, counterNames, counters, hits);
     }
 }
