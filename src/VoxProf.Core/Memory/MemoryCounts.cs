@@ -1,4 +1,5 @@
 using System.Runtime.CompilerServices;
+using System.Runtime.Intrinsics;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Memory;
@@ -36,6 +37,33 @@ internal unsafe struct MemoryCounts<TCounts, TRoom> : ICostCounters, ICountFlush
     {
         Counts.NodeFetch(nodeIndex);
         TRoom.Record(ref _next, ref _end, nodeIndex);
+    }
+
+    /// <summary>
+    /// The first <paramref name="nodes"/> (at most eight) of <paramref name="path"/>'s node indices read again: counted,
+    /// and recorded with one store where the room holds all eight (the lanes past <paramref name="nodes"/> are written
+    /// but not kept: the next reads overwrite them). Otherwise one at a time, as <typeparamref name="TRoom"/> records.
+    /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveInlining)]
+    internal void Again(Vector256<int> path, int nodes)
+    {
+        if (typeof(TCounts) == typeof(CostCounts))
+        {
+            Unsafe.As<TCounts, CostCounts>(ref Counts).NodeFetches += (uint)nodes;
+        }
+        else
+        {
+            for (int i = 0; i < nodes; i++)
+                Counts.NodeFetch(path.GetElement(i));
+        }
+        if (typeof(TRoom) == typeof(BoundedRoom) && _end - _next >= Vector256<int>.Count)
+        {
+            path.Store(_next);
+            _next += nodes;
+            return;
+        }
+        for (int i = 0; i < nodes; i++)
+            TRoom.Record(ref _next, ref _end, path.GetElement(i));
     }
 
     /// <summary>Points the ray's reads at the room after the tile's finished pixels (<see cref="RayRecording"/>).</summary>

@@ -160,7 +160,8 @@ public static class Tracer
         PrepassMap? prepass = job.Prepass;
         PixelHit[] hits = job.Hits;
         uint[][] buffers = job.Counters;
-        Span<NodeRef> path = stackalloc NodeRef[view.Depth + 1];
+        // At least PathReads.Block long, so a short path's reads can be recorded again with one load.
+        Span<NodeRef> path = stackalloc NodeRef[Math.Max(view.Depth + 1, PathReads.Block)];
         // The tile's counts, copied into the image's buffers when the tile is done (TileCounts says why).
         Span<uint> tile = typeof(TCounters) != typeof(NoCounters) ? stackalloc uint[buffers.Length * TileCounts.Slots] : default;
         int width = camera.Width;

@@ -220,8 +220,7 @@ public readonly struct TreeView
     {
         if (last.Nodes != 0 && ((x >> last.Shift) ^ last.CellX | (y >> last.Shift) ^ last.CellY | (z >> last.Shift) ^ last.CellZ) == 0)
         {
-            for (int i = 0; i < last.Nodes; i++)
-                counters.NodeFetch(path[i].Index);
+            PathReads.Again(ref counters, path, last.Nodes);
             return last.Material;
         }
         var node = default(NodeRef);

@@ -49,10 +49,13 @@ public class GridLookupTests
     }
 
     [Theory]
-    [InlineData(2)]
-    [InlineData(4)]
-    [InlineData(8)]
-    public void Grid_counts_and_reads_as_a_walk_from_the_root_at_every_voxel(int branching)
+    [InlineData(2, true)]
+    [InlineData(4, true)]
+    [InlineData(8, true)]
+    // The memory model off: the counters without a recorder take their own short way through a reused path.
+    [InlineData(2, false)]
+    [InlineData(4, false)]
+    public void Grid_counts_and_reads_as_a_walk_from_the_root_at_every_voxel(int branching, bool memory)
     {
         StrategyDefinition fromRoot = StrategyDefinition.Of<GridFromRoot>();
         for (int seed = 1; seed <= 3; seed++)
@@ -65,15 +68,18 @@ public class GridLookupTests
             {
                 CameraSpec cam = KernelAgreementTests.RandomCamera(rng, size, inside: c == 0);
                 TraceRun run = Tracer.Run(new TraceRequest(scene, tree, cam, 36, 24, [BuiltInStrategies.Grid, fromRoot],
-                    Threads: 2, Memory: MemorySettings.Default));
+                    Threads: 2, Memory: memory ? MemorySettings.Default : null));
                 StrategyResult grid = run.Results[0], reference = run.Results[1];
                 string where = $"branching {branching}, seed {seed}, camera {c}";
                 for (int k = 0; k < CounterNames.Count; k++)
                     grid.Counters[k].Should().Equal(reference.Counters[k], $"{CounterNames.All[k].Name()}, {where}");
                 grid.Hits.Should().Equal(reference.Hits, where);
-                (grid.Memory!.Accesses, grid.Memory.Hits).Should().Be((reference.Memory!.Accesses, reference.Memory.Hits), where);
-                for (int g = 0; g < grid.Memory.Groups.Count; g++)
-                    grid.Memory.Groups[g].Lines.Should().Equal(reference.Memory.Groups[g].Lines, where);
+                if (memory)
+                {
+                    (grid.Memory!.Accesses, grid.Memory.Hits).Should().Be((reference.Memory!.Accesses, reference.Memory.Hits), where);
+                    for (int g = 0; g < grid.Memory.Groups.Count; g++)
+                        grid.Memory.Groups[g].Lines.Should().Equal(reference.Memory.Groups[g].Lines, where);
+                }
                 grid.Counters[(int)Counter.NodeFetches].Sum(v => (long)v).Should().BeGreaterThan(
                     grid.Counters[(int)Counter.Iterations].Sum(v => (long)v), "lookups read more than one node on average: paths are reused");
             }
