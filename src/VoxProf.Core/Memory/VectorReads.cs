@@ -26,9 +26,10 @@ internal static unsafe class VectorReads
     /// <summary>
     /// A pixel's reads added to its set of distinct lines (<paramref name="set"/>), skipping each node that
     /// <paramref name="recent"/> (a direct-mapped memory of nodes, slot = node mod its length, a power of two) says was
-    /// added already, as the one-at-a-time filter does. Eight reads are looked up in the memory with one gather; when
-    /// all eight are there, which is most of the time on a grid trace (over a thousand reads a pixel, of a few dozen
-    /// nodes), the eight add nothing and change nothing, and they are skipped together; otherwise they go one at a time.
+    /// added already, as the one-at-a-time filter does. Eight reads are looked up in the memory with one gather, or
+    /// sixteen with one permute (below); when all are there, which is most of the time on a grid trace (over a thousand
+    /// reads a pixel, of a few dozen nodes), they add nothing and change nothing, and they are skipped together;
+    /// otherwise they go one at a time.
     /// </summary>
     /// <param name="wide">Sixteen reads at a time with AVX-512 (<see cref="WideSupported"/>); false keeps to eight, as
     /// where it does not run, so tests can hold both to one answer.</param>
@@ -78,7 +79,8 @@ internal static unsafe class VectorReads
     /// trace, so that is about three rounds of compares where the lane-by-lane search tested every lane against a
     /// list. Lanes stored one at a time and then compared were slower than that search (their compares waited on the
     /// stores); a gather per step and block, as before, cost more than the loads and the transpose' shuffles
-    /// (docs/performance.md, "The memory model's replay"). A group's steps run in one call, its spans pinned once.
+    /// (docs/performance.md, "The memory model's passes, `merge` and `compare` reading"). A group's steps run in one
+    /// call, its spans pinned once.
     /// </summary>
     /// <remarks>
     /// Replays one group's steps 0 … <paramref name="longest"/> − 1 through <paramref name="cache"/>: at each step the

@@ -1,8 +1,8 @@
 using System.Text.Json;
 using VoxProf.Core;
 using VoxProf.Core.Memory;
-using VoxProf.Core.Strategies;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 using VoxProf.Reports.Export;
 using VoxProf.Reports.Model;
@@ -118,7 +118,7 @@ public static class TileShard
             throw new InputException($"{request.Scene.SourcePath ?? request.Scene.Name}: the scene's SHA-256 is {hash}, the shards traced {a.SceneSha256}; merge with the scene file the shards traced");
         if (request.Width != a.Width || request.Height != a.Height || !request.Strategies.Select(s => s.Name).SequenceEqual(a.Strategies.Select(s => s.Name)))
             throw new InputException($"{shards[0].Folder}: the shard's image or strategies differ from its recorded command; trace the shards again");
-        int width = request.Width, height = request.Height, n = width * height;
+        int width = request.Width, height = request.Height;
         var results = new List<StrategyResult>();
         // The trace's own buffers: a counter no shard can have counted stays the trace's shared zeros, and is not read.
         ResultBuffers[] buffers = ResultBuffers.For(request);
