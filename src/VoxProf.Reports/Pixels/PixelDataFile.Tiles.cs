@@ -1,7 +1,5 @@
 using System.Buffers.Binary;
-using System.IO.Compression;
 using System.Runtime.InteropServices;
-using System.Text;
 using VoxProf.Core;
 using VoxProf.Core.Traversal;
 
@@ -23,11 +21,9 @@ public static partial class PixelDataFile
     {
         if (counters.Length != counterNames.Count || counters.Any(c => c.Length != width * height) || hits.Length != width * height)
             throw new ArgumentException("one whole-image buffer per counter name and one for the hits", nameof(counters));
-        try
+        Open(stream, source, (r, header) =>
         {
-            using var gzip = new GZipStream(stream, CompressionMode.Decompress, leaveOpen: true);
-            using var r = new BinaryReader(gzip, Encoding.UTF8, leaveOpen: true);
-            (string strategy, int w, int h, string[] names) = ReadHeader(r, source);
+            (string strategy, int w, int h, string[] names) = header;
             if (w != width || h != height)
                 throw new InputException($"{source}: {w}x{h} pixels, expected {width}x{height}; trace the shard again");
             var into = new uint[]?[names.Length];
@@ -49,15 +45,8 @@ public static partial class PixelDataFile
                     ReadRuns(r, target, runs, scratch, source);
             }
             ReadHits(r, width, n, scratch, source, hits, runs);
-        }
-        catch (EndOfStreamException ex)
-        {
-            throw new InputException($"{source}: truncated pixel data file", ex);
-        }
-        catch (InvalidDataException ex)
-        {
-            throw new InputException($"{source}: not a gzip stream ({ex.Message})", ex);
-        }
+            return true;
+        });
     }
 
     /// <summary>One counter array, a chunk at a time through <paramref name="scratch"/>, its kept runs copied into <paramref name="target"/>.</summary>

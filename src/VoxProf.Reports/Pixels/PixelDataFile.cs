@@ -88,13 +88,10 @@ public static partial class PixelDataFile
     /// small pieces and never held, so a reader that needs one of twelve counters does not fault in the other eleven
     /// (compare's difference heatmaps at 2560×1440: about 100 MB a file instead of 350, hit records included).
     /// </summary>
-    public static PixelData Read(Stream stream, string source, IReadOnlyCollection<string>? counters = null)
-    {
-        try
+    public static PixelData Read(Stream stream, string source, IReadOnlyCollection<string>? counters = null) =>
+        Open(stream, source, (r, header) =>
         {
-            using var gzip = new GZipStream(stream, CompressionMode.Decompress, leaveOpen: true);
-            using var r = new BinaryReader(gzip, Encoding.UTF8, leaveOpen: true);
-            (string strategy, int width, int height, string[] names) = ReadHeader(r, source);
+            (string strategy, int width, int height, string[] names) = header;
             int n = width * height;
             var keptNames = new List<string>();
             var values = new List<uint[]>();
@@ -115,6 +112,19 @@ public static partial class PixelDataFile
             PixelHit[] hits = LargeArrays.Uninitialized<PixelHit>(n);
             ReadHits(r, width, n, scratch, source, hits, PixelRuns.All);
             return new PixelData(strategy, width, height, keptNames, [.. values], hits);
+        });
+
+    /// <summary>
+    /// Opens the file's gzip stream, reads its header and hands both to <paramref name="read"/>, turning the stream's
+    /// own failures (a file cut short, or not gzip at all) into one-line input errors naming <paramref name="source"/>.
+    /// </summary>
+    private static T Open<T>(Stream stream, string source, Func<BinaryReader, (string Strategy, int Width, int Height, string[] Names), T> read)
+    {
+        try
+        {
+            using var gzip = new GZipStream(stream, CompressionMode.Decompress, leaveOpen: true);
+            using var r = new BinaryReader(gzip, Encoding.UTF8, leaveOpen: true);
+            return read(r, ReadHeader(r, source));
         }
         catch (EndOfStreamException ex)
         {
