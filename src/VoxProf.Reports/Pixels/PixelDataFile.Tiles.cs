@@ -14,7 +14,8 @@ public static partial class PixelDataFile
     /// <paramref name="counters"/>[i] receives the file's counter named <paramref name="counterNames"/>[i] (any case).
     /// A merge of tile shards reads each shard's file this way: reading every array whole, as
     /// <see cref="Read(Stream, string, IReadOnlyCollection{string}?)"/> does, made a file at 2560×1440 about 260 MB of
-    /// fresh memory only to copy the shard's half or less of it (docs/performance.md, "`compare` on large images").
+    /// fresh memory only to copy the shard's half or less of it (docs/performance.md, "The memory model's passes, `merge`
+    /// and `compare` reading").
     /// </summary>
     public static void ReadTiles(Stream stream, string source, TileShare share, int width, int height,
         IReadOnlyList<string> counterNames, uint[][] counters, PixelHit[] hits)
