@@ -48,7 +48,8 @@ public sealed partial class FrameMemory
         _width = width;
         _groupLines = SubgroupShape.Standard.Select(s => new uint[s.TilesX(width) * s.TilesY(height)]).ToArray();
         _gather = allowGather && VectorReads.IsSupported && settings.Group.Lanes <= VectorReads.MaxLanes;
-        _wide = allowWide && VectorReads.WideSupported;
+        // VectorReads takes sixteen lanes only where the processor has them.
+        _wide = allowWide;
     }
 
     /// <summary>

@@ -40,23 +40,14 @@ internal unsafe struct MemoryCounts<TCounts, TRoom> : ICostCounters, ICountFlush
     }
 
     /// <summary>
-    /// The first <paramref name="nodes"/> (at most eight) of <paramref name="path"/>'s node indices read again: counted,
-    /// and recorded with one store where the room holds all eight (the lanes past <paramref name="nodes"/> are written
-    /// but not kept: the next reads overwrite them). Otherwise one at a time, as <typeparamref name="TRoom"/> records.
+    /// Records the first <paramref name="nodes"/> (at most eight) of <paramref name="path"/>'s node indices again, with
+    /// one store where the room holds all eight (the lanes past <paramref name="nodes"/> are written but not kept: the
+    /// next reads overwrite them), else one at a time as <typeparamref name="TRoom"/> records. Counting is the caller's.
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveInlining)]
-    internal void Again(Vector256<int> path, int nodes)
+    internal void RecordAgain(Vector256<int> path, int nodes)
     {
-        if (typeof(TCounts) == typeof(CostCounts))
-        {
-            Unsafe.As<TCounts, CostCounts>(ref Counts).NodeFetches += (uint)nodes;
-        }
-        else
-        {
-            for (int i = 0; i < nodes; i++)
-                Counts.NodeFetch(path.GetElement(i));
-        }
-        if (typeof(TRoom) == typeof(BoundedRoom) && _end - _next >= Vector256<int>.Count)
+        if (_end - _next >= Vector256<int>.Count)
         {
             path.Store(_next);
             _next += nodes;

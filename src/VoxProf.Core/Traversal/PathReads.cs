@@ -27,8 +27,9 @@ internal static unsafe class PathReads
         }
         if (typeof(TCounters) == typeof(MemoryCounts<CostCounts, BoundedRoom>) && nodes <= Block && path.Length >= Block)
         {
-            Unsafe.As<TCounters, MemoryCounts<CostCounts, BoundedRoom>>(ref counters).Again(
-                Vector256.LoadUnsafe(ref Unsafe.As<NodeRef, int>(ref MemoryMarshal.GetReference(path))), nodes);
+            ref MemoryCounts<CostCounts, BoundedRoom> recorded = ref Unsafe.As<TCounters, MemoryCounts<CostCounts, BoundedRoom>>(ref counters);
+            recorded.Counts.NodeFetches += (uint)nodes;
+            recorded.RecordAgain(Vector256.LoadUnsafe(ref Unsafe.As<NodeRef, int>(ref MemoryMarshal.GetReference(path))), nodes);
             return;
         }
         for (int i = 0; i < nodes; i++)
