@@ -1,5 +1,4 @@
 using System.Reflection;
-using System.Runtime.InteropServices;
 using System.Runtime.Loader;
 using Microsoft.CodeAnalysis;
 using Microsoft.CodeAnalysis.CSharp;
@@ -124,15 +123,7 @@ public static class StrategyFiles
 
     /// <summary>The runtime's own assemblies and VoxProf.Core: what a strategy file may use, and nothing of the rest of the tool.</summary>
     private static readonly Lazy<MetadataReference[]> References = new(() =>
-    {
-        string runtime = RuntimeEnvironment.GetRuntimeDirectory();
-        var paths = ((string?)AppContext.GetData("TRUSTED_PLATFORM_ASSEMBLIES") ?? "")
-            .Split(Path.PathSeparator, StringSplitOptions.RemoveEmptyEntries)
-            .Where(p => p.StartsWith(runtime, StringComparison.Ordinal))
-            .Append(typeof(IStrategy).Assembly.Location)
-            .Distinct();
-        return [.. paths.Select(p => MetadataReference.CreateFromFile(p))];
-    });
+        [.. RuntimeAssemblies.OfProcess().Append(typeof(IStrategy).Assembly.Location).Distinct().Select(p => MetadataReference.CreateFromFile(p))]);
 
     /// <summary>Resolves a library's own dependencies beside it; VoxProf.Core and the runtime come from the tool.</summary>
     private sealed class StrategyLoadContext(string path) : AssemblyLoadContext("voxprof:" + path)
