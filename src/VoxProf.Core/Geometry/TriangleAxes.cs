@@ -58,6 +58,7 @@ internal struct TriangleAxes
     public double MinU, MaxU, MinV, MaxV, MinW, MaxW;
 
     /// <summary>Sets up the axes of the triangle (a, b, c), given in world coordinates.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TriangleAxes Create(double ax, double ay, double az, double bx, double by, double bz,
         double cx, double cy, double cz)
     {
@@ -69,6 +70,7 @@ internal struct TriangleAxes
     }
 
     /// <summary>Sets up the axes with a chosen row axis (tests compare frames).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TriangleAxes Create(double ax, double ay, double az, double bx, double by, double bz,
         double cx, double cy, double cz, int rowAxis)
     {
@@ -123,6 +125,7 @@ internal struct TriangleAxes
     /// Narrows [<paramref name="lo"/>, <paramref name="hi"/>] (u indices) to the voxels of the row (v, w) that the
     /// triangle overlaps; false when there are none.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public readonly bool RowSpan(int iv, int iw, ref int lo, ref int hi)
     {
         if (iv > MaxV || iv + 1 < MinV || iw > MaxW || iw + 1 < MinW)
@@ -167,6 +170,7 @@ internal struct TriangleAxes
         Separate(minX - pad, minY - pad, minZ - pad, maxX + pad, maxY + pad, maxZ + pad) == Separation.None;
 
     /// <summary>The first group of axes that separates the triangle from the closed box, or None when they overlap.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public readonly Separation Separate(double minX, double minY, double minZ, double maxX, double maxY, double maxZ)
     {
         Span<double> lo = [minX, minY, minZ];
@@ -189,6 +193,7 @@ internal struct TriangleAxes
         return Separation.None;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void AddEdge(double eu, double ev, double ew)
     {
         Add(0, ew, -ev);
@@ -250,6 +255,7 @@ internal struct TriangleAxes
         private bool Test(int i, bool below) => below ? ReachesBelow(i) : ReachesAbove(i);
 
         // First index in [lo, hi + 1] from which a test that holds from some index on holds.
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public int FirstFrom(int lo, int hi, int guess, bool below)
         {
             int i = Math.Clamp(guess, lo, hi + 1);
@@ -261,6 +267,7 @@ internal struct TriangleAxes
         }
 
         // Last index in [lo − 1, hi] up to which a test that holds up to some index holds.
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public int LastUpTo(int lo, int hi, int guess, bool below)
         {
             int i = Math.Clamp(guess, lo - 1, hi);

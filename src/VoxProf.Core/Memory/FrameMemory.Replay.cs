@@ -11,6 +11,7 @@ public sealed partial class FrameMemory
     /// issues the k-th read of every lane that still has one, in lane order, and the distinct lines of that step
     /// (lanes reading one line share one request) go to the cache in the order they first appear.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private (long Accesses, long Hits) Replay(TileReads reads, TileScratch scratch)
     {
         SubgroupShape shape = _settings.Group;

@@ -100,6 +100,7 @@ public sealed partial class FrameMemory
     /// per pixel; one of many reads (grid's, over a thousand, rereading a few dozen nodes) goes through the set.
     /// </summary>
     [SkipLocalsInit]
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void PixelLines(TileReads reads, TileScratch scratch, uint[] cacheLines)
     {
         int shift = _settings.LineShift;
@@ -155,6 +156,7 @@ public sealed partial class FrameMemory
     /// The distinct lines of a few reads' records into <paramref name="lines"/>, first appearance first, counted in a
     /// <see cref="LineTable"/> on <paramref name="slots"/>, which must take every line the reads can touch.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static int FewLines(ReadOnlySpan<int> nodes, Span<int> slots, Span<int> lines, NodeLayout layout, int shift)
     {
         var table = new LineTable(slots, lines);
@@ -193,6 +195,7 @@ public sealed partial class FrameMemory
     /// within the tile, for <see cref="GroupsOfGroups"/>.
     /// </summary>
     [SkipLocalsInit]
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void GroupsOf(TileReads reads, TileScratch scratch, SubgroupShape shape, uint[] groups, bool keep)
     {
         int tileWidth = reads.X1 - reads.X0;
@@ -249,6 +252,7 @@ public sealed partial class FrameMemory
     /// tree strategy. Both tiles start on the tracer tile's corner, which the constructor holds both shapes to divide.
     /// </summary>
     [SkipLocalsInit]
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private void GroupsOfGroups(TileReads reads, TileScratch scratch, SubgroupShape smaller, SubgroupShape shape, uint[] groups)
     {
         int tilesX = shape.TilesX(_width);

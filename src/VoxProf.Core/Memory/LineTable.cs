@@ -18,6 +18,7 @@ internal ref struct LineTable
 
     /// <param name="slots">A power of two, at least 2; emptied here.</param>
     /// <param name="members">Where the members go; the table takes at most half as many lines as it has slots.</param>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public LineTable(Span<int> slots, Span<int> members)
     {
         if (slots.Length < 2 || !BitOperations.IsPow2(slots.Length))

@@ -33,6 +33,7 @@ internal static unsafe class VectorReads
     /// </summary>
     /// <param name="wide">Sixteen reads at a time with AVX-512 (<see cref="WideSupported"/>); false keeps to eight, as
     /// where it does not run, so tests can hold both to one answer.</param>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static void AddPixel(ReadOnlySpan<int> reads, Span<int> recent, LineSet set, NodeLayout layout, int shift, bool wide)
     {
         if (!BitOperations.IsPow2(recent.Length))
@@ -91,6 +92,7 @@ internal static unsafe class VectorReads
     /// cache's accesses and hits.
     /// </remarks>
     [SkipLocalsInit]
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static (long Accesses, long Hits) Replay(ReadOnlySpan<int> all, ReadOnlySpan<int> starts, ReadOnlySpan<int> ends, int longest,
         Span<int> nodes, Span<int> lines, NodeLayout layout, int shift, LruCache cache, bool wide)
     {

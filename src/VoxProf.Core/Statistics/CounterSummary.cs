@@ -1,5 +1,6 @@
 using System.Buffers;
 using System.Numerics;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Statistics;
 
@@ -35,6 +36,7 @@ public readonly record struct CounterSummary(long Total, double Mean, double P50
     /// The sum and the largest value, a vector at a time (every counter of every strategy is summarised, several
     /// million pixels each at 2560×1440). Integer sums are exact in any order; 64 bits hold 2³¹ pixels of 2³² − 1.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static (long Total, uint Max) TotalAndMax(ReadOnlySpan<uint> values)
     {
         ulong total = 0;
@@ -65,6 +67,7 @@ public readonly record struct CounterSummary(long Total, double Mean, double P50
 
     // Counter values are small (a ray rarely takes more than a few thousand steps), so counting beats sorting a
     // million-pixel copy; the order statistics then come from the cumulative counts.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static CounterSummary FromHistogram(ReadOnlySpan<uint> values, long total, uint max)
     {
         int bins = (int)max + 1;

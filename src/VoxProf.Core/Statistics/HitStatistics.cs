@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Traversal;
 
 namespace VoxProf.Core.Statistics;
@@ -6,6 +7,7 @@ namespace VoxProf.Core.Statistics;
 public static class HitStatistics
 {
     /// <summary>Fraction of pixels whose ray hit a voxel; 0 for an empty image.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double HitRate(ReadOnlySpan<PixelHit> hits)
     {
         if (hits.IsEmpty)

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Strategies;
 using VoxProf.Core.Traversal;
 
@@ -18,6 +19,7 @@ public sealed record MeasureDefinition(string Name, string Unit, bool LowerIsBet
     /// zero on every pixel (a total without the prepass), else a new array holding the per-pixel sum (saturating at
     /// <see cref="uint.MaxValue"/>, which no real ray reaches).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public uint[] Values(StrategyResult result)
     {
         if (Parts.Count == 1)

@@ -1,5 +1,6 @@
 using System.Buffers;
 using System.Numerics;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Statistics;
 
@@ -47,6 +48,7 @@ public readonly record struct SubgroupSummary(SubgroupShape Shape, int Tiles, do
 public static class SubgroupModel
 {
     /// <summary>Writes each tile's maximum into <paramref name="tileMax"/> (TilesX × TilesY, row-major).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static void TileMax(ReadOnlySpan<uint> costs, int width, int height, SubgroupShape shape, Span<uint> tileMax)
     {
         int tilesX = shape.TilesX(width);
@@ -84,6 +86,7 @@ public static class SubgroupModel
         }
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void MaxInto(Span<uint> maxima, ReadOnlySpan<uint> row)
     {
         int i = 0;

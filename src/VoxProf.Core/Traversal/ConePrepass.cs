@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
@@ -30,6 +31,7 @@ public static class ConePrepass
     /// the cone never meets the volume). Counts its iterations and its look-ups in <paramref name="grids"/> (one per
     /// level tested, less the tests it already knows the answer to).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, out uint iterations, out uint lookups)
     {
         int level = 0;
@@ -43,6 +45,7 @@ public static class ConePrepass
     /// would have started (the prepass starts a block's coarse ray where the enclosing block's stopped, and from its
     /// level: near geometry the coarse levels are never empty, and any empty level is a correct choice).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static double March(CoarseOccupancy grids, in RaySetup axis, double slope, double from, ref int startLevel,
         out uint iterations, out uint lookups)
     {

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
@@ -16,6 +17,7 @@ public struct GridStrategy : IStrategy, IStartsRayRecording
     public static string Description => "Amanatides & Woo 3D DDA over the finest voxels, with a tree lookup per voxel";
     public static bool UsesPrepass => false;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters

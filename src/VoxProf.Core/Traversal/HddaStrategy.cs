@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Memory;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Strategies;
@@ -17,6 +18,7 @@ public struct HddaStrategy : IStrategy, IStartsRayRecording
     public static string Name => "hdda";
     public static string Description => "Museth's hierarchical DDA: one DDA state that changes level";
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TCounters Trace<TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TBranching : struct, IBranching
         where TCounters : struct, ICostCounters

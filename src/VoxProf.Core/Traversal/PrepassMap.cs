@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Rays;
 using VoxProf.Core.Trees;
 
@@ -71,6 +72,7 @@ public sealed class PrepassMap
     /// (<see cref="TileCounts"/>): its share of its block's <see cref="BlockIterations"/> and
     /// <see cref="BlockNodeFetches"/>, a block at a time.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal void FillShares(Span<uint> tile, int x0, int y0, int x1, int y1)
     {
         if (((x0 | y0) & (Block - 1)) != 0 || x1 > _width || y1 > _height || x1 - x0 > Tracer.TileSize || y1 - y0 > Tracer.TileSize)
@@ -177,6 +179,7 @@ public sealed class PrepassMap
     /// there (less allowances for |p| and rounding), and the block's start is the later of T and its own. Its search for
     /// an empty grid level begins where the enclosing ray's next search would have.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void March(CoarseOccupancy grids, Camera camera, PrepassLevel level, PrepassLevel? enclosing, int index)
     {
         int block = level.Block;
@@ -231,6 +234,7 @@ public sealed class PrepassMap
     /// its digits at any angle and does not depend on the length of p, where an angle from the arc cosine of a dot
     /// product near 1 loses most of them. +∞ when some pixel ray may be 90° or more off the axis.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static double Cone(Camera camera, double ax, double ay, double az, int x0, int y0, int x1, int y1)
     {
         // The largest tan² over the corners: one square root at the end instead of one per corner.

@@ -22,7 +22,7 @@ public struct RayStart
     /// </summary>
     // Not inlined, like SetHit: once per ray, a call costs little, and a kernel's method body without these two compiles
     // to a tighter walk loop (the `kernels` benchmark, docs/performance.md "Ray start and hit out of line").
-    [MethodImpl(MethodImplOptions.NoInlining)]
+    [MethodImpl(MethodImplOptions.NoInlining | MethodImplOptions.AggressiveOptimization)]
     public static bool Clip<TCounters>(in TreeView view, in RaySetup ray, double tMin, ref TCounters counters, out RayStart start)
         where TCounters : struct, ICostCounters
     {
@@ -77,6 +77,7 @@ public struct RayStart
     /// the half-open rule: no face. An eye on a high face is outside; a ray moving in from there enters through that face
     /// at t = 0 (the highest such axis, as entry ties go to the last plane crossed).
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int FaceAtEye(in TreeView view, in RaySetup ray)
     {
         if (!ray.ParallelZ && ray.Iz < 0 && ray.Oz == view.ExtentZ) return 2;
@@ -99,7 +100,7 @@ public struct RayStart
     /// Records a hit on a solid cell of size 2^<paramref name="shift"/> at voxel (lx, ly, lz): the hit voxel is the
     /// cell's voxel the walk is in at key (t, lastAxis), by the same crossing order the reference walk follows.
     /// </summary>
-    [MethodImpl(MethodImplOptions.NoInlining)]
+    [MethodImpl(MethodImplOptions.NoInlining | MethodImplOptions.AggressiveOptimization)]
     public static void SetHit(ref PixelHit hit, in RaySetup ray, int lx, int ly, int lz, int shift, double t, int lastAxis, byte material)
     {
         hit.Hit = true;

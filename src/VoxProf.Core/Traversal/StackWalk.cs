@@ -25,6 +25,7 @@ public interface IWalkMode
 /// </summary>
 public static class StackWalk
 {
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TCounters Trace<TMode, TBranching, TCounters>(in TreeView view, in RaySetup ray, double tMin, Span<NodeRef> path, ref PixelHit hit)
         where TMode : struct, IWalkMode
         where TBranching : struct, IBranching

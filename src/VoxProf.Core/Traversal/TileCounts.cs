@@ -30,6 +30,7 @@ internal static class TileCounts
     /// tile is not copied: most strategies leave several counters at zero everywhere, and each counter copied costs the
     /// cache misses of sixteen scattered rows.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static void CopyTo(ReadOnlySpan<uint> tile, uint[][] buffers, int width, int x0, int y0, int x1, int y1)
     {
         int w = x1 - x0;

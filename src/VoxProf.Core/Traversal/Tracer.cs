@@ -150,6 +150,7 @@ public static class Tracer
     }
 
     /// <summary>The tile loop of one strategy, specialised per strategy, branching and counter type.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal static void TraceTile<TStrategy, TBranching, TCounters>(in TileJob job, int x0, int y0, int x1, int y1)
         where TStrategy : struct, IStrategy
         where TBranching : struct, IBranching
@@ -212,6 +213,7 @@ public static class Tracer
     }
 
     /// <summary>Whole voxels between where the ray would have entered the volume and where the prepass let it start.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static uint SkippedVoxels(in TreeView view, in RaySetup ray, double tMin)
     {
         // A block whose coarse ray could not advance skips nothing, whatever the slab test would say.

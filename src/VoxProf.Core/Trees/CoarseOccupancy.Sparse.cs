@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Trees;
 
@@ -108,6 +109,7 @@ public sealed partial class CoarseOccupancy
         /// in at most two parent cells along each axis; each occupied one is tested with the bits of its word that fall
         /// in the block.
         /// </summary>
+        [MethodImpl(MethodImplOptions.AggressiveOptimization)]
         public bool NeighbourhoodOccupied(long cx, long cy, long cz)
         {
             // Arithmetic shifts round towards -∞, as cell division must for the ring's negative cells.

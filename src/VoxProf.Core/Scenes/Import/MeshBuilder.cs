@@ -1,4 +1,5 @@
 using System.Globalization;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Scenes.Import;
 
@@ -34,6 +35,7 @@ internal sealed class MeshBuilder
     public int TriangleCount => _indexCount / 3;
 
     /// <summary>Returns the index of the vertex at this position, adding it if new; <paramref name="where"/> names the place for errors.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public int AddVertex(float x, float y, float z, string where)
     {
         if (!float.IsFinite(x) || !float.IsFinite(y) || !float.IsFinite(z))
@@ -77,6 +79,7 @@ internal sealed class MeshBuilder
     }
 
     /// <summary>Adds one triangle of vertex indices already checked by the caller.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void AddTriangle(int a, int b, int c, string where)
     {
         if (_indexCount / 3 >= TriangleMesh.MaxTriangles)

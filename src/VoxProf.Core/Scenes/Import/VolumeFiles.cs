@@ -1,5 +1,6 @@
 using System.Buffers.Binary;
 using System.Globalization;
+using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
 using System.Runtime.Intrinsics;
 
@@ -80,6 +81,7 @@ public static class VolumeFiles
     /// threshold, so one unsigned integer comparison decides, and each comparison's sign bits are the mask's bits.
     /// Thresholds no byte can pass or fail (NaN, 255 and above, below 0) are left to the sample-by-sample loop.
     /// </summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int ConvertByteWords(ReadOnlySpan<byte> bytes, Span<ulong> words, double threshold)
     {
         if (!Vector128.IsHardwareAccelerated || !(threshold >= 0 && threshold < byte.MaxValue))

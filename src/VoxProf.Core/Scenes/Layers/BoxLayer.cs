@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -24,6 +25,7 @@ public sealed class BoxLayer : Layer
 
     public override bool Contains(int x, int y, int z) => Bounds.Contains(x, y, z);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();

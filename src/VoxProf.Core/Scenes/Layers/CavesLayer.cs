@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Noise;
 
@@ -75,6 +76,7 @@ public sealed class CavesLayer : Layer
 
     public override bool Contains(int x, int y, int z) => Bounds.Contains(x, y, z) && Inside(x, y, z);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();
@@ -91,6 +93,7 @@ public sealed class CavesLayer : Layer
         }
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private bool Inside(int x, int y, int z)
     {
         double px = x + 0.5, py = (y + 0.5) * _yScale, pz = z + 0.5;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -69,6 +70,7 @@ public sealed class CylinderLayer : Layer
     }
 
     // The base class's loop, repeated so the calls to Contains are direct (this class is sealed) and can be inlined.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         int i = 0;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -57,6 +58,7 @@ internal sealed class HeightPyramid
     }
 
     /// <summary>Fills the inside test of the same columns, reading each column's height once.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public void Fill(in Box3i region, in Box3i bounds, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();
@@ -105,7 +107,7 @@ internal sealed class HeightPyramid
     private void Build(Level level, int k, Level? finer)
     {
         int nz = level.Min.Length / level.Nx;
-        Parallel.For(0, nz, tz =>
+        Parallel.For(0, nz, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (tz) =>
         {
             for (int tx = 0; tx < level.Nx; tx++)
             {

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -55,6 +56,7 @@ public sealed class HeightmapLayer : Layer
 
     public override bool Contains(int x, int y, int z) => Bounds.Contains(x, y, z) && y < _pyramid!.Height(x, z);
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         if (_pyramid is null)

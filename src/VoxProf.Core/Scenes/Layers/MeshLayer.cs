@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes.Meshes;
 
@@ -123,6 +124,7 @@ public sealed partial class MeshLayer : Layer
         return Rule != InsideRule.None && InteriorAt(x, y, z);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside = inside[..checked((int)region.Volume)];
@@ -142,6 +144,7 @@ public sealed partial class MeshLayer : Layer
     }
 
     /// <summary>Marks the voxels of <paramref name="clip"/> that the triangle overlaps, one run per row.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void StampSurface(in TriangleAxes axes, in Box3i region, in Box3i clip, Span<bool> inside)
     {
         int k = axes.RowAxis, kv = (k + 1) % 3, kw = (k + 2) % 3;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes.Import;
 
@@ -77,6 +78,7 @@ public sealed class RawLayer : Layer
     public override bool Contains(int x, int y, int z) =>
         Bounds.Contains(x, y, z) && Bit(Index(x - _ox, y - _oy, z - _oz));
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();
@@ -99,6 +101,7 @@ public sealed class RawLayer : Layer
     private bool Bit(int index) => ((_bits[index >> 6] >> index) & 1) != 0;
 
     /// <summary>The eight bits from voxel <paramref name="index"/> on, which may straddle two words.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private uint Bits8(int index)
     {
         int offset = index & 63;
@@ -141,6 +144,7 @@ public sealed class RawLayer : Layer
         return (any, all);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private (bool Any, bool All) ScanBrick(int bx, int by, int bz)
     {
         bool any = false, all = true;
@@ -175,6 +179,7 @@ public sealed class RawLayer : Layer
         p[i] = value + p[i - 1] + p[i - px] + p[i - pxy] - p[i - 1 - px] - p[i - 1 - pxy] - p[i - px - pxy]
             + p[i - 1 - px - pxy];
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int Sum(int[] p, int x0, int y0, int z0, int x1, int y1, int z1)
     {
         int px = _bx + 1, pxy = px * (_by + 1);

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Noise;
 
@@ -152,6 +153,7 @@ public sealed class ScatterLayer : Layer
         return false;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();

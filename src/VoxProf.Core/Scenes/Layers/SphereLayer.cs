@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Layers;
@@ -61,6 +62,7 @@ public sealed class SphereLayer : Layer
         return dx * dx + (dy * dy + dz * dz) <= _r2;
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         inside[..checked((int)region.Volume)].Clear();

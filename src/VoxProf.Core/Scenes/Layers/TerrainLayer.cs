@@ -81,6 +81,7 @@ public sealed class TerrainLayer : Layer
     public override bool Contains(int x, int y, int z) =>
         Bounds.Contains(x, y, z) && y < (_pyramid.IsValueCreated ? _pyramid.Value.Height(x, z) : ComputeHeight(x, z));
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public override void Fill(in Box3i region, Span<bool> inside)
     {
         if (Bounds.IsEmpty)
@@ -94,7 +95,7 @@ public sealed class TerrainLayer : Layer
         Box3i b = Bounds;
         int width = b.SizeX, depth = b.SizeZ;
         var heights = new ushort[(long)width * depth];
-        Parallel.For(0, depth, dz =>
+        Parallel.For(0, depth, [MethodImpl(MethodImplOptions.AggressiveOptimization)] (dz) =>
         {
             int z = b.MinZ + dz;
             int row = dz * width;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Scenes.Meshes;
@@ -139,6 +140,7 @@ internal sealed class TriangleBins
     }
 
     /// <summary>The axes of triangle <paramref name="t"/>, from its float corners.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public TriangleAxes Axes(int t)
     {
         int a = 3 * _tri[3 * t], b = 3 * _tri[3 * t + 1], c = 3 * _tri[3 * t + 2];
@@ -215,6 +217,7 @@ internal sealed class TriangleBins
     }
 
     /// <summary>Writes the triangle's pairs into <paramref name="pairs"/> (when not empty) and returns how many there are.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private int AddTriangle(int t, Span<ulong> pairs)
     {
         int n = 0;
@@ -247,6 +250,7 @@ internal sealed class TriangleBins
     }
 
     // Bins whose closed box meets the triangle's bounding box: b·S ≤ max and (b + 1)·S ≥ min.
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private ((int X, int Y, int Z) Lo, (int X, int Y, int Z) Hi) BinRange(int t)
     {
         double side = 1 << Shift;
@@ -310,6 +314,7 @@ internal sealed class TriangleBins
 
     private static long RowKey(int bx, int by, int bz) => ((long)bz << (2 * CoordBits)) | ((long)by << CoordBits) | (long)bx;
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int LowerBound<T>(T[] keys, int lo, int hi, T value) where T : IComparable<T>
     {
         while (lo < hi)

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
 
@@ -13,6 +14,7 @@ internal sealed partial class BuildWorker
     /// <paramref name="touching"/> lists that layer and every later one touching the cell.
     /// </summary>
     /// <returns>Empty, Solid (uniform <paramref name="cellBase"/>), or Node (mixed: subdivide or evaluate).</returns>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private CellKind Classify(in Box3i region, byte baseMaterial, ReadOnlySpan<int> layers, Span<int> touching,
         out byte cellBase, out int count)
     {

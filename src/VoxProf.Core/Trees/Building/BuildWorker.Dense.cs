@@ -1,4 +1,5 @@
 using System.Numerics;
+using System.Runtime.CompilerServices;
 using System.Runtime.InteropServices;
 using VoxProf.Core.Geometry;
 using VoxProf.Core.Scenes;
@@ -48,6 +49,7 @@ internal sealed partial class BuildWorker
         return DenseNode(level, 0, 0, 0);
     }
 
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private CellResult DenseNode(int level, int lx, int ly, int lz)
     {
         int n = _plan.N;
@@ -95,6 +97,7 @@ internal sealed partial class BuildWorker
     /// Most bricks of a block that crosses a surface lie wholly above or below it; reading a row of four voxels as
     /// one 32-bit word settles those with 16 compares instead of 64 byte tests.
     /// </remarks>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static int UniformBrick(ReadOnlySpan<byte> voxels, int start, int side)
     {
         uint first = MemoryMarshal.Read<uint>(voxels[start..]);
@@ -124,6 +127,7 @@ internal sealed partial class BuildWorker
     }
 
     /// <summary>Writes <paramref name="material"/> where the layer's inside test is true.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void Stamp(Span<byte> voxels, int side, in Box3i block, in Box3i sub, ReadOnlySpan<bool> inside, byte material)
     {
         ReadOnlySpan<byte> flags = MemoryMarshal.AsBytes(inside);
@@ -147,6 +151,7 @@ internal sealed partial class BuildWorker
 
     /// <summary>voxels[i] = flags[i] != 0 ? material : voxels[i], a vector at a time.</summary>
     /// <remarks>Branch-free, because rows that cross a surface mix inside and outside voxels unpredictably.</remarks>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private static void Blend(Span<byte> voxels, ReadOnlySpan<byte> flags, byte material)
     {
         int i = 0;

@@ -1,3 +1,4 @@
+using System.Runtime.CompilerServices;
 using VoxProf.Core.Geometry;
 
 namespace VoxProf.Core.Trees.Building;
@@ -180,6 +181,7 @@ internal sealed partial class BuildWorker
     }
 
     /// <summary>Collapses a node that is all empty or all one material; otherwise writes its children and materials.</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     private CellResult Finish(ref CellAccumulator acc)
     {
         if ((acc.ChildMask | acc.SolidMask) == 0)

@@ -1,9 +1,12 @@
+using System.Runtime.CompilerServices;
+
 namespace VoxProf.Core.Trees.Building;
 
 /// <summary>Counts a finished tree level by level by walking it from the root.</summary>
 internal static class TreeMeasure
 {
     /// <summary>The stats of <paramref name="tree"/> (whose own <see cref="BrickTree.Stats"/> are not read).</summary>
+    [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     public static TreeStats Measure(BrickTree tree, TimeSpan buildTime)
     {
         int depth = tree.Depth;
