@@ -1,5 +1,5 @@
-using System.Runtime.CompilerServices;
 using System.Numerics;
+using System.Runtime.CompilerServices;
 
 namespace VoxProf.Core.Rays;
 

@@ -1,8 +1,8 @@
 using System.Globalization;
 using VoxProf.Core.Calibration;
 using VoxProf.Core.Memory;
-using VoxProf.Core.Traversal;
 using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
 
 namespace VoxProf.Reports.Metrics;
 

@@ -59,8 +59,13 @@ public class PixelFileTests
         {
             hits[i] = new PixelHit
             {
-                Hit = rng.Next(3) > 0, Face = (HitFace)rng.Next(7), Material = (byte)rng.Next(256),
-                X = rng.Next(-5, 5000), Y = rng.Next(), Z = -rng.Next(), T = rng.NextDouble() * 1e4,
+                Hit = rng.Next(3) > 0,
+                Face = (HitFace)rng.Next(7),
+                Material = (byte)rng.Next(256),
+                X = rng.Next(-5, 5000),
+                Y = rng.Next(),
+                Z = -rng.Next(),
+                T = rng.NextDouble() * 1e4,
             };
         }
         return PixelData.From(new StrategyResult(BuiltInStrategies.DdaMask, w, h, counters, hits, TimeSpan.Zero));

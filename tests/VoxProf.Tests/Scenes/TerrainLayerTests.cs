@@ -27,15 +27,15 @@ public class TerrainLayerTests
         foreach (int size in new[] { 4, 8, 16 })
         {
             for (int z = 0; z < Extent.MaxZ; z += size)
-            for (int y = 0; y < Extent.MaxY; y += size)
-            for (int x = 0; x < Extent.MaxX; x += size)
-            {
-                var region = Box3i.Cube(x, y, z, size);
-                int inside = 0;
-                LayerChecks.ForEach(region, (a, b, c) => inside += layer.Contains(a, b, c) ? 1 : 0);
-                Coverage exact = inside == 0 ? Coverage.None : inside == region.Volume ? Coverage.Full : Coverage.Partial;
-                layer.Classify(region).Should().Be(exact, $"region {region}");
-            }
+                for (int y = 0; y < Extent.MaxY; y += size)
+                    for (int x = 0; x < Extent.MaxX; x += size)
+                    {
+                        var region = Box3i.Cube(x, y, z, size);
+                        int inside = 0;
+                        LayerChecks.ForEach(region, (a, b, c) => inside += layer.Contains(a, b, c) ? 1 : 0);
+                        Coverage exact = inside == 0 ? Coverage.None : inside == region.Volume ? Coverage.Full : Coverage.Partial;
+                        layer.Classify(region).Should().Be(exact, $"region {region}");
+                    }
         }
     }
 

@@ -126,10 +126,18 @@ internal sealed class TriangleBins
         var q = new Query
         {
             Region = r,
-            Bx0 = Math.Max(r.MinX >> s, _bx0), By0 = Math.Max(r.MinY >> s, _by0), Bz0 = Math.Max(r.MinZ >> s, _bz0),
-            Bx1 = Math.Min((r.MaxX - 1) >> s, _bx1), By1 = Math.Min((r.MaxY - 1) >> s, _by1), Bz1 = Math.Min((r.MaxZ - 1) >> s, _bz1),
-            Fx0 = (r.MinX + (1 << s) - 1) >> s, Fy0 = (r.MinY + (1 << s) - 1) >> s, Fz0 = (r.MinZ + (1 << s) - 1) >> s,
-            Fx1 = (r.MaxX >> s) - 1, Fy1 = (r.MaxY >> s) - 1, Fz1 = (r.MaxZ >> s) - 1,
+            Bx0 = Math.Max(r.MinX >> s, _bx0),
+            By0 = Math.Max(r.MinY >> s, _by0),
+            Bz0 = Math.Max(r.MinZ >> s, _bz0),
+            Bx1 = Math.Min((r.MaxX - 1) >> s, _bx1),
+            By1 = Math.Min((r.MaxY - 1) >> s, _by1),
+            Bz1 = Math.Min((r.MaxZ - 1) >> s, _bz1),
+            Fx0 = (r.MinX + (1 << s) - 1) >> s,
+            Fy0 = (r.MinY + (1 << s) - 1) >> s,
+            Fz0 = (r.MinZ + (1 << s) - 1) >> s,
+            Fx1 = (r.MaxX >> s) - 1,
+            Fy1 = (r.MaxY >> s) - 1,
+            Fz1 = (r.MaxZ >> s) - 1,
         };
         if (q.Bx0 > q.Bx1 || q.By0 > q.By1 || q.Bz0 > q.Bz1)
             return false;
