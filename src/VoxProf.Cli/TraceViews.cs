@@ -40,7 +40,7 @@ internal sealed record ShardChoice(int Index, int Count)
 internal static class TraceViews
 {
     /// <summary>Options that change no number and so are left out of the recorded command (and differ between shards).</summary>
-    private static readonly string[] Unrecorded = ["--out", "-o", "--shard", "--threads"];
+    private static readonly string[] Unrecorded = ["--out", "-o", "--shard", "--threads", "--tile-limit"];
 
     private static readonly string[] UnrecordedFlags = ["--quiet", "-q"];
 
@@ -64,7 +64,8 @@ internal static class TraceViews
     }
 
     public sealed record Request(Scene Scene, IReadOnlyList<CameraSpec> Views, ShardChoice? Shard, int Branching, int Width, int Height,
-        IReadOnlyList<StrategyDefinition> Strategies, int PrepassBlock, int Threads, MemorySettings? Memory, ReportOptions Options);
+        IReadOnlyList<StrategyDefinition> Strategies, int PrepassBlock, int Threads, MemorySettings? Memory, ReportOptions Options,
+        TileWatch? Watch = null);
 
     public static ReportResultSummary Run(Request r, OutputDirectory folder, TracePipeline pipeline, TextWriter error, bool showProgress)
     {
@@ -89,7 +90,7 @@ internal static class TraceViews
             var progress = showProgress
                 ? new TraceProgress(error, r.Height, r.Strategies.Select(x => x.Name).ToArray(), $"view {done}/{picked.Count} {view.Name}: ")
                 : null;
-            var request = new TraceRequest(r.Scene, tree!, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads, Memory: r.Memory);
+            var request = new TraceRequest(r.Scene, tree!, view, r.Width, r.Height, r.Strategies, r.PrepassBlock, r.Threads, Memory: r.Memory, Watch: r.Watch);
             TraceRun run = pipeline.Trace(request, progress);
             ReportResult written = ReportWriter.WriteFiles(run, r.Options, folder.Folder(folders[v]), progress);
             progress?.Finish();

@@ -23,7 +23,8 @@ internal sealed record TracePipeline(
     Func<Scene, int, int, BrickTree> BuildTree,
     Func<TraceRequest, IProgress<int>?, TraceRun> Trace,
     Func<bool> StderrIsTerminal,
-    Func<MemoryLimit>? AvailableMemory = null)
+    Func<MemoryLimit>? AvailableMemory = null,
+    Action<int>? Exit = null)
 {
     public static TracePipeline Default { get; } = new(
         SceneLoader.Load, (scene, branching, threads) => TreeBuilder.Build(scene, branching, threads),
@@ -75,6 +76,8 @@ public static class TraceCommand
         sceneOptions.AddTo(cmd);
         var memoryOptions = new MemoryOptions();
         memoryOptions.AddTo(cmd);
+        var tileLimit = new TileLimit();
+        tileLimit.AddTo(cmd);
         cmd.SetAction(parse =>
         {
             return Guard.Run(error, () =>
@@ -128,6 +131,7 @@ public static class TraceCommand
                 string? outOption = parse.GetValue(outDir);
                 OutputDirectory.CheckPath(outOption, "--out");
                 double maxWork = sceneOptions.MaxWork(parse);
+                TileWatch? watch = tileLimit.Watch(parse);
 
                 // Scene, camera, estimates, output directory (proved writable before the trace), tree, trace.
                 Scene loaded = pipeline.LoadScene(parse.GetValue(scene)!, sceneOptions.LoadOptions(parse));
@@ -147,6 +151,18 @@ public static class TraceCommand
                     : $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}{shardSuffix}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
+                using IDisposable stallCheck = TileLimit.Guard(watch, stall =>
+                {
+                    // The hung tile never returns, so this timer thread ends the run: the progress line stays above
+                    // (where it stopped), then one line, and the unfinished output is thrown away.
+                    if (showProgress)
+                        error.WriteLine();
+                    var (line, code) = TileLimit.Report(stall);
+                    error.WriteLine(line);
+                    error.Flush();
+                    folder.Dispose();
+                    (pipeline.Exit ?? Environment.Exit)(code);
+                });
                 var options = new ReportOptions
                 {
                     Scale = scaleKind,
@@ -164,7 +180,7 @@ public static class TraceCommand
                 };
                 if (severalViews)
                 {
-                    var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, memory, options);
+                    var request = new TraceViews.Request(loaded, views, shardChoice, branch, width, height, strategies, prepassBlock, threadCount, memory, options, watch);
                     ReportResultSummary written = TraceViews.Run(request, folder, pipeline, error, showProgress);
                     return Finish(output, error, options, written.Document.Views.Count, written.Files, written.Directory, written.Failures,
                         () => RunConsole.Write(output, written.Document));
@@ -173,7 +189,7 @@ public static class TraceCommand
                 TileShare? tiles = tileShard ? new TileShare(shardChoice!.Index, shardChoice.Count) : null;
                 ((IProgress<string>?)progress)?.Report($"building the tree of {loaded.Name} (branching {branch})");
                 BrickTree tree = pipeline.BuildTree(loaded, branch, threadCount);
-                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory, Tiles: tiles);
+                var traceRequest = new TraceRequest(loaded, tree, cam, width, height, strategies, prepassBlock, threadCount, Memory: memory, Tiles: tiles, Watch: watch);
                 TraceRun run = pipeline.Trace(traceRequest, progress);
                 if (tiles is not null)
                 {

@@ -13,7 +13,7 @@ namespace VoxProf.Core.Traversal;
 /// <see cref="CountWork"/> false runs the kernels with counting compiled out (for timing; counters stay zero).
 /// <see cref="Memory"/> turns the memory model on (docs/counters.md, "Memory traffic"); null leaves it off, and it
 /// never runs without counting. <see cref="Tiles"/> traces only that share of the image's tiles (the rest of every
-/// buffer stays zero); null traces them all.
+/// buffer stays zero); null traces them all. <see cref="Watch"/>, when given, is told when each tile starts and ends.
 /// </summary>
 public sealed record TraceRequest(
     Scene Scene,
@@ -26,7 +26,8 @@ public sealed record TraceRequest(
     int Threads = 0,
     bool CountWork = true,
     MemorySettings? Memory = null,
-    TileShare? Tiles = null);
+    TileShare? Tiles = null,
+    TileWatch? Watch = null);
 
 /// <summary>Runs every requested strategy over the same rays, in parallel over image tiles.</summary>
 public static class Tracer
@@ -101,9 +102,12 @@ public static class Tracer
             // The memory model's pass over a tile is timed apart from the tile's tracing: a strategy's time is its
             // tracing, not the analysis of its reads, which costs more the more a strategy reads (TimedSplit).
             long tracingTicks = 0, modelTicks = 0;
+            long[]? started = request.Watch?.Begin(definition, tiles, request.Width, request.Height);
             Parallel.For(0, tiles.Length, options, i =>
             {
                 var (x0, y0, x1, y1) = TileBounds(tiles[i], request.Width, request.Height);
+                if (started is not null)
+                    TileWatch.Mark(started, i, running: true);
                 try
                 {
                     if (memory is not null)
@@ -130,9 +134,15 @@ public static class Tracer
                             fault = StrategyFault.In(definition, i, (x0, y0, x1, y1), ex);
                     }
                 }
+                finally
+                {
+                    if (started is not null)
+                        TileWatch.Mark(started, i, running: false);
+                }
                 long done = Interlocked.Add(ref pixelsDone, (long)(x1 - x0) * (y1 - y0));
                 rowsDone?.Report((int)(done / request.Width));
             });
+            request.Watch?.End();
             if (fault is not null)
                 throw fault;
             pixelsDone = before + heldPixels;
