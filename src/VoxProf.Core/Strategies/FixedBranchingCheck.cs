@@ -10,7 +10,7 @@ namespace VoxProf.Core.Strategies;
 /// tree view reads a node record as the branching says, without a check per read (the kernels' speed depends on
 /// that), so a fixed 4³ read on an 8³ tree would read past the end of an empty array: wrong counts at best. The
 /// compiler cannot see this; the type arguments can, so the file is refused at load time with the place named.
-/// A library given with --strategy-assembly is loaded as built, unchecked (docs/writing-a-strategy.md says so).
+/// A library given with --strategy-assembly is held to the same rule by <see cref="FixedBranchingIl"/>.
 /// </summary>
 internal static class FixedBranchingCheck
 {
