@@ -205,7 +205,12 @@ public static class TraceCommand
                 ReportResult result = ReportWriter.WriteAll(run, options, folder, progress);
                 progress?.Finish();
                 return Finish(output, error, options, 1, result.Files.Count, result.Directory, result.Failures,
-                    () => SummaryConsole.Write(output, result.Document));
+                    () =>
+                    {
+                        SummaryConsole.Write(output, result.Document);
+                        foreach (string line in MismatchLines.For(run))
+                            output.WriteLine(line);
+                    });
             });
         });
         return cmd;

@@ -21,6 +21,19 @@ public static class HitStatistics
         return (double)n / hits.Length;
     }
 
+    /// <summary>The first pixel (row-major) whose hit voxel, or hit or miss, differs from <paramref name="reference"/>; -1 when none does.</summary>
+    public static int FirstMismatch(ReadOnlySpan<PixelHit> hits, ReadOnlySpan<PixelHit> reference)
+    {
+        if (hits.Length != reference.Length)
+            throw new ArgumentException("images differ in size", nameof(reference));
+        for (int i = 0; i < hits.Length; i++)
+        {
+            if (!hits[i].SameVoxel(reference[i]))
+                return i;
+        }
+        return -1;
+    }
+
     /// <summary>Pixels whose hit voxel (or hit/miss) differs from <paramref name="reference"/>.</summary>
     public static long MismatchCount(ReadOnlySpan<PixelHit> hits, ReadOnlySpan<PixelHit> reference)
     {

@@ -1,0 +1,49 @@
+using System.Globalization;
+using VoxProf.Core.Statistics;
+using VoxProf.Core.Traversal;
+
+namespace VoxProf.Reports.Tables;
+
+/// <summary>
+/// The lines `voxprof trace` prints under its table for each strategy whose hits differ from grid's: how many pixels,
+/// and the first of them (row-major) with both hits, so the hunt for the bug starts at a pixel rather than at a count
+/// (report.html's readout shows any other).
+/// </summary>
+public static class MismatchLines
+{
+    public static IReadOnlyList<string> For(TraceRun run)
+    {
+        if (run.Reference is not { } grid)
+            return [];
+        var lines = new List<string>();
+        foreach (StrategyResult result in run.Results)
+        {
+            if (ReferenceEquals(result, grid))
+                continue;
+            int first = HitStatistics.FirstMismatch(result.Hits, grid.Hits);
+            if (first < 0)
+                continue;
+            long count = HitStatistics.MismatchCount(result.Hits, grid.Hits);
+            string name = result.Strategy.Name;
+            lines.Add(string.Create(CultureInfo.InvariantCulture,
+                $"{name}: {count} {(count == 1 ? "pixel differs" : "pixels differ")} from grid; the first, pixel ({first % result.Width}, {first / result.Width}): " +
+                $"grid {Describe(grid.Hits[first])}; {name} {Describe(result.Hits[first])}"));
+        }
+        return lines;
+    }
+
+    /// <summary>"hit voxel (12, 4, 30) through -x at t 41.25, material 3", "hit voxel (…) from inside at t 0, …" or "missed".</summary>
+    public static string Describe(in PixelHit hit)
+    {
+        if (!hit.Hit)
+            return "missed";
+        // A strategy of the user's may write any byte as the face; only the six real ones have names.
+        string face = hit.Face switch
+        {
+            HitFace.None => "from inside",
+            <= HitFace.PosZ => "through " + PixelHit.FaceName(hit.Face),
+            _ => string.Create(CultureInfo.InvariantCulture, $"through face code {(int)hit.Face}"),
+        };
+        return string.Create(CultureInfo.InvariantCulture, $"hit voxel ({hit.X}, {hit.Y}, {hit.Z}) {face} at t {hit.T:G9}, material {hit.Material}");
+    }
+}
