@@ -3,6 +3,7 @@ using Microsoft.CodeAnalysis;
 using Microsoft.CodeAnalysis.CSharp;
 using VoxProf.Cli;
 using VoxProf.Core.Strategies;
+using VoxProf.Tests.Cli.Commands;
 
 namespace VoxProf.Tests.Strategies;
 
@@ -12,15 +13,12 @@ namespace VoxProf.Tests.Strategies;
 /// </summary>
 public sealed class StrategyLibraryTests : IDisposable
 {
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-slib-{Guid.NewGuid():N}");
-    private readonly StringWriter _out = new(), _err = new();
-    private static readonly string Scene = Path.Combine(AppContext.BaseDirectory, "samples", "ring-post.vpscene.json");
+    private readonly SampleRun _run = new("slib");
+    private static readonly string Scene = SampleRun.Scene;
 
-    public StrategyLibraryTests() => Directory.CreateDirectory(_dir);
+    public void Dispose() => _run.Dispose();
 
-    public void Dispose() => Directory.Delete(_dir, recursive: true);
-
-    private int Run(params string[] args) => VoxProf.Cli.Cli.Run(args, _out, _err);
+    private int Run(params string[] args) => _run.Run(args);
 
     /// <summary>Compiles <paramref name="source"/> into DIR/NAME.dll against the runtime and VoxProf.Core, as a class library project would.</summary>
     private string Library(string name, string source)
@@ -28,7 +26,7 @@ public sealed class StrategyLibraryTests : IDisposable
         var compilation = CSharpCompilation.Create(name, [CSharpSyntaxTree.ParseText(source)],
             RuntimeAssemblies.OfProcess().Append(typeof(IStrategy).Assembly.Location).Distinct().Select(p => MetadataReference.CreateFromFile(p)),
             new CSharpCompilationOptions(OutputKind.DynamicallyLinkedLibrary, optimizationLevel: OptimizationLevel.Release));
-        string path = Path.Combine(_dir, name + ".dll");
+        string path = _run.In(name + ".dll");
         var emitted = compilation.Emit(path);
         emitted.Success.Should().BeTrue(string.Join("\n", emitted.Diagnostics));
         return path;
@@ -43,12 +41,12 @@ public sealed class StrategyLibraryTests : IDisposable
     {
         string lib = Library("Walks", Usings + StrategySource.Struct("LibWalk", "lib-walk",
             "        counters = HddaStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);"));
-        string outDir = Path.Combine(_dir, "out");
+        string outDir = _run.In("out");
 
         int code = Run("trace", Scene, "--strategy-assembly", lib, "--strategy", "grid,hdda,lib-walk", "--branching", branching,
             "--size", "40x20", "--no-html", "--quiet", "--out", outDir);
 
-        code.Should().Be(ExitCodes.Ok, _err.ToString());
+        code.Should().Be(ExitCodes.Ok, _run.Err.ToString());
         using var json = JsonDocument.Parse(File.ReadAllText(Path.Combine(outDir, "report.json")));
         var values = json.RootElement.GetProperty("strategies").EnumerateArray()
             .ToDictionary(s => s.GetProperty("name").GetString()!, s => s.GetProperty("values"));
@@ -82,16 +80,16 @@ public sealed class StrategyLibraryTests : IDisposable
             """;
         string lib = Library("FixedWalks", source);
 
-        int code = Run("trace", Scene, "--strategy-assembly", lib, "--size", "40x20", "--quiet", "--out", Path.Combine(_dir, "out"));
+        int code = Run("trace", Scene, "--strategy-assembly", lib, "--size", "40x20", "--quiet", "--out", _run.In("out"));
 
         code.Should().Be(ExitCodes.BadInput);
         string tail = ", which fixes the branching; pass the TBranching type parameter Trace was given, which is the traced tree's (a fixed one reads the wrong node records on a tree of another branching)";
-        _err.ToString().Split('\n', StringSplitOptions.RemoveEmptyEntries).Should().Equal(
+        _run.Err.ToString().Split('\n', StringSplitOptions.RemoveEmptyEntries).Should().Equal(
             $"{lib}: error: Fixed.Trace names IsOccupied<Branching4>{tail}",
             $"{lib}: error: Fixed.Cell names NodeCells<Branching8>.Bit{tail}",
             $"{lib}: error: Fixed.Cell names NodeCells<OwnBranching>.Last{tail}",
             $"voxprof: error: {lib}: 3 errors");
-        Directory.Exists(Path.Combine(_dir, "out")).Should().BeFalse();
+        Directory.Exists(_run.In("out")).Should().BeFalse();
     }
 
     [Fact]
@@ -106,14 +104,14 @@ public sealed class StrategyLibraryTests : IDisposable
     [Fact]
     public void A_file_that_is_not_a_library_and_a_library_without_strategies_are_refused_in_one_line()
     {
-        string text = Path.Combine(_dir, "notes.dll");
+        string text = _run.In("notes.dll");
         File.WriteAllText(text, "not a portable executable");
-        Run("trace", Scene, "--strategy-assembly", text, "--quiet", "--out", Path.Combine(_dir, "a")).Should().Be(ExitCodes.BadInput);
-        _err.ToString().Should().StartWith($"voxprof: error: {text}: not a .NET library (").And.EndWith(")\n");
+        Run("trace", Scene, "--strategy-assembly", text, "--quiet", "--out", _run.In("a")).Should().Be(ExitCodes.BadInput);
+        _run.Err.ToString().Should().StartWith($"voxprof: error: {text}: not a .NET library (").And.EndWith(")\n");
 
-        _err.GetStringBuilder().Clear();
+        _run.Err.GetStringBuilder().Clear();
         string empty = Library("Empty", "public static class Helpers { public static int One => 1; }");
-        Run("trace", Scene, "--strategy-assembly", empty, "--quiet", "--out", Path.Combine(_dir, "b")).Should().Be(ExitCodes.BadInput);
-        _err.ToString().Should().Be($"voxprof: error: {empty}: defines no strategy; expected a public struct implementing VoxProf.Core.Strategies.IStrategy\n");
+        Run("trace", Scene, "--strategy-assembly", empty, "--quiet", "--out", _run.In("b")).Should().Be(ExitCodes.BadInput);
+        _run.Err.ToString().Should().Be($"voxprof: error: {empty}: defines no strategy; expected a public struct implementing VoxProf.Core.Strategies.IStrategy\n");
     }
 }

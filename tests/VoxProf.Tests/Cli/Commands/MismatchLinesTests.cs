@@ -11,26 +11,22 @@ namespace VoxProf.Tests.Cli.Commands;
 /// <summary>The line trace prints under its table for a strategy whose hits differ from grid's.</summary>
 public sealed class MismatchLinesTests : IDisposable
 {
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-mismatch-{Guid.NewGuid():N}");
-    private readonly StringWriter _out = new(), _err = new();
-    private static readonly string Scene = Path.Combine(AppContext.BaseDirectory, "samples", "ring-post.vpscene.json");
+    private readonly SampleRun _run = new("mismatch");
 
-    public MismatchLinesTests() => Directory.CreateDirectory(_dir);
-
-    public void Dispose() => Directory.Delete(_dir, recursive: true);
+    public void Dispose() => _run.Dispose();
 
     [Fact]
     public void A_strategy_that_loses_some_hits_is_named_with_its_count_and_the_first_pixel_grids_pixel_file_says_it_loses()
     {
-        string file = Path.Combine(_dir, "blind.cs");
+        string file = _run.In("blind.cs");
         File.WriteAllText(file, StrategySource.Of("Blind", "blind",
             "        counters = HddaStrategy.Trace<TBranching, TCounters>(view, ray, tMin, path, ref hit);\n        if (hit.X % 2 == 0) hit = default;"));
-        string outDir = Path.Combine(_dir, "out");
+        string outDir = _run.In("out");
 
-        int code = VoxProf.Cli.Cli.Run(["trace", Scene, "--strategy-file", file, "-s", "grid,dda,blind", "--size", "48x32", "--no-html", "--quiet",
-            "--out", outDir], _out, _err);
+        int code = _run.Run("trace", SampleRun.Scene, "--strategy-file", file, "-s", "grid,dda,blind", "--size", "48x32", "--no-html", "--quiet",
+            "--out", outDir);
 
-        code.Should().Be(ExitCodes.Ok, _err.ToString());
+        code.Should().Be(ExitCodes.Ok, _run.Err.ToString());
         // The oracle is grid's own pixel file: the first pixel in row order whose hit is on an even x is the one lost.
         PixelData grid = PixelDataFile.Read(Path.Combine(outDir, "pixels-grid.bin.gz"));
         int first = Array.FindIndex(grid.Hits, h => h.Hit && h.X % 2 == 0);
@@ -41,7 +37,7 @@ public sealed class MismatchLinesTests : IDisposable
             .Single(s => s.GetProperty("name").GetString() == "blind").GetProperty("values").GetProperty("mismatch").GetDouble();
         count.Should().Be(grid.Hits.Count(h => h.Hit && h.X % 2 == 0));
 
-        string[] lines = _out.ToString().TrimEnd('\n').Split('\n');
+        string[] lines = _run.Out.ToString().TrimEnd('\n').Split('\n');
         lines.Where(l => l.Contains("differ", StringComparison.Ordinal)).Should().Equal(string.Create(CultureInfo.InvariantCulture,
             $"blind: {count} pixels differ from grid; the first, pixel ({first % 48}, {first / 48}): grid hit voxel ({lost.X}, {lost.Y}, {lost.Z}) " +
             $"through {PixelHit.FaceName(lost.Face)} at t {lost.T:G9}, material {lost.Material}; blind missed"));

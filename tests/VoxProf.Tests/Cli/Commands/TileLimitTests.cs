@@ -10,13 +10,9 @@ namespace VoxProf.Tests.Cli.Commands;
 /// <summary>trace --tile-limit: a strategy whose loop never ends is reported, and the run ends, instead of hanging.</summary>
 public sealed class TileLimitTests : IDisposable
 {
-    private readonly string _dir = Path.Combine(Path.GetTempPath(), $"voxprof-hang-{Guid.NewGuid():N}");
-    private readonly StringWriter _out = new(), _err = new();
-    private static readonly string Scene = Path.Combine(AppContext.BaseDirectory, "samples", "ring-post.vpscene.json");
+    private readonly SampleRun _run = new("hang");
 
-    public TileLimitTests() => Directory.CreateDirectory(_dir);
-
-    public void Dispose() => Directory.Delete(_dir, recursive: true);
+    public void Dispose() => _run.Dispose();
 
     [Theory]
     [InlineData("front")]
@@ -25,11 +21,11 @@ public sealed class TileLimitTests : IDisposable
     {
         // The strategy waits for a file only the test's exit creates: stuck as a loop that never ends would be, but
         // released once the command has given up, so the test process keeps no spinning thread.
-        string release = Path.Combine(_dir, "release");
-        string file = Path.Combine(_dir, "stuck.cs");
+        string release = _run.In("release");
+        string file = _run.In("stuck.cs");
         File.WriteAllText(file, StrategySource.Of("Stuck", "stuck",
             $"        while (!System.IO.File.Exists(@\"{release}\")) System.Threading.Thread.Sleep(5);"));
-        string outDir = Path.Combine(_dir, "out");
+        string outDir = _run.In("out");
         Directory.CreateDirectory(outDir);
         int? exitCode = null;
         var pipeline = TracePipeline.Default with
@@ -46,18 +42,18 @@ public sealed class TileLimitTests : IDisposable
                 throw new InputException(exitCode is null ? "the trace ended without a stall" : "stopped by the test");
             },
         };
-        var root = new RootCommand { TraceCommand.Create(_out, _err, pipeline) };
+        var root = new RootCommand { TraceCommand.Create(_run.Out, _run.Err, pipeline) };
 
-        int code = root.Parse(["trace", Scene, "--strategy-file", file, "--strategy", "dda,stuck", "--size", "40x20", "--threads", "1", "--camera", cameras,
-            "--tile-limit", "0.2", "--quiet", "--out", outDir]).Invoke(new InvocationConfiguration { Output = _out, Error = _err });
+        int code = root.Parse(["trace", SampleRun.Scene, "--strategy-file", file, "--strategy", "dda,stuck", "--size", "40x20", "--threads", "1", "--camera", cameras,
+            "--tile-limit", "0.2", "--quiet", "--out", outDir]).Invoke(new InvocationConfiguration { Output = _run.Out, Error = _run.Err });
 
         exitCode.Should().Be(ExitCodes.BadInput, "the hang is in the user's strategy, not in VoxProf");
-        string[] lines = _err.ToString().TrimEnd('\n').Split('\n');
+        string[] lines = _run.Err.ToString().TrimEnd('\n').Split('\n');
         lines[0].Should().MatchRegex($@"^voxprof: error: {System.Text.RegularExpressions.Regex.Escape(file)}: strategy 'stuck' has traced the pixels \(0, 0\) to \(15, 15\) for \d+(\.\d)? s without finishing; does every step of its loop advance the ray\? \(--tile-limit SECONDS allows slower tiles, 0 turns this check off\)$");
         lines[1].Should().Be("voxprof: error: stopped by the test");
         code.Should().Be(ExitCodes.BadInput);
         Directory.EnumerateFileSystemEntries(outDir).Should().BeEmpty("the folder is left as it was");
-        Directory.EnumerateDirectories(_dir).Should().Equal([outDir], "the run's hidden stage folder is thrown away");
+        Directory.EnumerateDirectories(_run.Dir).Should().Equal([outDir], "the run's hidden stage folder is thrown away");
     }
 
     [Theory]
@@ -66,10 +62,10 @@ public sealed class TileLimitTests : IDisposable
     [InlineData("NaN")]
     public void A_tile_limit_that_is_not_seconds_is_refused_before_the_scene_is_read(string value)
     {
-        int code = VoxProf.Cli.Cli.Run(["trace", "no-such-scene.json", "--tile-limit", value], _out, _err);
+        int code = _run.Run("trace", "no-such-scene.json", "--tile-limit", value);
 
         code.Should().Be(ExitCodes.BadInput);
-        _err.ToString().Should().Be($"voxprof: error: --tile-limit: '{value}' is not valid, expected seconds from 0 (no check) to 1000000, such as 30 or 2.5\n");
+        _run.Err.ToString().Should().Be($"voxprof: error: --tile-limit: '{value}' is not valid, expected seconds from 0 (no check) to 1000000, such as 30 or 2.5\n");
     }
 
     [Fact]
