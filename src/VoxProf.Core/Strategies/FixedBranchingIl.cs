@@ -45,6 +45,7 @@ internal static class FixedBranchingIl
                 MethodDefinition method = md.GetMethodDefinition(mh);
                 if (method.RelativeVirtualAddress == 0)
                     continue;
+                names.Within(type, method);
                 var found = new SortedSet<string>(StringComparer.Ordinal);
                 BlobReader il = pe.GetMethodBody(method.RelativeVirtualAddress).GetILReader();
                 while (il.RemainingBytes > 0)
@@ -98,6 +99,14 @@ internal static class FixedBranchingIl
     private sealed class Names(MetadataReader md) : ISignatureTypeProvider<string, object?>
     {
         private bool _fixed;
+        private string[] _typeParameters = [], _methodParameters = [];
+
+        /// <summary>The method whose body is read next: its type parameters are named as the source names them (TCounters).</summary>
+        public void Within(TypeDefinition type, MethodDefinition method)
+        {
+            _typeParameters = [.. type.GetGenericParameters().Select(p => md.GetString(md.GetGenericParameter(p).Name))];
+            _methodParameters = [.. method.GetGenericParameters().Select(p => md.GetString(md.GetGenericParameter(p).Name))];
+        }
 
         /// <summary>"IsOccupied&lt;Branching4&gt;" when the token instantiates something with a branching type; else null.</summary>
         public string? Fixed(EntityHandle token)
@@ -118,7 +127,10 @@ internal static class FixedBranchingIl
             MethodSpecification spec = md.GetMethodSpecification(handle);
             string arguments = string.Join(", ", spec.DecodeSignature(this, null));
             if (spec.Method.Kind != HandleKind.MemberReference)
-                return $"{md.GetString(md.GetMethodDefinition((MethodDefinitionHandle)spec.Method).Name)}<{arguments}>";
+            {
+                MethodDefinition own = md.GetMethodDefinition((MethodDefinitionHandle)spec.Method);
+                return $"{md.GetString(md.GetTypeDefinition(own.GetDeclaringType()).Name)}.{md.GetString(own.Name)}<{arguments}>";
+            }
             MemberReference member = md.GetMemberReference((MemberReferenceHandle)spec.Method);
             return $"{Owner(member.Parent)}{md.GetString(member.Name)}<{arguments}>";
         }
@@ -131,10 +143,14 @@ internal static class FixedBranchingIl
             return $"{Owner(member.Parent)}{(name.StartsWith("get_", StringComparison.Ordinal) ? name[4..] : name)}";
         }
 
-        /// <summary>"TYPE&lt;ARGS&gt;." when the member belongs to an instantiated generic type, else nothing.</summary>
-        private string Owner(EntityHandle parent) => parent.Kind == HandleKind.TypeSpecification
-            ? md.GetTypeSpecification((TypeSpecificationHandle)parent).DecodeSignature(this, null) + "."
-            : "";
+        /// <summary>"TYPE." or "TYPE&lt;ARGS&gt;." of the type a member belongs to.</summary>
+        private string Owner(EntityHandle parent) => parent.Kind switch
+        {
+            HandleKind.TypeSpecification => md.GetTypeSpecification((TypeSpecificationHandle)parent).DecodeSignature(this, null) + ".",
+            HandleKind.TypeReference => md.GetString(md.GetTypeReference((TypeReferenceHandle)parent).Name) + ".",
+            HandleKind.TypeDefinition => md.GetString(md.GetTypeDefinition((TypeDefinitionHandle)parent).Name) + ".",
+            _ => "",
+        };
 
         public string GetGenericInstantiation(string genericType, ImmutableArray<string> typeArguments) =>
             $"{genericType.Split('`')[0]}<{string.Join(", ", typeArguments)}>";
@@ -173,7 +189,7 @@ internal static class FixedBranchingIl
         public string GetPinnedType(string elementType) => elementType;
         public string GetModifiedType(string modifier, string unmodifiedType, bool isRequired) => unmodifiedType;
         public string GetFunctionPointerType(MethodSignature<string> signature) => "delegate*";
-        public string GetGenericMethodParameter(object? context, int index) => $"!!{index}";
-        public string GetGenericTypeParameter(object? context, int index) => $"!{index}";
+        public string GetGenericMethodParameter(object? context, int index) => index < _methodParameters.Length ? _methodParameters[index] : $"!!{index}";
+        public string GetGenericTypeParameter(object? context, int index) => index < _typeParameters.Length ? _typeParameters[index] : $"!{index}";
     }
 }

@@ -72,7 +72,7 @@ public sealed class StrategyLibraryTests : IDisposable
                     NodeRef root = view.Fetch(0, ref counters);
                     if (view.IsOccupied<Branching4>(root, Cell()))
                         hit = default;
-                    return counters;
+                    return HddaStrategy.Trace<Branching8, TCounters>(view, ray, tMin, path, ref hit);
                 }
                 private static int Cell() => NodeCells<Branching8>.Bit(1, 0, 0) + NodeCells<OwnBranching>.Last;
             }
@@ -85,10 +85,11 @@ public sealed class StrategyLibraryTests : IDisposable
         code.Should().Be(ExitCodes.BadInput);
         string tail = ", which fixes the branching; pass the TBranching type parameter Trace was given, which is the traced tree's (a fixed one reads the wrong node records on a tree of another branching)";
         _run.Err.ToString().Split('\n', StringSplitOptions.RemoveEmptyEntries).Should().Equal(
-            $"{lib}: error: Fixed.Trace names IsOccupied<Branching4>{tail}",
+            $"{lib}: error: Fixed.Trace names HddaStrategy.Trace<Branching8, TCounters>{tail}",
+            $"{lib}: error: Fixed.Trace names TreeView.IsOccupied<Branching4>{tail}",
             $"{lib}: error: Fixed.Cell names NodeCells<Branching8>.Bit{tail}",
             $"{lib}: error: Fixed.Cell names NodeCells<OwnBranching>.Last{tail}",
-            $"voxprof: error: {lib}: 3 errors");
+            $"voxprof: error: {lib}: 4 errors");
         Directory.Exists(_run.In("out")).Should().BeFalse();
     }
 
