@@ -217,8 +217,23 @@ public class GateRuleTests
 
         verdict.UsedDefaultRules.Should().BeTrue();
         verdict.Outcomes.Select(o => o.Rule.Text).Should().Equal(GateRules.Default);
-        verdict.Outcomes.Should().OnlyContain(o => !o.Holds, "a 6% rise in mean total iterations and tile maxima breaks both 5% limits");
+        verdict.Outcomes.Select(o => o.Holds).Should().Equal([false, false, true],
+            "a 6% rise in mean total iterations and tile maxima breaks both 5% limits; no pixel hits differently");
         GateRules.Evaluate(Compare(WithTotals(1), WithTotals(1.04)), []).Passed.Should().BeTrue();
+    }
+
+    [Fact]
+    public void Without_rules_a_new_mismatched_pixel_fails_the_gate_and_a_run_without_grid_skips_that_rule()
+    {
+        var clean = ReportFixtures.Report(ReportFixtures.Strategy("dda", 10));
+        var wrong = ReportFixtures.Report(ReportFixtures.Strategy("dda", 9).With(ReportFixtures.Facts(mismatch: 1)));
+        var notChecked = ReportFixtures.Report(ReportFixtures.Strategy("dda", 9).With(ReportFixtures.Facts(mismatch: null)));
+
+        var verdict = GateRules.Evaluate(Compare(clean, wrong), []);
+        verdict.Passed.Should().BeFalse("less work bought with one wrong pixel is not an improvement");
+        verdict.BrokenRules.Select(o => o.Rule.Text).Should().Equal("all.mismatch:0");
+        GateRules.Evaluate(Compare(wrong, clean), []).Passed.Should().BeTrue("a mismatch fixed is no worse");
+        GateRules.Evaluate(Compare(clean, notChecked), []).Outcomes.Select(o => o.Rule.Text).Should().NotContain("all.mismatch:0");
     }
 
     [Fact]
@@ -226,7 +241,7 @@ public class GateRuleTests
     {
         var verdict = GateRules.Evaluate(Compare(ReportFixtures.Standard(), ReportFixtures.Standard(1.06)), []);
 
-        verdict.Outcomes.Select(o => o.Rule.Text).Should().Equal("all.subgroup32.tile-max-mean:5%");
+        verdict.Outcomes.Select(o => o.Rule.Text).Should().Equal("all.subgroup32.tile-max-mean:5%", "all.mismatch:0");
         verdict.Passed.Should().BeFalse();
     }
 
