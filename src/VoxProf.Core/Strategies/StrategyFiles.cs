@@ -59,7 +59,15 @@ public static class StrategyFiles
             throw new InputException($"{path}: not a .NET library ({ex.Message})");
         }
         // Loading runs none of the library's code; reading its strategies' names below does, so the check comes first.
-        IReadOnlyList<string> fixedBranching = FixedBranchingIl.Problems(full, path);
+        IReadOnlyList<string> fixedBranching;
+        try
+        {
+            fixedBranching = FixedBranchingIl.Problems(full, path);
+        }
+        catch (BadImageFormatException ex)
+        {
+            throw new InputException($"{path}: its method bodies cannot be read ({ex.Message}); build it with the .NET SDK");
+        }
         if (fixedBranching.Count > 0)
             throw new StrategyCompileException(path, [.. fixedBranching.Take(MaxErrors)], fixedBranching.Count, "error");
         return FromAssembly(assembly, path);

@@ -1,4 +1,7 @@
+using System.Reflection;
+using System.Reflection.Emit;
 using System.Text.Json;
+using System.Text.RegularExpressions;
 using Microsoft.CodeAnalysis;
 using Microsoft.CodeAnalysis.CSharp;
 using VoxProf.Cli;
@@ -100,6 +103,25 @@ public sealed class StrategyLibraryTests : IDisposable
         // past a body's end or turn data into a token that is not in the tables, and the reader throws on either.
         FixedBranchingIl.Problems(typeof(object).Assembly.Location, "corelib").Should().BeEmpty();
         FixedBranchingIl.Problems(typeof(IStrategy).Assembly.Location, "core").Should().BeEmpty("VoxProf's own types are definitions there, not references");
+    }
+
+    [Fact]
+    public void A_library_whose_method_bodies_cannot_be_read_is_refused_in_one_line()
+    {
+        // A body calling a method specification that is not in the tables: the loader accepts the file (it checks no
+        // IL until a method runs), the check cannot read what the call names.
+        var builder = new PersistedAssemblyBuilder(new AssemblyName("Garbled"), typeof(object).Assembly);
+        var type = builder.DefineDynamicModule("Garbled").DefineType("Garbled", TypeAttributes.Public);
+        var il = type.DefineMethod("Run", MethodAttributes.Public | MethodAttributes.Static).GetILGenerator();
+        il.Emit(OpCodes.Call, 0x2B000999);
+        il.Emit(OpCodes.Ret);
+        type.CreateType();
+        string lib = _run.In("Garbled.dll");
+        builder.Save(lib);
+
+        Run("trace", Scene, "--strategy-assembly", lib, "--quiet", "--out", _run.In("out")).Should().Be(ExitCodes.BadInput);
+
+        _run.Err.ToString().Should().MatchRegex($@"^voxprof: error: {Regex.Escape(lib)}: its method bodies cannot be read \(.+\); build it with the \.NET SDK\n$");
     }
 
     [Fact]
