@@ -57,6 +57,21 @@ internal sealed class TileLimit
     }
 
     /// <summary>
+    /// What a command does on a stall: the hung tile never returns, so the timer thread ends the run. A progress line
+    /// stays above (where it stopped), then one line; <paramref name="discard"/> throws the unfinished output away.
+    /// </summary>
+    public static Action<TileStall> Ender(TextWriter error, bool afterProgress, Action? discard, Action<int> exit) => stall =>
+    {
+        if (afterProgress)
+            error.WriteLine();
+        var (line, code) = Report(stall);
+        error.WriteLine(line);
+        error.Flush();
+        discard?.Invoke();
+        exit(code);
+    };
+
+    /// <summary>
     /// The line a stall is reported with, and the exit code: a strategy of the user's is bad input, naming its file;
     /// a built-in one that hangs is a bug of VoxProf.
     /// </summary>

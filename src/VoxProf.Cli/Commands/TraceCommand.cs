@@ -65,12 +65,13 @@ public static class TraceCommand
         var noHtml = new Option<bool>("--no-html") { Description = "Skip report.html." };
         var baseline = new Option<string?>("--baseline", "-b") { Description = "Strategy the ratios in summary.md and report.html are relative to (default: the first tree strategy traced)." };
         var linkBase = new Option<string?>("--link-base") { Description = "Absolute URL the report files will be served from; summary.md's image links then start with it, so they still work once pasted into a pull request." };
+        var pixelOpt = new Option<string?>("--pixel") { Description = "Trace pixel X,Y alone with each strategy and print its ray, hits and counts; writes nothing (for following one ray through a strategy of your own)." };
         var calibration = new Option<string?>("--calibration") { Description = "calibration.json from `voxprof calibrate`: adds predicted-ms and a predicted-cost heatmap." };
 
         var cmd = new Command("trace", "Trace a scene with each strategy and write heatmaps, summaries, report.json and report.html.")
         {
             scene, camera, eye, target, up, fov, size, strategy, strategyFile, strategyAssembly, prepass, branching, counters, scale, range, outDir, threads,
-            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration, shard,
+            quiet, perPixel, noPixels, noHtml, baseline, linkBase, calibration, shard, pixelOpt,
         };
         var sceneOptions = new SceneOptions();
         sceneOptions.AddTo(cmd);
@@ -84,6 +85,7 @@ public static class TraceCommand
             {
                 // Option values first: a mistake is reported before any slow work starts.
                 var (width, height) = OptionParsing.Size(parse.GetValue(size)!);
+                (int X, int Y)? lone = parse.GetValue(pixelOpt) is { } pixelText ? PixelProbe.Parse(pixelText, width, height) : null;
                 StrategyCatalog catalog = LoadStrategies(parse.GetValue(strategyFile) ?? [], parse.GetValue(strategyAssembly) ?? []);
                 List<StrategyDefinition> strategies = parse.GetValue(strategy) is { } s
                     ? OptionParsing.List<StrategyDefinition>(s, "--strategy", "strategy", catalog.TryParse, catalog.ValidList)
@@ -145,24 +147,23 @@ public static class TraceCommand
                 foreach (CameraSpec v in views)
                     RunChecks.BeforeTrace(loaded, v, branch, width, height, strategies, heatmaps, maxWork, available);
                 CameraSpec cam = views[0];
+                Action<int> exit = pipeline.Exit ?? Environment.Exit;
+                if (lone is not null)
+                {
+                    if (severalViews || tileShard)
+                        throw new InputException("--pixel: follows one ray of one view; give one camera and no --shard");
+                    BrickTree probeTree = pipeline.BuildTree(loaded, branch, threadCount);
+                    using IDisposable probeCheck = TileLimit.Guard(watch, TileLimit.Ender(error, false, null, exit));
+                    return PixelProbe.Run(output, pipeline, new TraceRequest(loaded, probeTree, cam, width, height, strategies, prepassBlock,
+                        threadCount, Memory: memory, Watch: watch, Pixel: lone));
+                }
                 string shardSuffix = shardChoice is { } sh ? $"-shard{sh.Index}of{sh.Count}" : "";
                 string dir = outOption ?? Path.Combine("voxprof-out", severalViews
                     ? $"{SafeName(loaded.Name)}-{SafeName(view.Name ?? cam.Name.Split('#')[0])}{shardSuffix}"
                     : $"{SafeName(loaded.Name)}-{SafeName(cam.Name)}{shardSuffix}");
                 using OutputDirectory folder = OutputDirectory.Open(dir);
                 bool showProgress = !parse.GetValue(quiet) && pipeline.StderrIsTerminal();
-                using IDisposable stallCheck = TileLimit.Guard(watch, stall =>
-                {
-                    // The hung tile never returns, so this timer thread ends the run: the progress line stays above
-                    // (where it stopped), then one line, and the unfinished output is thrown away.
-                    if (showProgress)
-                        error.WriteLine();
-                    var (line, code) = TileLimit.Report(stall);
-                    error.WriteLine(line);
-                    error.Flush();
-                    folder.Dispose();
-                    (pipeline.Exit ?? Environment.Exit)(code);
-                });
+                using IDisposable stallCheck = TileLimit.Guard(watch, TileLimit.Ender(error, showProgress, folder.Dispose, exit));
                 var options = new ReportOptions
                 {
                     Scale = scaleKind,

@@ -70,11 +70,18 @@ public sealed class PrepassMap
     /// <summary>
     /// Writes each pixel's prepass counts for the image tile [x0, x1) × [y0, y1) into the tile's counts
     /// (<see cref="TileCounts"/>): its share of its block's <see cref="BlockIterations"/> and
-    /// <see cref="BlockNodeFetches"/>, a block at a time.
+    /// <see cref="BlockNodeFetches"/>, a block at a time; or the one pixel [x0, x0 + 1) × [y0, y0 + 1).
     /// </summary>
     [MethodImpl(MethodImplOptions.AggressiveOptimization)]
     internal void FillShares(Span<uint> tile, int x0, int y0, int x1, int y1)
     {
+        // A lone pixel (trace --pixel) need not start a block: its own share, as the block loop below gives it.
+        if (x1 - x0 == 1 && y1 - y0 == 1 && x1 <= _width && y1 <= _height)
+        {
+            tile[TileCounts.Index((int)Counter.PrepassIterations, 0)] = Share(BlockIterations(x0, y0), x0, y0);
+            tile[TileCounts.Index((int)Counter.PrepassNodeFetches, 0)] = Share(BlockNodeFetches(x0, y0), x0, y0);
+            return;
+        }
         if (((x0 | y0) & (Block - 1)) != 0 || x1 > _width || y1 > _height || x1 - x0 > Tracer.TileSize || y1 - y0 > Tracer.TileSize)
             throw new ArgumentException($"({x0}, {y0})-({x1}, {y1}) is not a tile of the map's {_width}x{_height} image");
         Span<uint> iterations = tile.Slice(TileCounts.Index((int)Counter.PrepassIterations, 0), TileCounts.Slots);

@@ -13,7 +13,9 @@ namespace VoxProf.Core.Traversal;
 /// <see cref="CountWork"/> false runs the kernels with counting compiled out (for timing; counters stay zero).
 /// <see cref="Memory"/> turns the memory model on (docs/counters.md, "Memory traffic"); null leaves it off, and it
 /// never runs without counting. <see cref="Tiles"/> traces only that share of the image's tiles (the rest of every
-/// buffer stays zero); null traces them all. <see cref="Watch"/>, when given, is told when each tile starts and ends.
+/// buffer stays zero); null traces them all. <see cref="Pixel"/> traces that one pixel alone (everything else stays
+/// zero), for following one ray through a strategy. <see cref="Watch"/>, when given, is told when each tile starts and
+/// ends.
 /// </summary>
 public sealed record TraceRequest(
     Scene Scene,
@@ -27,7 +29,8 @@ public sealed record TraceRequest(
     bool CountWork = true,
     MemorySettings? Memory = null,
     TileShare? Tiles = null,
-    TileWatch? Watch = null);
+    TileWatch? Watch = null,
+    (int X, int Y)? Pixel = null);
 
 /// <summary>Runs every requested strategy over the same rays, in parallel over image tiles.</summary>
 public static class Tracer
@@ -78,11 +81,16 @@ public static class Tracer
         bool modelsMemory = request.CountWork && request.Memory is not null;
         ResultBuffers[] buffers = ResultBuffers.For(request, prepass != null, options);
         long pixelsDone = 0;
-        int[] tiles = (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
+        int[] tiles = request.Pixel is { } lone
+            ? [lone.Y / TileSize * TilesX(request.Width) + lone.X / TileSize]
+            : (request.Tiles ?? new TileShare(1, 1)).Tiles(request.Width, request.Height);
+        // A lone pixel is its tile cut down to it: the same per-pixel counts, its rays' only.
+        (int X0, int Y0, int X1, int Y1) Bounds(int tile) =>
+            request.Pixel is { } p ? (p.X, p.Y, p.X + 1, p.Y + 1) : TileBounds(tile, request.Width, request.Height);
         long heldPixels = 0;
         foreach (int t in tiles)
         {
-            var (x0, y0, x1, y1) = TileBounds(t, request.Width, request.Height);
+            var (x0, y0, x1, y1) = Bounds(t);
             heldPixels += (long)(x1 - x0) * (y1 - y0);
         }
         for (int s = 0; s < request.Strategies.Count; s++)
@@ -105,7 +113,7 @@ public static class Tracer
             long[]? started = request.Watch?.Begin(definition, tiles, request.Width, request.Height);
             Parallel.For(0, tiles.Length, options, i =>
             {
-                var (x0, y0, x1, y1) = TileBounds(tiles[i], request.Width, request.Height);
+                var (x0, y0, x1, y1) = Bounds(tiles[i]);
                 if (started is not null)
                     TileWatch.Mark(started, i, running: true);
                 try
@@ -241,6 +249,8 @@ public static class Tracer
             throw new ArgumentOutOfRangeException(nameof(r), "image size must be positive");
         if (r.PrepassBlock is not (0 or 2 or 4 or 8))
             throw new ArgumentOutOfRangeException(nameof(r), "prepass block must be 0, 2, 4 or 8");
+        if (r.Pixel is { } p && (p.X < 0 || p.Y < 0 || p.X >= r.Width || p.Y >= r.Height || r.Tiles is not null))
+            throw new ArgumentOutOfRangeException(nameof(r), "a lone pixel must lie in the image, and not with a share of tiles");
         var names = new HashSet<string>(StringComparer.OrdinalIgnoreCase);
         foreach (StrategyDefinition s in r.Strategies)
         {

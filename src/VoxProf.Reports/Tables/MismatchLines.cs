@@ -37,13 +37,18 @@ public static class MismatchLines
     {
         if (!hit.Hit)
             return "missed";
+        return string.Create(CultureInfo.InvariantCulture, $"hit voxel ({hit.X}, {hit.Y}, {hit.Z}) {Face(hit)} at t {hit.T:G9}, material {hit.Material}");
+    }
+
+    /// <summary>"through -x", "from inside" (t = 0), or "through face code 200" for a byte no walk writes.</summary>
+    public static string Face(in PixelHit hit)
+    {
         // A strategy of the user's may write any byte as the face; only the six real ones have names.
-        string face = hit.Face switch
+        return hit.Face switch
         {
             HitFace.None => "from inside",
             <= HitFace.PosZ => "through " + PixelHit.FaceName(hit.Face),
             _ => string.Create(CultureInfo.InvariantCulture, $"through face code {(int)hit.Face}"),
         };
-        return string.Create(CultureInfo.InvariantCulture, $"hit voxel ({hit.X}, {hit.Y}, {hit.Z}) {face} at t {hit.T:G9}, material {hit.Material}");
     }
 }
