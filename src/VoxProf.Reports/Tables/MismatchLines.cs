@@ -27,7 +27,7 @@ public static class MismatchLines
             string name = result.Strategy.Name;
             lines.Add(string.Create(CultureInfo.InvariantCulture,
                 $"{name}: {count} {(count == 1 ? "pixel differs" : "pixels differ")} from grid; the first, pixel ({first % result.Width}, {first / result.Width}): " +
-                $"grid {Describe(grid.Hits[first])}; {name} {Describe(result.Hits[first])}"));
+                $"grid {Describe(grid.Hits[first])}; {name} {Describe(result.Hits[first])} (--pixel {first % result.Width},{first / result.Width} follows that ray)"));
         }
         return lines;
     }

@@ -40,7 +40,7 @@ public sealed class MismatchLinesTests : IDisposable
         string[] lines = _run.Out.ToString().TrimEnd('\n').Split('\n');
         lines.Where(l => l.Contains("differ", StringComparison.Ordinal)).Should().Equal(string.Create(CultureInfo.InvariantCulture,
             $"blind: {count} pixels differ from grid; the first, pixel ({first % 48}, {first / 48}): grid hit voxel ({lost.X}, {lost.Y}, {lost.Z}) " +
-            $"through {PixelHit.FaceName(lost.Face)} at t {lost.T:G9}, material {lost.Material}; blind missed"));
+            $"through {PixelHit.FaceName(lost.Face)} at t {lost.T:G9}, material {lost.Material}; blind missed (--pixel {first % 48},{first / 48} follows that ray)"));
         lines[^1].Should().StartWith("wrote ");
     }
 
