@@ -23,7 +23,8 @@ public static class MismatchLines
             int first = HitStatistics.FirstMismatch(result.Hits, grid.Hits);
             if (first < 0)
                 continue;
-            long count = HitStatistics.MismatchCount(result.Hits, grid.Hits);
+            // Counted on from the first: one pass over the hit records in all.
+            long count = HitStatistics.MismatchCount(result.Hits.AsSpan(first), grid.Hits.AsSpan(first));
             string name = result.Strategy.Name;
             lines.Add(string.Create(CultureInfo.InvariantCulture,
                 $"{name}: {count} {(count == 1 ? "pixel differs" : "pixels differ")} from grid; the first, pixel ({first % result.Width}, {first / result.Width}): " +
